@@ -1,0 +1,157 @@
+"""The syntax tree of the notation: frozen dataclasses.
+
+Positions (0-based character offsets into the source) are kept for error messages and do
+not take part in equality, so a printed-and-reparsed tree compares equal to the original.
+
+>>> BinOp("+", Num(Fraction(1)), Q()) == BinOp("+", Num(Fraction(1), pos=7), Q(pos=9))
+True
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from fractions import Fraction
+
+
+@dataclass(frozen=True)
+class Node:
+    """Base class of every syntax-tree node."""
+
+
+@dataclass(frozen=True)
+class Num(Node):
+    """A rational constant."""
+
+    value: Fraction
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class Q(Node):
+    """The series variable q."""
+
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class Name(Node):
+    """A bound variable of an enclosing sum or product."""
+
+    name: str
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class Neg(Node):
+    """Unary minus."""
+
+    operand: Node
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class BinOp(Node):
+    """``left op right`` with op one of ``+ - * / ^``."""
+
+    op: str
+    left: Node
+    right: Node
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class Poch(Node):
+    """(a1, ..., ar; base)_length; ``length`` None means infinity."""
+
+    params: tuple[Node, ...]
+    base: Node
+    length: Node | None
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class BigOp(Node):
+    """sum_{var=lower}^{upper} body (kind "sum") or the product (kind "prod");
+    ``lower`` None means -infinity, ``upper`` None means +infinity."""
+
+    kind: str
+    var: str
+    lower: Node | None
+    upper: Node | None
+    body: Node
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class Call(Node):
+    """A named function of the registry, applied to arguments."""
+
+    name: str
+    args: tuple[Node, ...]
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
+class BigO(Node):
+    """O(q^e): an unknown remainder of order e."""
+
+    exponent: Node
+    pos: int = field(default=0, compare=False)
+
+
+def children(node: Node) -> tuple[Node, ...]:
+    """The direct sub-nodes of a node.
+
+    >>> children(BinOp("*", Q(), Num(Fraction(2))))
+    (Q(pos=0), Num(value=Fraction(2, 1), pos=0))
+    """
+    if isinstance(node, Neg):
+        return (node.operand,)
+    if isinstance(node, BinOp):
+        return (node.left, node.right)
+    if isinstance(node, Poch):
+        extra = () if node.length is None else (node.length,)
+        return (*node.params, node.base, *extra)
+    if isinstance(node, BigOp):
+        bounds = tuple(b for b in (node.lower, node.upper) if b is not None)
+        return (*bounds, node.body)
+    if isinstance(node, Call):
+        return node.args
+    if isinstance(node, BigO):
+        return (node.exponent,)
+    return ()
+
+
+def free_names(node: Node) -> frozenset[str]:
+    """Bound-variable names used in ``node`` and not bound inside it.
+
+    >>> from qseries.lang.parser import parse
+    >>> sorted(free_names(parse("q^(n k) + sum_{j>=0} q^(j n)", bound={"n", "k"})))
+    ['k', 'n']
+    """
+    if isinstance(node, Name):
+        return frozenset([node.name])
+    if isinstance(node, BigOp):
+        inner = free_names(node.body) - {node.var}
+        for b in (node.lower, node.upper):
+            if b is not None:
+                inner |= free_names(b)
+        return inner
+    out: frozenset[str] = frozenset()
+    for c in children(node):
+        out |= free_names(c)
+    return out
+
+
+def mentions_q(node: Node) -> bool:
+    """True when the node depends on q (so its value is a series, not a number).
+
+    >>> from qseries.lang.parser import parse
+    >>> mentions_q(parse("(-1)^k 2/3", bound={"k"})), mentions_q(parse("(q;q)_2"))
+    (False, True)
+    """
+    if isinstance(node, (Q, Poch, Call, BigO)):
+        return True
+    if isinstance(node, BigOp):
+        return mentions_q(node.body)
+    return any(mentions_q(c) for c in children(node))

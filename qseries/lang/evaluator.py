@@ -1,0 +1,780 @@
+"""Evaluate a syntax tree to a truncated series, walking the tree (never eval/exec).
+
+The order (absolute precision) and the coefficient ring are arguments.  Infinite sums and
+products end honestly: a symbolic lower bound for the valuation of the k-th term (of the
+k-th factor minus 1) shows when all further terms vanish below the order; when no such bound
+can be established, evaluation stops with an error instead of truncating silently.
+
+>>> evaluate("sum_{k>=0} q^(k^2)/(q;q)_k", 12)
+1 + q + q^2 + q^3 + 2q^4 + 2q^5 + 3q^6 + 3q^7 + 4q^8 + 5q^9 + 6q^10 + 7q^11 + O(q^12)
+>>> evaluate("sum_{k>=0} 1/(q;q)_k", 10)
+Traceback (most recent call last):
+...
+qseries.errors.DomainError: sum_{k>=0} does not converge as a formal power series: the valuation of its k-th term stays at 0 (it does not grow with k)
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+
+from ..errors import DomainError, QSeriesError, UnableError
+from ..products import FUNCTIONS, monomial_parts, pochhammer
+from ..series import MAX_LENGTH, ZZ, Ring, Series
+from . import symbolic as sym
+from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, free_names, mentions_q
+from .parser import parse
+
+Value = Fraction | Series
+
+#: most terms (or factors) a single sum (or product) may evaluate
+MAX_TERMS = 5_000_000
+#: largest bit size of a rational constant built by powers
+MAX_BITS = 4_000_000
+
+
+def _int_value(v: Fraction, what: str) -> int:
+    if v.denominator != 1:
+        raise DomainError(f"{what} must be an integer, not {v}")
+    return v.numerator
+
+
+class _NoBound(Exception):
+    """Raised inside the valuation analysis when no bound can be established."""
+
+
+@dataclass(frozen=True)
+class _Bound:
+    """val(term at k = sign*m) >= poly(m) for all integers m >= start; equality when exact."""
+
+    poly: sym.Poly
+    exact: bool
+    start: int
+
+
+class Evaluator:
+    """Evaluates syntax trees over one coefficient ring; caches subtrees free of bound
+    variables, per order.
+
+    >>> ev = Evaluator(ZZ)
+    >>> ev.evaluate(parse("(q;q)_inf"), 6)
+    1 - q - q^2 + q^5 + O(q^6)
+    """
+
+    def __init__(self, ring: Ring = ZZ) -> None:
+        self.ring = ring
+        self._cache: dict[tuple[int, int], Value] = {}
+        self._free: dict[int, frozenset[str]] = {}
+        self._hasq: dict[int, bool] = {}
+
+    # -- public ------------------------------------------------------------------------
+    def evaluate(self, node: Node, order: int, retries: int = 3) -> Series:
+        """The value of ``node`` modulo q^order.  Where negative powers cost precision the
+        working order is raised and the evaluation repeated (at most ``retries`` times); the
+        result's ``precision`` says what is really known."""
+        if order > MAX_LENGTH:
+            raise UnableError(f"order {order} exceeds the limit {MAX_LENGTH}")
+        self._cache.clear()
+        work = order
+        result = self._as_series(self.value(node, {}, work))
+        for _ in range(retries):
+            p = result.precision
+            if p is None or p >= order:
+                break
+            deficit = order - p
+            work += int(deficit) + (0 if Fraction(deficit).denominator == 1 else 1)
+            if work > MAX_LENGTH:
+                break
+            result = self._as_series(self.value(node, {}, work))
+        return result.truncate(order) if result.offset == 0 else _truncate_abs(result, order)
+
+    def value(self, node: Node, env: dict[str, int], order: int) -> Value:
+        """The value of ``node`` with bound variables ``env``, as a number or a series known
+        modulo q^order."""
+        if isinstance(node, (Poch, BigOp, Call)) and not (self.free(node) & env.keys()):
+            key = (id(node), order)
+            hit = self._cache.get(key)
+            if hit is None:
+                hit = self._value(node, env, order)
+                self._cache[key] = hit
+            return hit
+        return self._value(node, env, order)
+
+    # -- helpers -----------------------------------------------------------------------
+    def free(self, node: Node) -> frozenset[str]:
+        f = self._free.get(id(node))
+        if f is None:
+            f = free_names(node)
+            self._free[id(node)] = f
+        return f
+
+    def has_q(self, node: Node) -> bool:
+        h = self._hasq.get(id(node))
+        if h is None:
+            h = mentions_q(node)
+            self._hasq[id(node)] = h
+        return h
+
+    def _as_series(self, v: Value) -> Series:
+        if isinstance(v, Series):
+            return v
+        return Series.constant(v, self.ring if self.ring is not ZZ or v.denominator == 1 else None)
+
+    def scalar(self, node: Node, env: dict[str, int]) -> Fraction:
+        """The value of a node that must not involve q (an exponent, a bound, a subscript)."""
+        if self.has_q(node):
+            raise DomainError(f"the expression at column {getattr(node, 'pos', 0) + 1} must be "
+                              f"a number here, but it involves q")
+        v = self.value(node, env, 0)
+        assert isinstance(v, Fraction)
+        return v
+
+    def integer(self, node: Node, env: dict[str, int], what: str) -> int:
+        return _int_value(self.scalar(node, env), what)
+
+    # -- the walk ----------------------------------------------------------------------
+    def _value(self, node: Node, env: dict[str, int], order: int) -> Value:
+        if isinstance(node, Num):
+            return node.value
+        if isinstance(node, Q):
+            return Series.monomial(1, self.ring)
+        if isinstance(node, Name):
+            if node.name not in env:
+                raise DomainError(f"the variable {node.name!r} has no value here")
+            return Fraction(env[node.name])
+        if isinstance(node, Neg):
+            v = self.value(node.operand, env, order)
+            return -v
+        if isinstance(node, BinOp):
+            if node.op in "+-":
+                a = self.value(node.left, env, order)
+                b = self.value(node.right, env, order)
+                r = a + b if node.op == "+" else a - b
+                return r.truncate(order) if isinstance(r, Series) else r
+            if node.op in "*/":
+                return self._chain(_factors(node), env, order)
+            return self._power(node, env, order)
+        if isinstance(node, Poch):
+            return self._poch(node, env, order)
+        if isinstance(node, BigOp):
+            if node.kind == "sum":
+                return self._sum(node, env, order)
+            return self._prod(node, env, order)
+        if isinstance(node, Call):
+            args = tuple(self.value(a, env, order) if self.has_q(a) else self.scalar(a, env)
+                         for a in node.args)
+            return FUNCTIONS[node.name].build(args, self.ring, order)
+        if isinstance(node, BigO):
+            m = self.integer(node.exponent, env, "the exponent in O(q^e)")
+            return Series.zero(self.ring, m)
+        raise TypeError(f"not a syntax-tree node: {node!r}")
+
+    def _power(self, node: BinOp, env: dict[str, int], order: int) -> Value:
+        if self.has_q(node.right):
+            raise DomainError("an exponent must not involve q")
+        e = self.scalar(node.right, env)
+        if not self.has_q(node.left):
+            base = self.scalar(node.left, env)
+            return _rational_power(base, e)
+        if isinstance(node.left, Q):
+            return Series.monomial(e, self.ring)
+        base_s = self.value(node.left, env, order)
+        assert isinstance(base_s, Series)
+        mono = monomial_parts(base_s)
+        if e.denominator != 1:
+            if mono is not None and mono[0] == 1:
+                return Series.monomial(mono[1] * e, self.ring)
+            raise UnableError(f"only integer powers of a series are supported (got {e})")
+        n = e.numerator
+        if abs(n) > MAX_LENGTH:
+            raise UnableError(f"the power {n} is too large")
+        if mono is not None:
+            c, s = mono
+            return Series.monomial(s * n, base_s.ring, _rational_power(Fraction(c), e))
+        return base_s.power(n, order)
+
+    def _poch(self, node: Poch, env: dict[str, int], order: int) -> Series:
+        base = self.value(node.base, env, order)
+        mono = monomial_parts(base) if isinstance(base, Series) else None
+        if mono is None or mono[0] != 1 or mono[1].denominator != 1 or mono[1] < 1:
+            raise DomainError(f"the base of the q-Pochhammer symbol at column {node.pos + 1} "
+                              f"must be q^t with t a positive integer")
+        t = int(mono[1])
+        n = None if node.length is None else self.integer(node.length, env,
+                                                            "the subscript of (a;q)_n")
+        acc: Series | None = None
+        for p in node.params:
+            a = self._as_series(self.value(p, env, order))
+            f = pochhammer(a, t, n, order)
+            acc = f if acc is None else (acc * f).truncate(order)
+        assert acc is not None
+        return acc
+
+    # -- products and quotients ----------------------------------------------------------
+    def _chain(self, factors: list[tuple[Node, int]], env: dict[str, int], order: int) -> Value:
+        """Multiply out factors node^power: numbers and monomials first (so the remaining
+        factors are computed only to the order they matter), then series, binomials
+        1 - c q^j by the O(N) fast paths, and one inversion for the other denominators."""
+        coeff = Fraction(1)
+        shift = Fraction(0)
+        rest: list[tuple[Node, int]] = []
+        any_series = False
+        for node, p in factors:
+            if not self.has_q(node):
+                v = self.scalar(node, env)
+                if p < 0 and v == 0:
+                    raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}")
+                coeff *= _rational_power(v, Fraction(p))
+            elif isinstance(node, Q) or (isinstance(node, BinOp) and node.op == "^"
+                                         and isinstance(node.left, Q)):
+                any_series = True
+                e = Fraction(1) if isinstance(node, Q) else self.scalar(node.right, env)
+                shift += e * p
+            else:
+                any_series = True
+                rest.append((node, p))
+        if not any_series:
+            return coeff
+        if coeff == 0 and rest == []:
+            return Series.zero(self.ring)
+        inner = order - _ceil(shift)
+        acc = self._apply(Series.constant(1, self.ring), rest, env, inner)
+        if coeff != 1:
+            acc = acc * coeff
+        return acc.shift(shift).truncate(order) if shift else acc
+
+    def _apply(self, acc: Series, factors: list[tuple[Node, int]], env: dict[str, int],
+               order: int) -> Series:
+        """acc * prod node^power modulo q^order."""
+        dens: list[Series] = []
+        binoms: list[tuple[Fraction | int, int, int]] = []
+        for node, p in factors:
+            v = self.value(node, env, order)
+            if not isinstance(v, Series):
+                if p < 0 and v == 0:
+                    raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}")
+                acc = acc * _rational_power(v, Fraction(p))
+                continue
+            b = _binomial_parts(v)
+            if b is not None:
+                binoms.append((b[0], b[1], p))
+            elif p > 0:
+                acc = (acc * (v if p == 1 else v.power(p, order))).truncate(order)
+            else:
+                dens.append(v if p == -1 else v.power(-p, order))
+        for c, j, p in binoms:
+            if p > 0:
+                for _ in range(p):
+                    acc = acc.mul_binomial(c, j, order)
+        if dens:
+            den = dens[0]
+            for d in dens[1:]:
+                den = (den * d).truncate(order)
+            va = acc.valuation
+            shift_num = int(va) if va is not None else 0
+            acc = (acc * den.inverse(order=order - shift_num)).truncate(order)
+        for c, j, p in binoms:
+            if p < 0:
+                if c == 1 and j == 0:
+                    raise DomainError("division by zero")
+                for _ in range(-p):
+                    acc = acc.div_binomial(c, j, order)
+        return acc.truncate(order)
+
+    # -- sums and products ------------------------------------------------------------------
+    def _range(self, node: BigOp, env: dict[str, int], order: int,
+               deviation: bool) -> list[int]:
+        """The values of the bound variable whose terms can matter modulo q^order."""
+        lo = None if node.lower is None else self.integer(node.lower, env, "a lower limit")
+        hi = None if node.upper is None else self.integer(node.upper, env, "an upper limit")
+        label = _label(node)
+        if lo is not None and hi is not None:
+            if hi < lo:
+                return []
+            if hi - lo + 1 <= MAX_TERMS:
+                return list(range(lo, hi + 1))
+            # a long finite range: cut it where the terms vanish modulo q^order
+            up = self._cutoff(node, env, order, +1, lo, deviation)
+            return list(range(lo, min(hi, up - 1) + 1))
+        ks: list[int] = []
+        if hi is None:
+            start = lo if lo is not None else 0
+            stop = self._cutoff(node, env, order, +1, start, deviation)
+            ks = list(range(start, stop))
+        if lo is None:
+            start = hi if hi is not None else -1
+            stop = self._cutoff(node, env, order, -1, -start, deviation)  # in m = -k
+            ks = list(range(-stop + 1, start + 1)) + ks
+        if len(ks) > MAX_TERMS:
+            raise UnableError(f"{label} needs {len(ks)} terms at this order; the limit is "
+                              f"{MAX_TERMS}")
+        return ks
+
+    def _cutoff(self, node: BigOp, env: dict[str, int], order: int, sign: int, start: int,
+                deviation: bool) -> int:
+        """First m >= start (k = sign*m) from which every term has valuation >= order."""
+        label = _label(node)
+        what = "factor minus 1" if deviation else "term"
+        try:
+            b = (self._deviation if deviation else self._lower)(node.body, node.var, sign, env,
+                                                                order)
+        except _NoBound as why:
+            raise UnableError(f"cannot show that {label} converges as a formal power series "
+                              f"({why}); give finite limits") from None
+        if b is None:  # every factor is exactly 1
+            return start
+        if sym.degree(b.poly) < 1 or sym.leading(b.poly) <= 0:
+            shown = sym.peval(b.poly, 0)
+            if b.exact:
+                raise DomainError(f"{label} does not converge as a formal power series: the "
+                                  f"valuation of its {node.var}-th {what} stays at "
+                                  f"{_num(shown)} (it does not grow with {node.var})")
+            raise UnableError(f"cannot show that {label} converges as a formal power series: "
+                              f"the valuation of its {node.var}-th {what} is only known to "
+                              f"be at least {_poly_text(b.poly, node.var, sign)}")
+        m = sym.eventually_at_least(b.poly, order, max(start, b.start))
+        return max(m, start)
+
+    def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
+        if not self.has_q(node.body):
+            if node.lower is None or node.upper is None:
+                raise DomainError(f"{_label(node)} adds infinitely many numbers; it has no "
+                                  f"meaning as a formal power series")
+            lo = self.integer(node.lower, env, "a lower limit")
+            hi = self.integer(node.upper, env, "an upper limit")
+            if hi - lo + 1 > MAX_TERMS:
+                raise UnableError(f"{_label(node)} has too many terms")
+            total = Fraction(0)
+            for k in range(lo, hi + 1):
+                total += self.scalar(node.body, {**env, node.var: k})
+            return total
+        ks = self._range(node, env, order, deviation=False)
+        return self._sum_terms(node, ks, env, order)
+
+    def _sum_terms(self, node: BigOp, ks: list[int], env: dict[str, int], order: int) -> Series:
+        var = node.var
+        sign, factors = _signed_factors(node.body)
+        const_f = [(f, p) for f, p in factors if var not in self.free(f)]
+        moving = [(f, p) for f, p in factors if var in self.free(f)]
+        # the constant factors: computed once
+        const = self._chain(const_f, env, order) if const_f else Fraction(1)
+        if isinstance(const, Series) and const.is_zero() and const.is_exact:
+            return Series.zero(self.ring)
+        vconst = 0
+        if isinstance(const, Series):
+            vv = const.valuation
+            vconst = _floor(vv) if vv is not None else 0
+        target = order - vconst
+        # classify the moving factors
+        scalars = [(f, p) for f, p in moving if not self.has_q(f)]
+        monos = [(f, p) for f, p in moving if self.has_q(f) and _is_q_power(f)]
+        stepping: list[tuple[Poch, int]] = []
+        direct: list[tuple[Node, int]] = []
+        for f, p in moving:
+            if not self.has_q(f) or _is_q_power(f):
+                continue
+            if isinstance(f, Poch) and self._steppable(f, var, env):
+                stepping.append((f, p))
+            else:
+                direct.append((f, p))
+        # exponents of the monomial part, and which terms are needed
+        shifts: list[Fraction] = []
+        for k in ks:
+            e = Fraction(0)
+            env_k = {**env, var: k}
+            for f, p in monos:
+                e += p * (Fraction(1) if isinstance(f, Q) else self.scalar(f.right, env_k))
+            shifts.append(e)
+        suffix_min: list[Fraction] = [Fraction(0)] * len(ks)
+        running: Fraction | None = None
+        for i in range(len(ks) - 1, -1, -1):
+            running = shifts[i] if running is None else min(running, shifts[i])
+            suffix_min[i] = running
+        total = Series.zero(self.ring, target)
+        states: list[Series | None] = [None] * len(stepping)
+        prev_k: int | None = None
+        for i, k in enumerate(ks):
+            env_k = {**env, var: k}
+            need = target - _ceil(shifts[i])
+            keep = target - _ceil(suffix_min[i])
+            # advance the stepping products (ratio of consecutive terms: a few binomials)
+            for s_i, (f, p) in enumerate(stepping):
+                states[s_i] = self._step(f, p, states[s_i], prev_k, k, env, var, keep)
+            prev_k = k
+            if need <= 0:
+                continue
+            c = Fraction(sign)
+            for f, p in scalars:
+                v = self.scalar(f, env_k)
+                if v == 0 and p < 0:
+                    raise DomainError(f"division by zero in {_label(node)} at {var} = {k}")
+                c *= _rational_power(v, Fraction(p))
+            if c == 0:
+                continue
+            acc = Series.constant(1, self.ring)
+            for st in states:
+                assert st is not None
+                acc = (acc * st).truncate(need)
+            if direct:
+                acc = self._apply(acc, direct, env_k, need)
+            term = (acc * c).shift(shifts[i]) if shifts[i] else acc * c
+            total = (total + term).truncate(target)
+        if isinstance(const, Series):
+            return (total * const).truncate(order)
+        return (total * const).truncate(order)
+
+    def _steppable(self, f: Poch, var: str, env: dict[str, int]) -> bool:
+        if any(var in self.free(x) for x in (*f.params, f.base)) or f.length is None:
+            return False
+        try:
+            poly = self._poly_of(f.length, var, 1, env)
+        except _NoBound:
+            return False
+        return sym.degree(poly) == 1 and all(c.denominator == 1 for c in poly)
+
+    def _step(self, f: Poch, p: int, state: Series | None, prev_k: int | None, k: int,
+              env: dict[str, int], var: str, keep: int) -> Series:
+        """(params; q^t)_{n(k)}^p from its value at prev_k by multiplying the binomials
+        between n(prev_k) and n(k); computed directly the first time."""
+        keep = max(keep, 0)
+        n_k = self.integer(f.length, {**env, var: k}, "a subscript")  # type: ignore[arg-type]
+        if state is None or prev_k is None:
+            v = self._as_series(self.value(f, {**env, var: k}, keep))
+            return v.power(p, keep) if p != 1 else v.truncate(keep)
+        n_prev = self.integer(f.length, {**env, var: prev_k}, "a subscript")  # type: ignore[arg-type]
+        base = self.value(f.base, env, keep)
+        t = int(monomial_parts(base)[1])  # type: ignore[index, arg-type]
+        acc = state
+        lo, hi = sorted((n_prev, n_k))
+        grow = n_k > n_prev
+        for param in f.params:
+            a = self._as_series(self.value(param, env, keep))
+            mono = monomial_parts(a)
+            for j in range(lo, hi):
+                # (a;q^t)_{j+1} = (a;q^t)_j (1 - a q^(tj))
+                times = p if grow else -p
+                acc = _times_binomial(acc, a, mono, t * j, times, keep)
+        return acc.truncate(keep)
+
+    def _prod(self, node: BigOp, env: dict[str, int], order: int) -> Value:
+        if not self.has_q(node.body):
+            if node.lower is None or node.upper is None:
+                raise DomainError(f"{_label(node)} multiplies infinitely many numbers; it has "
+                                  f"no meaning as a formal power series")
+            lo = self.integer(node.lower, env, "a lower limit")
+            hi = self.integer(node.upper, env, "an upper limit")
+            if hi - lo + 1 > MAX_TERMS:
+                raise UnableError(f"{_label(node)} has too many factors")
+            total = Fraction(1)
+            for k in range(lo, hi + 1):
+                total *= self.scalar(node.body, {**env, node.var: k})
+            return total
+        ks = self._range(node, env, order, deviation=True)
+        sign, factors = _signed_factors(node.body)
+        acc = Series.constant(1, self.ring)
+        for k in ks:
+            acc = self._apply(acc, factors, {**env, node.var: k}, order)
+            if sign < 0:
+                acc = -acc
+        return acc
+
+    # -- valuation analysis ------------------------------------------------------------------
+    def _poly_of(self, node: Node, var: str, sign: int, env: dict[str, int]) -> sym.Poly:
+        """A number-valued node as a polynomial in m, where var = sign*m."""
+        if var not in self.free(node):
+            if self.has_q(node):
+                raise _NoBound("an exponent involves q")
+            return sym.const(self.scalar(node, env))
+        if isinstance(node, Name):
+            return (Fraction(0), Fraction(sign))
+        if isinstance(node, Neg):
+            return sym.pneg(self._poly_of(node.operand, var, sign, env))
+        if isinstance(node, BinOp):
+            if node.op in "+-*":
+                a = self._poly_of(node.left, var, sign, env)
+                b = self._poly_of(node.right, var, sign, env)
+                return sym.padd(a, b) if node.op == "+" else (
+                    sym.psub(a, b) if node.op == "-" else sym.pmul(a, b))
+            if node.op == "/" and var not in self.free(node.right):
+                d = self.scalar(node.right, env)
+                if d == 0:
+                    raise DomainError("division by zero")
+                return sym.pscale(self._poly_of(node.left, var, sign, env), 1 / d)
+            if node.op == "^" and var not in self.free(node.right):
+                e = self.scalar(node.right, env)
+                if e.denominator == 1 and 0 <= e <= 8:
+                    return sym.ppow(self._poly_of(node.left, var, sign, env), int(e))
+        raise _NoBound(f"the expression at column {getattr(node, 'pos', 0) + 1} is not a "
+                       f"polynomial in {var}")
+
+    def _constant_bound(self, node: Node, env: dict[str, int], order: int) -> _Bound:
+        v = self._as_series(self.value(node, env, order))
+        val = v.valuation
+        if val is None:
+            raise _NoBound("a factor vanishes to the working order")
+        return _Bound(sym.const(Fraction(val)), v.is_exact or v.precision is None
+                      or v.precision > val, 0)
+
+    def _lower(self, node: Node, var: str, sign: int, env: dict[str, int],
+               order: int) -> _Bound:
+        """A lower bound for the valuation of node as a polynomial in m (var = sign*m)."""
+        if not self.has_q(node):
+            return _Bound((), True, 0)
+        if var not in self.free(node):
+            return self._constant_bound(node, env, order)
+        if isinstance(node, Neg):
+            return self._lower(node.operand, var, sign, env, order)
+        if isinstance(node, BinOp):
+            if node.op in "+-":
+                a = self._lower(node.left, var, sign, env, order)
+                b = self._lower(node.right, var, sign, env, order)
+                return _min_bound(a, b)
+            if node.op == "*":
+                a = self._lower(node.left, var, sign, env, order)
+                b = self._lower(node.right, var, sign, env, order)
+                return _Bound(sym.padd(a.poly, b.poly), a.exact and b.exact,
+                              max(a.start, b.start))
+            if node.op == "/":
+                a = self._lower(node.left, var, sign, env, order)
+                b = self._lower(node.right, var, sign, env, order)
+                if not b.exact:
+                    raise _NoBound("the valuation of a denominator is not known exactly")
+                return _Bound(sym.psub(a.poly, b.poly), a.exact, max(a.start, b.start))
+            # a power
+            if self.has_q(node.right):
+                raise _NoBound("an exponent involves q")
+            if var not in self.free(node.right):
+                e = self.scalar(node.right, env)
+                b = self._lower(node.left, var, sign, env, order)
+                if e < 0 and not b.exact:
+                    raise _NoBound("the valuation of a denominator is not known exactly")
+                return _Bound(sym.pscale(b.poly, e), b.exact, b.start)
+            ep = self._poly_of(node.right, var, sign, env)
+            b = self._lower(node.left, var, sign, env, order)
+            if sym.degree(b.poly) > 0 or not b.exact:
+                raise _NoBound("a power with a variable exponent of a non-monomial")
+            return _Bound(sym.pscale(ep, b.poly[0] if b.poly else Fraction(0)), True, b.start)
+        if isinstance(node, Poch):
+            start = self._poch_start(node, var, sign, env, order)
+            return _Bound((), True, start)
+        if isinstance(node, Call) and FUNCTIONS[node.name].unit_constant_term:
+            return _Bound((), False, 0)
+        if isinstance(node, BigO):
+            return _Bound(self._poly_of(node.exponent, var, sign, env), False, 0)
+        raise _NoBound(f"no valuation bound for the expression at column "
+                       f"{getattr(node, 'pos', 0) + 1}")
+
+    def _poch_start(self, node: Poch, var: str, sign: int, env: dict[str, int],
+                    order: int) -> int:
+        """m from which (params; q^t)_n(m) has constant term 1 (valuation exactly 0)."""
+        if var in self.free(node.base):
+            raise _NoBound("the base of a q-Pochhammer symbol depends on the variable")
+        start = 0
+        if node.length is not None and var in self.free(node.length):
+            lp = self._poly_of(node.length, var, sign, env)
+            if sym.leading(lp) < 0:
+                raise _NoBound("the subscript of a q-Pochhammer symbol becomes negative")
+            if sym.degree(lp) >= 1:
+                start = sym.eventually_at_least(lp, 0, 0)
+        elif node.length is not None and self.integer(node.length, env, "a subscript") < 0:
+            raise _NoBound("a q-Pochhammer symbol with negative subscript")
+        for p in node.params:
+            if not self.has_q(p):
+                if var in self.free(p) or self.scalar(p, env) == 1:
+                    raise _NoBound("a q-Pochhammer symbol (c;q)_n with c = 1 or varying")
+                continue
+            b = self._lower(p, var, sign, env, order)
+            if sym.degree(b.poly) >= 1 and sym.leading(b.poly) > 0:
+                start = max(start, sym.eventually_at_least(b.poly, 1, b.start))
+            elif sym.degree(b.poly) <= 0 and (b.poly[0] if b.poly else 0) >= 1:
+                start = max(start, b.start)
+            else:
+                raise _NoBound("a q-Pochhammer parameter without positive valuation")
+        return start
+
+    def _deviation(self, node: Node, var: str, sign: int, env: dict[str, int],
+                   order: int) -> _Bound | None:
+        """A lower bound for val(node - 1); None when node is exactly 1."""
+        if not self.has_q(node):
+            if var not in self.free(node) and self.scalar(node, env) == 1:
+                return None
+            raise _NoBound("a factor of the product is a number other than 1")
+        if isinstance(node, BinOp):
+            if node.op in "+-":
+                for one, other in ((node.left, node.right), (node.right, node.left)):
+                    if isinstance(one, Num) and one.value == 1 and \
+                            (node.op == "+" or one is node.left):
+                        return self._lower(other, var, sign, env, order)
+                raise _NoBound("a factor is not of the form 1 +- X")
+            if node.op in "*/":
+                a = self._deviation(node.left, var, sign, env, order)
+                b = self._deviation(node.right, var, sign, env, order)
+                if a is None or b is None:
+                    return a or b
+                return _min_bound(a, b)
+            if node.op == "^" and not self.has_q(node.right):
+                return self._deviation(node.left, var, sign, env, order)
+        if isinstance(node, Poch):
+            self._poch_start(node, var, sign, env, order)
+            bounds = [self._lower(p, var, sign, env, order) for p in node.params]
+            out = bounds[0]
+            for b in bounds[1:]:
+                out = _min_bound(out, b)
+            return _Bound(out.poly, False, out.start)
+        raise _NoBound(f"no bound for the factor at column {getattr(node, 'pos', 0) + 1}")
+
+
+# -- module helpers ---------------------------------------------------------------------------
+def _label(node: BigOp) -> str:
+    if node.lower is not None and node.upper is None:
+        return f"{node.kind}_{{{node.var}>=...}}" if not isinstance(node.lower, Num) else \
+            f"{node.kind}_{{{node.var}>={_num(node.lower.value)}}}"
+    return f"{node.kind}_{{{node.var}=...}}"
+
+
+def _num(v: Fraction) -> str:
+    return str(v.numerator) if v.denominator == 1 else str(v)
+
+
+def _poly_text(p: sym.Poly, var: str, sign: int) -> str:
+    if not p:
+        return "0"
+    m = var if sign > 0 else f"(-{var})"
+    parts = []
+    for i in range(len(p) - 1, -1, -1):
+        if p[i]:
+            parts.append(f"{_num(p[i])}" + ("" if i == 0 else f"*{m}" + ("" if i == 1 else f"^{i}")))
+    return " + ".join(parts)
+
+
+def _min_bound(a: _Bound, b: _Bound) -> _Bound:
+    d = sym.psub(a.poly, b.poly)
+    start = max(a.start, b.start)
+    if not d:
+        return _Bound(a.poly, False, start)
+    if sym.leading(d) > 0:        # b eventually smaller
+        return _Bound(b.poly, b.exact, max(start, sym.root_bound(d)))
+    return _Bound(a.poly, a.exact, max(start, sym.root_bound(d)))
+
+
+def _factors(node: Node, p: int = 1) -> list[tuple[Node, int]]:
+    """Flatten a product/quotient chain into (factor, power) pairs; constant integer powers
+    of q-Pochhammer symbols become powers of the factor."""
+    if isinstance(node, BinOp) and node.op == "*":
+        return _factors(node.left, p) + _factors(node.right, p)
+    if isinstance(node, BinOp) and node.op == "/":
+        return _factors(node.left, p) + _factors(node.right, -p)
+    if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Poch) and \
+            isinstance(node.right, Num) and node.right.value.denominator == 1 and \
+            abs(node.right.value) <= 64:
+        return [(node.left, p * int(node.right.value))]
+    if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Poch) and \
+            isinstance(node.right, Neg) and isinstance(node.right.operand, Num) and \
+            node.right.operand.value.denominator == 1 and abs(node.right.operand.value) <= 64:
+        return [(node.left, -p * int(node.right.operand.value))]
+    return [(node, p)]
+
+
+def _signed_factors(node: Node) -> tuple[int, list[tuple[Node, int]]]:
+    sign = 1
+    while isinstance(node, Neg):
+        sign = -sign
+        node = node.operand
+    return sign, _factors(node)
+
+
+def _is_q_power(node: Node) -> bool:
+    return isinstance(node, Q) or (isinstance(node, BinOp) and node.op == "^"
+                                   and isinstance(node.left, Q))
+
+
+def _binomial_parts(s: Series) -> tuple[Fraction | int, int] | None:
+    """(c, j) when s is exactly 1 - c q^j with j >= 1."""
+    if not s.is_exact or s.offset != 0 or s.start != 0:
+        return None
+    R = s.ring
+    n = R.length(s.poly)
+    if n < 2 or n > 1 << 20:
+        return None
+    if R.coeff(s.poly, 0) != 1:
+        return None
+    j = n - 1
+    if n > 2:
+        for i in range(1, j):
+            if R.coeff(s.poly, i) != 0:
+                return None
+    return -R.to_number(R.coeff(s.poly, j)), j
+
+
+def _times_binomial(acc: Series, a: Series, mono: tuple | None, shift: int, times: int,
+                    order: int) -> Series:
+    """acc * (1 - a q^shift)^times."""
+    if mono is not None:
+        c, e = mono
+        e = e + shift
+        if e.denominator == 1 and e >= 1:
+            for _ in range(abs(times)):
+                acc = acc.mul_binomial(c, int(e), order) if times > 0 else \
+                    acc.div_binomial(c, int(e), order)
+            return acc
+    factor = Series.constant(1, acc.ring) - a.shift(shift)
+    if factor.is_zero() and factor.is_exact:
+        if times < 0:
+            raise DomainError("a q-Pochhammer symbol in a denominator vanishes")
+        return Series.zero(acc.ring)
+    for _ in range(abs(times)):
+        if times > 0:
+            acc = (acc * factor).truncate(order)
+        else:
+            va = acc.valuation
+            acc = (acc * factor.inverse(order=order - (_floor(va) if va is not None else 0))
+                   ).truncate(order)
+    return acc
+
+
+def _vint(s: Series) -> int:
+    v = s.valuation
+    return _floor(v) if v is not None else 0
+
+
+def _floor(x: Fraction | int) -> int:
+    x = Fraction(x)
+    return x.numerator // x.denominator
+
+
+def _ceil(x: Fraction | int) -> int:
+    return -_floor(-Fraction(x))
+
+
+def _rational_power(base: Fraction, e: Fraction) -> Fraction:
+    if e.denominator != 1:
+        if base == 1:
+            return Fraction(1)
+        raise UnableError(f"{base}^{e} is not rational; only integer powers of numbers")
+    n = e.numerator
+    if n < 0 and base == 0:
+        raise DomainError("division by zero (0 to a negative power)")
+    bits = max(abs(base.numerator).bit_length(), abs(base.denominator).bit_length())
+    if bits > 1 and abs(n) * bits > MAX_BITS:
+        raise UnableError(f"the number {base}^{n} is too large")
+    return base ** n
+
+
+def _truncate_abs(s: Series, order: int) -> Series:
+    """Keep exponents below ``order`` for a series with a fractional offset."""
+    k = order - s.offset  # keep offset + i < order  <=>  i < order - offset
+    return s.truncate(_ceil(k))
+
+
+def evaluate(expr: str | Node, order: int, ring: Ring = ZZ) -> Series:
+    """Parse (if needed) and evaluate an expression modulo q^order over ``ring``.
+
+    >>> evaluate("(q;q)_inf^3", 11)
+    1 - 3q + 5q^3 - 7q^6 + 9q^10 + O(q^11)
+    >>> evaluate("eta(q)", 3)
+    q^(1/24) - q^(25/24) - q^(49/24) + O(q^(73/24))
+    """
+    if isinstance(order, bool) or not isinstance(order, int) or order < 0:
+        raise QSeriesError(f"the order must be a non-negative integer, not {order!r}")
+    node = parse(expr) if isinstance(expr, str) else expr
+    return Evaluator(ring).evaluate(node, order)

@@ -1,0 +1,439 @@
+"""A hand-written recursive-descent parser for the notation of papers, in ASCII.
+
+Grammar (informally; juxtaposition is multiplication)::
+
+    expr    := term (("+" | "-") term)*
+    term    := signed (("*" | "/")? factor)*      -- a sum/prod factor takes the rest of the term
+    signed  := ("-" | "+") signed | power
+    power   := atom (("^" | "**") exponent)?      -- right associative
+    exponent:= ("-" | "+") exponent | atom (("^" | "**") exponent)?
+    atom    := number | "q" | name | "inf" | "(" expr ")" | "{" expr "}"
+             | "(" expr ("," expr)* ";" expr ")" "_" subscript     -- q-Pochhammer symbol
+             | "(" expr ")" "_" subscript                            -- (a)_n = (a;q)_n
+             | ("sum" | "prod") "_" "{" name (">=" expr | "=" bound) "}" ("^" upper)? term
+             | function "(" expr ("," expr)* ")" | "O" "(" expr ")"
+    subscript := "inf" | "∞" | number | name | "(" expr ")" | "{" expr "}"
+
+No text is ever evaluated as code: the parser builds a tree of :mod:`qseries.lang.ast`
+nodes, and every error names the position with a caret.
+
+>>> from qseries.lang.printer import show
+>>> show(parse("q^(k(3k-1)/2)", bound={"k"}))
+'q^(k * (3 * k - 1) / 2)'
+>>> parse("2 )")
+Traceback (most recent call last):
+...
+qseries.errors.ParseError: unexpected ')' at column 3
+  2 )
+    ^
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+from dataclasses import dataclass
+from fractions import Fraction
+
+from ..errors import ParseError
+from ..products import FUNCTIONS
+from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q
+
+#: longest accepted input, in characters
+MAX_TEXT = 100_000
+#: deepest accepted nesting of parentheses, operators and sums
+MAX_DEPTH = 150
+#: most digits in one integer literal
+MAX_DIGITS = 2_000
+
+KEYWORDS = {"q", "sum", "prod", "inf", "O"}
+_SYMBOLS = ["**", ">=", "<=", "+", "-", "*", "/", "^", "(", ")", "{", "}", ",", ";", "_", "=",
+            "∞", "<", ">", "[", "]"]
+
+
+@dataclass(frozen=True)
+class Token:
+    kind: str  # "num", "name", "sym", "end"
+    text: str
+    pos: int
+
+
+def tokenize(text: str) -> list[Token]:
+    """Split text into tokens; ``\\infty`` and ``oo`` are not accepted, ``∞`` is.
+
+    >>> [t.text for t in tokenize("2q^3 (q;q)_inf")]
+    ['2', 'q', '^', '3', '(', 'q', ';', 'q', ')', '_', 'inf', '']
+    """
+    if len(text) > MAX_TEXT:
+        raise ParseError(f"the expression is longer than {MAX_TEXT} characters",
+                         text[:200], 200)
+    out: list[Token] = []
+    i, n = 0, len(text)
+    while i < n:
+        ch = text[i]
+        if ch.isspace():
+            i += 1
+            continue
+        if ch.isdigit():
+            j = i
+            while j < n and text[j].isdigit():
+                j += 1
+            if j < n and text[j] == "." and j + 1 < n and text[j + 1].isdigit():
+                raise ParseError("decimal numbers are not accepted; write a fraction such as 3/2",
+                                 text, j)
+            if j - i > MAX_DIGITS:
+                raise ParseError(f"number with more than {MAX_DIGITS} digits", text, i)
+            out.append(Token("num", text[i:j], i))
+            i = j
+            continue
+        if ch.isascii() and ch.isalpha():
+            j = i
+            while j < n and text[j].isascii() and (text[j].isalnum()):
+                j += 1
+            out.append(Token("name", text[i:j], i))
+            i = j
+            continue
+        for sym in _SYMBOLS:
+            if text.startswith(sym, i):
+                out.append(Token("sym", "^" if sym == "**" else sym, i))
+                i += len(sym)
+                break
+        else:
+            raise ParseError(f"unexpected character {ch!r}", text, i)
+    out.append(Token("end", "", n))
+    return out
+
+
+class _Parser:
+    def __init__(self, text: str, bound: Iterable[str] = ()) -> None:
+        self.text = text
+        self.toks = tokenize(text)
+        self.i = 0
+        self.depth = 0
+        self.bound: list[str] = list(bound)
+        # set when a sum or product has just taken the rest of the term as its body
+        self.tail_taken = False
+
+    # -- helpers ------------------------------------------------------------------------
+    @property
+    def tok(self) -> Token:
+        return self.toks[self.i]
+
+    def error(self, message: str, tok: Token | None = None) -> ParseError:
+        t = tok or self.tok
+        return ParseError(message, self.text, t.pos)
+
+    def at(self, *texts: str) -> bool:
+        t = self.tok
+        return t.kind in ("sym", "name") and t.text in texts
+
+    def take(self) -> Token:
+        t = self.tok
+        self.i += 1
+        return t
+
+    def expect(self, text: str, what: str = "") -> Token:
+        if not self.at(text):
+            found = "the end of the expression" if self.tok.kind == "end" else repr(self.tok.text)
+            raise self.error(f"expected {text!r}{what} but found {found}")
+        return self.take()
+
+    def enter(self) -> None:
+        self.depth += 1
+        if self.depth > MAX_DEPTH:
+            raise self.error(f"the expression is nested more than {MAX_DEPTH} levels deep")
+
+    def leave(self) -> None:
+        self.depth -= 1
+
+    # -- grammar ------------------------------------------------------------------------
+    def parse(self) -> Node:
+        if self.tok.kind == "end":
+            raise self.error("empty expression")
+        node = self.expr()
+        if self.tok.kind != "end":
+            raise self.error(f"unexpected {self.tok.text!r}")
+        return node
+
+    def expr(self) -> Node:
+        self.enter()
+        node = self.term()
+        while self.at("+", "-"):
+            op = self.take()
+            right = self.term()
+            node = BinOp(op.text, node, right, op.pos)
+        self.leave()
+        return node
+
+    def starts_factor(self) -> bool:
+        t = self.tok
+        if t.kind == "num":
+            return True
+        if t.kind == "name":
+            return True
+        return t.kind == "sym" and t.text in ("(", "{", "∞")
+
+    def term(self) -> Node:
+        self.enter()
+        node = self.signed()
+        while True:
+            if self.tail_taken:
+                self.tail_taken = False
+                break  # a sum or product took the rest of the term as its body
+            if self.at("*", "/"):
+                op = self.take()
+                right = self.signed_after_operator()
+                node = BinOp(op.text, node, right, op.pos)
+            elif self.starts_factor():
+                pos = self.tok.pos
+                right = self.power()
+                node = BinOp("*", node, right, pos)
+            else:
+                break
+        self.leave()
+        return node
+
+    def signed_after_operator(self) -> Node:
+        # allow "a * -b" as papers sometimes do
+        if self.at("-", "+"):
+            return self.signed()
+        return self.power()
+
+    def signed(self) -> Node:
+        self.enter()
+        if self.at("-"):
+            t = self.take()
+            node: Node = Neg(self.signed(), t.pos)
+        elif self.at("+"):
+            self.take()
+            node = self.signed()
+        else:
+            node = self.power()
+        self.leave()
+        return node
+
+    def power(self) -> Node:
+        self.enter()
+        base = self.atom()
+        if self.at("^") and not self.tail_taken:
+            t = self.take()
+            base = BinOp("^", base, self.exponent(), t.pos)
+        self.leave()
+        return base
+
+    def exponent(self) -> Node:
+        self.enter()
+        if self.at("-"):
+            t = self.take()
+            node: Node = Neg(self.exponent(), t.pos)
+        elif self.at("+"):
+            self.take()
+            node = self.exponent()
+        else:
+            node = self.power()
+        self.leave()
+        return node
+
+    def atom(self) -> Node:
+        t = self.tok
+        if t.kind == "num":
+            self.take()
+            return Num(Fraction(int(t.text)), t.pos)
+        if t.kind == "end":
+            raise self.error("the expression ends too early")
+        if t.kind == "sym":
+            if t.text == "(":
+                return self.paren()
+            if t.text == "{":
+                self.take()
+                node = self.expr()
+                self.expect("}")
+                return node
+            raise self.error(f"unexpected {t.text!r}")
+        # a name
+        name = t.text
+        if name == "q":
+            self.take()
+            return Q(t.pos)
+        if name in ("sum", "prod"):
+            return self.bigop()
+        if name == "O":
+            self.take()
+            self.expect("(", " after O")
+            inner = self.expr()
+            self.expect(")")
+            if not (isinstance(inner, BinOp) and inner.op == "^" and isinstance(inner.left, Q)) \
+                    and not isinstance(inner, Q):
+                raise ParseError("O(...) takes a power of q, such as O(q^50)", self.text, t.pos)
+            exponent = inner.right if isinstance(inner, BinOp) else Num(Fraction(1), t.pos)
+            return BigO(exponent, t.pos)
+        if name in FUNCTIONS:
+            return self.call()
+        if name in self.bound:
+            self.take()
+            return Name(name, t.pos)
+        if name == "inf":
+            raise self.error("'inf' may only stand as a subscript or a bound of a sum or product")
+        raise self.error(_unknown_name_message(name, self.bound))
+
+    def call(self) -> Node:
+        t = self.take()
+        entry = FUNCTIONS[t.text]
+        self.expect("(", f" after {t.text}")
+        args = [self.expr()]
+        while self.at(","):
+            self.take()
+            args.append(self.expr())
+        self.expect(")")
+        if len(args) != len(entry.arguments):
+            raise ParseError(f"{t.text} takes {len(entry.arguments)} argument(s): "
+                             f"{t.text}({', '.join(entry.arguments)})", self.text, t.pos)
+        return Call(t.text, tuple(args), t.pos)
+
+    def paren(self) -> Node:
+        open_tok = self.take()
+        self.enter()
+        first = self.expr()
+        if self.at(",", ";"):
+            params = [first]
+            while self.at(","):
+                self.take()
+                params.append(self.expr())
+            self.expect(";", " in a q-Pochhammer symbol (a;q)_n")
+            base = self.expr()
+            self.expect(")")
+            length = self.subscript("a q-Pochhammer symbol")
+            self.leave()
+            return Poch(tuple(params), base, length, open_tok.pos)
+        self.expect(")")
+        self.leave()
+        if self.at("_"):
+            # (a)_n is the usual shorthand for (a;q)_n
+            length = self.subscript("a q-Pochhammer symbol")
+            return Poch((first,), Q(open_tok.pos), length, open_tok.pos)
+        return first
+
+    def subscript(self, what: str) -> Node | None:
+        """After ``_``: None for infinity, else the length expression."""
+        self.expect("_", f" after {what}")
+        t = self.tok
+        if self.at("inf", "∞"):
+            self.take()
+            return None
+        if t.kind == "num":
+            self.take()
+            return Num(Fraction(int(t.text)), t.pos)
+        if t.kind == "name" and t.text in self.bound:
+            self.take()
+            return Name(t.text, t.pos)
+        if self.at("(", "{"):
+            close = ")" if t.text == "(" else "}"
+            self.take()
+            if self.at("inf", "∞"):
+                self.take()
+                self.expect(close)
+                return None
+            node = self.expr()
+            self.expect(close)
+            return node
+        if t.kind == "name":
+            raise self.error(_unknown_name_message(t.text, self.bound))
+        raise self.error(f"expected a subscript (a number, a bound variable, inf, or "
+                         f"an expression in parentheses) after '_' in {what}")
+
+    def bigop(self) -> Node:
+        t = self.take()
+        kind = t.text
+        self.expect("_", f" after {kind} (write {kind}_{{k>=0}} ...)")
+        self.expect("{", f" after {kind}_ (write {kind}_{{k>=0}} ...)")
+        var_tok = self.tok
+        if var_tok.kind != "name" or var_tok.text in KEYWORDS or var_tok.text in FUNCTIONS:
+            raise self.error(f"expected the name of the {kind}'s variable")
+        if var_tok.text in self.bound:
+            raise self.error(f"{var_tok.text!r} is already bound by an enclosing sum or product")
+        var = var_tok.text
+        self.take()
+        lower: Node | None
+        upper: Node | None = None
+        has_upper_allowed = True
+        if self.at(">="):
+            self.take()
+            lower = self.bound_expr(allow_minus_inf=False)
+            has_upper_allowed = False
+        elif self.at("="):
+            self.take()
+            lower = self.bound_expr(allow_minus_inf=True)
+        else:
+            raise self.error(f"expected '>=' or '=' after the variable {var!r}")
+        self.expect("}")
+        explicit_upper = False
+        if self.at("^"):
+            if not has_upper_allowed:
+                raise self.error(f"{kind}_{{{var}>=...}} has no upper limit; "
+                                 f"write {kind}_{{{var}=...}}^{{...}}")
+            self.take()
+            upper = self.upper_bound()
+            explicit_upper = True
+        if not explicit_upper and has_upper_allowed:
+            raise self.error(f"{kind}_{{{var}=...}} needs an upper limit ^{{...}}, or write "
+                             f"{kind}_{{{var}>=...}}")
+        self.bound.append(var)
+        try:
+            body = self.term()
+        finally:
+            self.bound.pop()
+        self.tail_taken = True
+        return BigOp(kind, var, lower, upper, body, t.pos)
+
+    def bound_expr(self, allow_minus_inf: bool) -> Node | None:
+        if allow_minus_inf and self.at("-"):
+            save = self.i
+            self.take()
+            if self.at("inf", "∞"):
+                self.take()
+                return None
+            self.i = save
+        if self.at("inf", "∞"):
+            raise self.error("a lower limit cannot be +inf")
+        return self.expr()
+
+    def upper_bound(self) -> Node | None:
+        t = self.tok
+        if self.at("inf", "∞"):
+            self.take()
+            return None
+        if self.at("{", "("):
+            close = "}" if t.text == "{" else ")"
+            self.take()
+            if self.at("inf", "∞"):
+                self.take()
+                self.expect(close)
+                return None
+            node = self.expr()
+            self.expect(close)
+            return node
+        if t.kind == "num":
+            self.take()
+            return Num(Fraction(int(t.text)), t.pos)
+        if t.kind == "name" and t.text in self.bound:
+            self.take()
+            return Name(t.text, t.pos)
+        raise self.error("expected an upper limit: a number, a variable, inf, or {...}")
+
+
+def _unknown_name_message(name: str, bound: list[str]) -> str:
+    hint = ""
+    if len(name) > 1 and all(c in "q" + "".join(bound) for c in name):
+        hint = f" (write the product with spaces or '*', e.g. {' '.join(name)})"
+    elif len(name) == 1:
+        hint = (" (only q and the variables of enclosing sums and products are known; "
+                "other variables are not supported yet)")
+    return f"unknown name {name!r}{hint}"
+
+
+def parse(text: str, bound: Iterable[str] = ()) -> Node:
+    """Parse text in the notation into a syntax tree; ``bound`` names variables bound outside.
+
+    >>> parse("(q;q)_inf") == parse("(q)_∞")
+    True
+    """
+    return _Parser(text, bound).parse()

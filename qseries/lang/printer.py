@@ -1,0 +1,115 @@
+"""Print a syntax tree back in the notation, so that ``parse(show(t)) == t``.
+
+>>> from qseries.lang.parser import parse
+>>> show(parse("2 sum_{k>=0} q^(k^2)/(q;q)_k^2 + (q,-q;q^2)_{n+1}", bound={"n"}))
+'2 * sum_{k>=0} q^(k^2) / (q;q)_k^2 + (q, -q;q^2)_{n + 1}'
+"""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q
+
+# precedence levels: 1 sums, 2 products, 3 signed, 4 powers, 5 atoms
+_LEVEL = {"+": 1, "-": 1, "*": 2, "/": 2, "^": 4}
+
+
+def _level(node: Node) -> int:
+    if isinstance(node, BinOp):
+        return _LEVEL[node.op]
+    if isinstance(node, Neg):
+        return 3
+    if isinstance(node, BigOp):
+        return 3
+    if isinstance(node, Num) and (node.value.denominator != 1 or node.value < 0):
+        return 0  # printed as a quotient: always parenthesise
+    return 5
+
+
+def _takes_tail(node: Node) -> bool:
+    """Whether the printed node ends in a bare sum or product that would swallow what follows."""
+    if isinstance(node, BigOp):
+        return True
+    if isinstance(node, Neg):
+        return _takes_tail(node.operand)
+    if isinstance(node, BinOp) and node.op in "*/":
+        return _takes_tail(node.right)
+    return False
+
+
+def _wrap(s: str) -> str:
+    return f"({s})"
+
+
+def _fmt(node: Node, need: int, tail: bool) -> str:
+    """Text of node where the context requires precedence >= need; ``tail`` tells whether a
+    trailing bare sum may swallow the rest of the term here."""
+    text = _bare(node)
+    if _level(node) < need or (not tail and _takes_tail(node)):
+        return _wrap(text)
+    return text
+
+
+def _num(v: Fraction) -> str:
+    return str(v.numerator) if v.denominator == 1 else f"{v.numerator}/{v.denominator}"
+
+
+def _subscript(n: Node | None) -> str:
+    if n is None:
+        return "inf"
+    if isinstance(n, Num) and n.value.denominator == 1 and n.value >= 0:
+        return str(n.value.numerator)
+    if isinstance(n, Name):
+        return n.name
+    return "{" + _bare(n) + "}"
+
+
+def _bare(node: Node) -> str:
+    if isinstance(node, Num):
+        return _num(node.value)
+    if isinstance(node, Q):
+        return "q"
+    if isinstance(node, Name):
+        return node.name
+    if isinstance(node, Neg):
+        return "-" + _fmt(node.operand, 3, True)
+    if isinstance(node, BinOp):
+        if node.op in "+-":
+            return f"{_fmt(node.left, 1, True)} {node.op} {_fmt(node.right, 2, True)}"
+        if node.op in "*/":
+            return f"{_fmt(node.left, 2, False)} {node.op} {_fmt(node.right, 3, True)}"
+        right = node.right
+        if isinstance(right, Neg) and _level(right.operand) >= 5:
+            exp = "-" + _bare(right.operand)
+        else:
+            exp = _fmt(right, 5, False)
+        return f"{_fmt(node.left, 5, False)}^{exp}"
+    if isinstance(node, Poch):
+        params = ", ".join(_bare(p) for p in node.params)
+        return f"({params};{_bare(node.base)})_{_subscript(node.length)}"
+    if isinstance(node, BigOp):
+        lower = "-inf" if node.lower is None else _bare(node.lower)
+        if node.upper is None and node.lower is not None:
+            head = f"{node.kind}_{{{node.var}>={lower}}}"
+        else:
+            upper = "inf" if node.upper is None else _bare(node.upper)
+            head = f"{node.kind}_{{{node.var}={lower}}}^{{{upper}}}"
+        return f"{head} {_fmt(node.body, 2, True)}"
+    if isinstance(node, Call):
+        return f"{node.name}({', '.join(_bare(a) for a in node.args)})"
+    if isinstance(node, BigO):
+        if isinstance(node.exponent, Num) and node.exponent.value == 1:
+            return "O(q)"
+        return f"O(q^{_fmt(node.exponent, 4, False)})"
+    raise TypeError(f"not a syntax-tree node: {node!r}")
+
+
+def show(node: Node) -> str:
+    """The text of a syntax tree in the notation the parser reads.
+
+    >>> from qseries.lang.parser import parse
+    >>> show(parse("-q^-2 (1-q)^-1"))
+    '-q^-2 * (1 - q)^-1'
+    """
+    return _bare(node)

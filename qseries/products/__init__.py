@@ -1,0 +1,13 @@
+"""Builders for the trade's objects: q-Pochhammer symbols, Euler's product, theta and eta
+functions, q-binomial coefficients, and the registry the parser and CLI read.
+
+>>> from qseries.products import FUNCTIONS
+>>> 'theta3' in FUNCTIONS
+True
+"""
+
+from .pochhammer import euler_product, gaussian_binomial, monomial_parts, pochhammer
+from .registry import FUNCTIONS, FunctionEntry
+
+__all__ = ["FUNCTIONS", "FunctionEntry", "euler_product", "gaussian_binomial",
+           "monomial_parts", "pochhammer"]

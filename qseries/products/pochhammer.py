@@ -1,0 +1,166 @@
+"""q-Pochhammer symbols and Euler's product, with the binomial fast paths.
+
+(a; q^t)_n = (1 - a)(1 - a q^t) ... (1 - a q^(t(n-1))), with (a; q^t)_0 = 1, the standard
+convention (a; q^t)_n = 1/(a q^(tn); q^t)_(-n) for n < 0, and the infinite product for
+n = None.
+
+>>> from qseries.series import Series, ZZ
+>>> q = Series.monomial(1, ZZ)
+>>> pochhammer(q, 1, 3, order=10)            # (q;q)_3
+1 - q - q^2 + q^4 + q^5 - q^6
+>>> euler_product(1, ZZ, 8)                  # (q;q)_inf
+1 - q - q^2 + q^5 + q^7 + O(q^8)
+"""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+from ..errors import DomainError, UnableError
+from ..series import Ring, Series
+
+#: the largest number of factors a finite q-Pochhammer symbol may have
+MAX_FACTORS = 10_000_000
+
+
+def monomial_parts(s: Series) -> tuple[int | Fraction, Fraction] | None:
+    """(c, e) when s is the exact monomial c q^e, else None.
+
+    >>> from qseries.series import Series
+    >>> monomial_parts(Series.monomial(3, c=-2))
+    (-2, Fraction(3, 1))
+    """
+    if not s.is_exact or s.is_zero() or s.ring.length(s.poly) != 1:
+        return None
+    return s.ring.to_number(s.ring.coeff(s.poly, 0)), Fraction(s.start) + s.offset
+
+
+def euler_product(d: int, ring: Ring, order: int) -> Series:
+    """(q^d; q^d)_inf modulo q^order from Euler's pentagonal number theorem,
+    sum_k (-1)^k q^(d k(3k-1)/2) (G. E. Andrews, The Theory of Partitions, 1976, Cor. 1.7).
+
+    >>> from qseries.series import ZZ
+    >>> euler_product(2, ZZ, 11)
+    1 - q^2 - q^4 + q^10 + O(q^11)
+    """
+    if d < 1:
+        raise UnableError("(q^d;q^d)_inf needs d >= 1")
+    if order <= 0:
+        return Series.zero(ring, order)
+    coeffs = [0] * order
+    k = 0
+    while True:
+        e1 = d * k * (3 * k - 1) // 2
+        if e1 >= order:
+            break
+        sign = -1 if k % 2 else 1
+        coeffs[e1] = sign
+        e2 = d * k * (3 * k + 1) // 2
+        if k and e2 < order:
+            coeffs[e2] = sign
+        k += 1
+    return Series.from_coefficients(coeffs, ring, prec=order)
+
+
+def _one(ring: Ring) -> Series:
+    return Series.constant(1, ring)
+
+
+def _times_factor(acc: Series, a: Series, mono: tuple | None, shift: int, invert: bool,
+                  order: int | None) -> Series:
+    """acc * (1 - a q^shift), or acc / (1 - a q^shift) when invert."""
+    if mono is not None:
+        c, e = mono
+        e = e + shift
+        if e.denominator == 1 and e >= 1:
+            j = int(e)
+            if invert:
+                return acc.div_binomial(c, j, order)
+            return acc.mul_binomial(c, j, order)
+    factor = _one(acc.ring) - a.shift(shift)
+    if order is None:
+        return acc * factor
+    if invert:
+        vnum = acc.valuation if acc.valuation is not None else 0
+        return (acc * factor.inverse(order=order - int(vnum))).truncate(order)
+    return (acc * factor).truncate(order)
+
+
+def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None = None) -> Series:
+    """(a; q^t)_n modulo q^order (exact when the result is a short polynomial).
+
+    ``n = None`` is the infinite product; it needs val(a) > 0 or t > 0 to converge and stops
+    when the remaining factors are 1 + O(q^order).
+
+    >>> from qseries.series import Series, ZZ
+    >>> q = Series.monomial(1, ZZ)
+    >>> pochhammer(-q, 2, None, order=9)        # (-q;q^2)_inf
+    1 + q + q^3 + q^4 + q^5 + q^6 + q^7 + 2q^8 + O(q^9)
+    >>> pochhammer(q, 1, -1, order=4)           # (q;q)_-1 = 1/(1 - 1) is undefined
+    Traceback (most recent call last):
+    ...
+    qseries.errors.DomainError: (a;q)_n has a factor 1 - 1 = 0 in a denominator
+    """
+    if t < 1:
+        raise UnableError("the base of a q-Pochhammer symbol must be q^t with t >= 1")
+    ring = ring or a.ring
+    mono = monomial_parts(a)
+    if mono is not None and mono[0] == 1 and mono[1] == t and n is None and ring == a.ring:
+        return euler_product(t, ring, order)
+    acc = _one(a.ring)
+    if n is None:
+        va = a.valuation
+        if a.is_zero():
+            return acc if a.prec is None or a.prec >= order else acc.truncate(a.prec)
+        j = 0
+        while va + t * j < order:
+            acc = _checked(acc, a, mono, t * j, False, order)
+            j += 1
+            if j > MAX_FACTORS:
+                raise UnableError("too many factors in an infinite q-Pochhammer symbol")
+        return acc.truncate(order)
+    if abs(n) > MAX_FACTORS:
+        raise UnableError(f"a q-Pochhammer symbol with {abs(n)} factors is too large")
+    if n >= 0:
+        # a short product of binomials stays an exact polynomial
+        work: int | None = order
+        if mono is not None and mono[1] >= 0 and mono[1] * n + t * n * (n - 1) // 2 < order:
+            work = None
+        for j in range(n):
+            acc = _checked(acc, a, mono, t * j, False, work)
+    else:
+        for j in range(n, 0):
+            acc = _checked(acc, a, mono, t * j, True, order)
+    return acc.truncate(order)
+
+
+def _checked(acc: Series, a: Series, mono: tuple | None, shift: int, invert: bool,
+             order: int | None) -> Series:
+    if mono is not None and mono[0] == 1 and mono[1] + shift == 0:
+        if invert:
+            raise DomainError("(a;q)_n has a factor 1 - 1 = 0 in a denominator")
+        return Series.zero(acc.ring)
+    return _times_factor(acc, a, mono, shift, invert, order)
+
+
+def gaussian_binomial(n: int, k: int, ring: Ring, order: int) -> Series:
+    """The q-binomial coefficient [n, k]_q = (q;q)_n / ((q;q)_k (q;q)_(n-k)); 0 unless
+    0 <= k <= n.  Exact when its degree k(n-k) is below ``order``.
+
+    >>> from qseries.series import ZZ
+    >>> gaussian_binomial(4, 2, ZZ, 100)
+    1 + q + 2q^2 + q^3 + q^4
+    """
+    if k < 0 or k > n:
+        return Series.zero(ring)
+    k = min(k, n - k)
+    if k > MAX_FACTORS:
+        raise UnableError("q-binomial coefficient too large")
+    degree = k * (n - k)
+    work = min(order, degree + 1)
+    acc = _one(ring)
+    for i in range(1, k + 1):
+        acc = acc.mul_binomial(1, n - k + i, work).div_binomial(1, i, work)
+    if degree < order:
+        return Series(ring, acc.poly, acc.start, 0, None)
+    return acc

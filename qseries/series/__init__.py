@@ -1,0 +1,12 @@
+"""Truncated formal power series over explicit coefficient rings.
+
+>>> from qseries.series import Series, ZZ
+>>> Series.from_coefficients([1, 1], ZZ) ** 2
+1 + 2q + q^2
+"""
+
+from .._flint import GF, QQ, ZZ, Ring
+from .core import MAX_LENGTH, Series
+from .formatting import format_exponent, format_series
+
+__all__ = ["Series", "Ring", "ZZ", "QQ", "GF", "MAX_LENGTH", "format_series", "format_exponent"]

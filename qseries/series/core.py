@@ -1,0 +1,536 @@
+"""Truncated formal Laurent series in q with a rational exponent offset.
+
+A :class:`Series` stands for
+
+    q^offset * ( sum_i c_i q^(start + i) )  +  O(q^(offset + prec))
+
+with ``0 <= offset < 1`` a Fraction, ``start`` an integer and ``prec`` the integer absolute
+precision (``None`` when the series is an exact polynomial, such as ``q`` or ``1 - q^5``).
+Every operation propagates the precision honestly: ``q^-5 * f`` loses 5, dividing by a series
+of valuation ``v > 0`` loses ``v``, adding takes the minimum.
+
+The coefficient ring is a backend of :mod:`qseries._flint` (ZZ, QQ or GF(p)); there is no
+global precision or ring.
+
+>>> from qseries.series import Series, ZZ
+>>> f = Series.from_coefficients([1, -1], ZZ)          # 1 - q, exact
+>>> g = f.inverse(order=6)                             # 1/(1-q) + O(q^6)
+>>> g
+1 + q + q^2 + q^3 + q^4 + q^5 + O(q^6)
+>>> (g * Series.monomial(-2, ZZ)).precision            # q^-2 * g is known to O(q^4)
+4
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+from fractions import Fraction
+from typing import Any
+
+from .._flint import QQ, ZZ, Ring, join_rings
+from ..errors import DomainError, IncompatibleRingError, UnableError
+
+Number = int | Fraction
+Exponent = int | Fraction
+
+#: Largest absolute precision (and largest exact polynomial degree) a series may reach.
+MAX_LENGTH = 20_000_000
+
+
+def _as_number(x: Any) -> Number:
+    if isinstance(x, bool):
+        raise TypeError("booleans are not coefficients")
+    if isinstance(x, int):
+        return x
+    if isinstance(x, Fraction):
+        return x.numerator if x.denominator == 1 else x
+    raise TypeError(f"cannot use {type(x).__name__} as a coefficient")
+
+
+def _min_prec(*ps: int | None) -> int | None:
+    finite = [p for p in ps if p is not None]
+    return min(finite) if finite else None
+
+
+def _align_offsets(a: Series, b: Series) -> tuple[Series, Series]:
+    """Bring two series with different offsets to one frame; possible only when one of them
+    has no known nonzero term (then it just contributes its precision)."""
+    for x, y in ((a, b), (b, a)):
+        if x.is_zero():
+            if x.prec is None:
+                z = Series(y.ring, y.ring.zero(), 0, y.offset, None)
+            else:
+                bound = x.prec + x.offset - y.offset      # exponents y.offset+k with k < bound
+                p = bound.numerator // bound.denominator
+                if p < bound:
+                    p += 1
+                z = Series(y.ring, y.ring.zero(), p, y.offset, p)
+            return (z, y) if x is a else (y, z)
+    raise IncompatibleRingError(
+        f"cannot add series whose exponents differ by a non-integer "
+        f"(offsets {a.offset} and {b.offset})")
+
+
+def _split_exponent(e: Exponent) -> tuple[int, Fraction]:
+    """Write e = n + f with n an integer and 0 <= f < 1."""
+    e = Fraction(e)
+    n = e.numerator // e.denominator
+    return n, e - n
+
+
+class Series:
+    """An immutable truncated series; see the module docstring for its meaning."""
+
+    __slots__ = ("ring", "poly", "start", "offset", "prec")
+
+    def __init__(self, ring: Ring, poly: Any, start: int, offset: Fraction | int = 0,
+                 prec: int | None = None) -> None:
+        offset = Fraction(offset)
+        if not 0 <= offset < 1:
+            raise ValueError("offset must lie in [0, 1)")
+        # normalise: drop coefficients at or beyond the precision, then leading zeros
+        if prec is not None:
+            if prec - start > MAX_LENGTH or prec > MAX_LENGTH:
+                raise UnableError(f"precision O(q^{prec}) exceeds the limit {MAX_LENGTH}")
+            poly = ring.truncate(poly, prec - start)
+        v = ring.valuation(poly)
+        if v is None:
+            start = prec if prec is not None else 0
+        elif v:
+            poly = ring.shift_down(poly, v)
+            start += v
+        if ring.length(poly) > MAX_LENGTH:
+            raise UnableError(f"a polynomial of length {ring.length(poly)} exceeds the limit")
+        self.ring = ring
+        self.poly = poly
+        self.start = start
+        self.offset = offset
+        self.prec = prec
+
+    # -- constructors ------------------------------------------------------------------
+    @classmethod
+    def from_coefficients(cls, coeffs: list[Number], ring: Ring | None = None, start: int = 0,
+                          prec: int | None = None, offset: Fraction | int = 0) -> Series:
+        """Series sum coeffs[i] q^(start+i) (+ O(q^prec) when prec is given).  The ring
+        defaults to ZZ, or QQ when a coefficient is a non-integral Fraction.
+
+        >>> Series.from_coefficients([1, 2, 3], prec=2)
+        1 + 2q + O(q^2)
+        """
+        nums = [_as_number(c) for c in coeffs]
+        if ring is None:
+            ring = QQ if any(isinstance(c, Fraction) for c in nums) else ZZ
+        return cls(ring, ring.poly(nums), start, offset, prec)
+
+    @classmethod
+    def constant(cls, c: Number, ring: Ring | None = None) -> Series:
+        """The exact constant c; the ring defaults to ZZ for integers and QQ for fractions.
+
+        >>> Series.constant(Fraction(1, 2))
+        1/2
+        """
+        c = _as_number(c)
+        if ring is None:
+            ring = QQ if isinstance(c, Fraction) else ZZ
+        return cls(ring, ring.poly([c]), 0)
+
+    @classmethod
+    def monomial(cls, e: Exponent, ring: Ring = ZZ, c: Number = 1) -> Series:
+        """The exact monomial c q^e; e may be a Fraction.
+
+        >>> Series.monomial(Fraction(1, 24))
+        q^(1/24)
+        """
+        n, f = _split_exponent(e)
+        return cls(ring, ring.poly([_as_number(c)]), n, f)
+
+    @classmethod
+    def zero(cls, ring: Ring = ZZ, prec: int | None = None) -> Series:
+        """0 (exact) or O(q^prec).
+
+        >>> Series.zero(prec=3)
+        O(q^3)
+        """
+        return cls(ring, ring.zero(), prec if prec is not None else 0, 0, prec)
+
+    # -- queries -------------------------------------------------------------------------
+    @property
+    def precision(self) -> Exponent | None:
+        """The exponent below which every coefficient is known (None when exact).
+
+        >>> (Series.monomial(Fraction(1, 2)) + Series.zero(prec=3) * Series.monomial(Fraction(1, 2))).precision
+        Fraction(7, 2)
+        """
+        if self.prec is None:
+            return None
+        p = self.prec + self.offset
+        return p.numerator if p.denominator == 1 else p
+
+    @property
+    def is_exact(self) -> bool:
+        return self.prec is None
+
+    def is_zero(self) -> bool:
+        """True when every known coefficient vanishes (``O(q^N)`` counts as zero to that order)."""
+        return self.ring.length(self.poly) == 0
+
+    @property
+    def valuation(self) -> Exponent | None:
+        """Exponent of the first nonzero term, or None when no known term is nonzero.
+
+        >>> Series.from_coefficients([0, 0, 5]).valuation
+        2
+        """
+        if self.is_zero():
+            return None
+        v = self.start + self.offset
+        return v.numerator if v.denominator == 1 else v
+
+    def _val_int(self) -> int | None:
+        """Integer part of the valuation (None for zero)."""
+        return None if self.is_zero() else self.start
+
+    def coefficient(self, e: Exponent) -> Number:
+        """The coefficient of q^e; an error if it lies beyond the precision.
+
+        >>> Series.from_coefficients([1, 1, 2, 3, 5], prec=5).coefficient(4)
+        5
+        """
+        n, f = _split_exponent(e)
+        if self.prec is not None and Fraction(e) >= self.prec + self.offset:
+            raise DomainError(f"the coefficient of q^{e} lies beyond the precision "
+                              f"O(q^{self.precision})")
+        if f != self.offset:
+            return 0
+        i = n - self.start
+        if i < 0 or i >= self.ring.length(self.poly):
+            return 0
+        return self.ring.to_number(self.ring.coeff(self.poly, i))
+
+    def __getitem__(self, e: Exponent) -> Number:
+        return self.coefficient(e)
+
+    def terms(self) -> Iterator[tuple[Exponent, Number]]:
+        """The nonzero known terms as (exponent, coefficient), in increasing order.
+
+        >>> list(Series.from_coefficients([1, 0, -3], start=-1).terms())
+        [(-1, 1), (1, -3)]
+        """
+        for i, c in enumerate(self.ring.coefficients(self.poly)):
+            if c:
+                e = self.start + i + self.offset
+                yield (e.numerator if e.denominator == 1 else e), c
+
+    def coefficient_list(self, n: int) -> list[Number]:
+        """Coefficients of q^(offset + k) for k = 0 .. n-1 (the offset must be 0 or given).
+
+        >>> Series.from_coefficients([1, 2], prec=5).coefficient_list(4)
+        [1, 2, 0, 0]
+        """
+        if self.prec is not None and n > self.prec:
+            raise DomainError(f"only {self.prec} coefficients are known (asked for {n})")
+        coeffs = self.ring.coefficients(self.poly)
+        out: list[Number] = [0] * max(n, 0)
+        for i, c in enumerate(coeffs):
+            k = self.start + i
+            if 0 <= k < n:
+                out[k] = c
+        return out
+
+    # -- internal helpers ------------------------------------------------------------------
+    def _with(self, poly: Any, start: int, offset: Fraction, prec: int | None,
+              ring: Ring | None = None) -> Series:
+        return Series(ring or self.ring, poly, start, offset, prec)
+
+    def _coerce(self, other: Any) -> Series:
+        if isinstance(other, Series):
+            return other
+        if isinstance(other, (int, Fraction)) and not isinstance(other, bool):
+            c = _as_number(other)
+            ring = self.ring
+            if isinstance(c, Fraction) and ring == ZZ:
+                ring = QQ
+            return Series(ring, ring.poly([c]), 0)
+        raise TypeError(f"cannot combine a series with {type(other).__name__}")
+
+    def change_ring(self, ring: Ring) -> Series:
+        """The same series over a larger ring (ZZ -> QQ, or exact -> GF(p) by reduction).
+
+        >>> Series.from_coefficients([3, 1]).change_ring(QQ).ring
+        QQ
+        """
+        if ring == self.ring:
+            return self
+        return self._with(ring.convert(self.poly), self.start, self.offset, self.prec, ring)
+
+    def _joined(self, other: Series) -> tuple[Series, Series]:
+        ring = join_rings(self.ring, other.ring)
+        return self.change_ring(ring), other.change_ring(ring)
+
+    # -- arithmetic ------------------------------------------------------------------------
+    def __neg__(self) -> Series:
+        return self._with(-self.poly, self.start, self.offset, self.prec)
+
+    def __pos__(self) -> Series:
+        return self
+
+    def __add__(self, other: Any) -> Series:
+        other = self._coerce(other)
+        a, b = self._joined(other)
+        if a.offset != b.offset:
+            a, b = _align_offsets(a, b)
+        prec = _min_prec(a.prec, b.prec)
+        R = a.ring
+        s = min(a.start, b.start)
+        if prec is not None:
+            s = min(s, prec)
+        pa = R.shift_up(a.poly, a.start - s)
+        pb = R.shift_up(b.poly, b.start - s)
+        return Series(R, pa + pb, s, a.offset, prec)
+
+    __radd__ = __add__
+
+    def __sub__(self, other: Any) -> Series:
+        return self + (-self._coerce(other))
+
+    def __rsub__(self, other: Any) -> Series:
+        return self._coerce(other) + (-self)
+
+    def __mul__(self, other: Any) -> Series:
+        other = self._coerce(other)
+        a, b = self._joined(other)
+        R = a.ring
+        va, vb = a._val_int(), b._val_int()
+        # absolute precision of a product: min(pa + val(b), pb + val(a))
+        cands = []
+        if a.prec is not None:
+            if vb is None:
+                if b.prec is None:
+                    return Series.zero(R)
+                cands.append(a.prec + b.prec)
+            else:
+                cands.append(a.prec + vb)
+        if b.prec is not None:
+            if va is None:
+                if a.prec is None:
+                    return Series.zero(R)
+                cands.append(a.prec + b.prec)
+            else:
+                cands.append(b.prec + va)
+        prec = min(cands) if cands else None
+        off = a.offset + b.offset
+        carry = 1 if off >= 1 else 0
+        off -= carry
+        if va is None or vb is None:
+            return Series(R, R.zero(), 0, 0, prec + carry if prec is not None else None)
+        start = va + vb + carry
+        if prec is None:
+            poly = a.poly * b.poly
+        else:
+            prec += carry
+            poly = R.mul_low(a.poly, b.poly, prec - start)
+        return Series(R, poly, start, off, prec)
+
+    __rmul__ = __mul__
+
+    def shift(self, e: Exponent) -> Series:
+        """Multiply by q^e (e an integer or a Fraction); precision moves with it.
+
+        >>> Series.from_coefficients([1, 1], prec=3).shift(-5)
+        q^-5 + q^-4 + O(q^-2)
+        """
+        n, f = _split_exponent(e)
+        off = self.offset + f
+        if off >= 1:
+            off -= 1
+            n += 1
+        prec = None if self.prec is None else self.prec + n
+        return self._with(self.poly, self.start + n, off, prec)
+
+    def truncate(self, order: int) -> Series:
+        """The series modulo q^order (precision becomes at most ``order``, measured from the
+        offset).
+
+        >>> Series.from_coefficients([1, 2, 3]).truncate(2)
+        1 + 2q + O(q^2)
+        """
+        if self.prec is not None and self.prec <= order:
+            return self
+        if self.prec is None and self.start + self.ring.length(self.poly) <= order:
+            return self
+        return self._with(self.poly, self.start, self.offset, order)
+
+    def _unit_part(self) -> tuple[int, Any, int | None]:
+        """(v, u, r): self = q^(offset+v) * u(q) with u[0] != 0, u known to relative length r."""
+        v = self._val_int()
+        if v is None:
+            raise DomainError("division by zero" if self.prec is None else
+                              f"division by a series that vanishes to O(q^{self.precision})")
+        r = None if self.prec is None else self.prec - v
+        return v, self.poly, r
+
+    def inverse(self, order: int | None = None) -> Series:
+        """1/self.  For an exact polynomial that is not a monomial the result is infinite, so
+        ``order`` (an absolute precision) is then required.
+
+        >>> Series.from_coefficients([1, 1]).inverse(order=4)
+        1 - q + q^2 - q^3 + O(q^4)
+        >>> Series.from_coefficients([2], ring=QQ).inverse()
+        1/2
+        """
+        v, u, r = self._unit_part()
+        R = self.ring
+        if not R.is_unit(R.coeff(u, 0)):
+            if R == ZZ:
+                return self.change_ring(QQ).inverse(order)
+            raise DomainError(f"leading coefficient {R.to_number(R.coeff(u, 0))} is not "
+                              f"invertible over {R.name}")
+        neg_off = Fraction(0) if self.offset == 0 else 1 - self.offset
+        carry = 1 if self.offset else 0
+        if r is None and R.length(u) == 1:
+            return Series(R, R.inv_series(u, 1), -v - carry, neg_off, None)
+        if r is None:
+            if order is None:
+                raise UnableError("the inverse of a polynomial is an infinite series: "
+                                  "give an order")
+            r = order + v + carry
+        elif order is not None:
+            r = min(r, order + v + carry)
+        prec = r - v - carry
+        if r <= 0:
+            return Series.zero(R, prec)
+        return Series(R, R.inv_series(u, r), -v - carry, neg_off, prec)
+
+    def __truediv__(self, other: Any) -> Series:
+        other = self._coerce(other)
+        return self * other.inverse()
+
+    def __rtruediv__(self, other: Any) -> Series:
+        return self._coerce(other) * self.inverse()
+
+    def divide(self, other: Series, order: int | None = None) -> Series:
+        """self/other, with ``order`` bounding the expansion where other is a polynomial.
+
+        >>> Series.constant(1).divide(Series.from_coefficients([1, -1]), order=3)
+        1 + q + q^2 + O(q^3)
+        """
+        other = self._coerce(other)
+        inv_order = None
+        if order is not None:
+            va = self._val_int() or 0
+            inv_order = order - va
+        return (self * other.inverse(inv_order)).truncate(order) if order is not None else \
+            self * other.inverse()
+
+    def __pow__(self, e: int) -> Series:
+        return self.power(e)
+
+    def power(self, e: int, order: int | None = None) -> Series:
+        """self^e for an integer e (negative e inverts first).
+
+        >>> Series.from_coefficients([1, 1], prec=4).power(3)
+        1 + 3q + 3q^2 + q^3 + O(q^4)
+        """
+        if isinstance(e, bool) or not isinstance(e, int):
+            raise UnableError(f"only integer powers of a series are supported (got {e})")
+        if e < 0:
+            return self.inverse(order).power(-e, order)
+        if e == 0:
+            if self.is_zero() and self.prec is None:
+                raise DomainError("0^0 is undefined")
+            return Series(self.ring, self.ring.poly([1]), 0)
+        if e == 1:
+            return self if order is None else self.truncate(order)
+        v = self._val_int()
+        R = self.ring
+        n_off, f_off = _split_exponent(self.offset * e)
+        if v is None:
+            if self.prec is None:
+                return Series.zero(R)
+            # (O(q^p))^e = O(q^(e p)) for p >= 0; p < 0 gives no information below
+            p = self.prec * e if self.prec >= 0 else self.prec
+            return Series.zero(R, p + n_off if order is None else min(p + n_off, order))
+        start = v * e + n_off
+        if self.prec is None:
+            if order is None:
+                if (R.length(self.poly) - 1) * e > MAX_LENGTH:
+                    raise UnableError("the exact power is too large; give an order")
+                return Series(R, self.poly ** e, start, f_off, None)
+            if (R.length(self.poly) - 1) * e + start < order:
+                return Series(R, self.poly ** e, start, f_off, None)
+            return Series(R, R.pow_low(self.poly, e, order - start), start, f_off, order)
+        rel = self.prec - v
+        prec = start + rel
+        if order is not None:
+            prec = min(prec, order)
+        return Series(R, R.pow_low(self.poly, e, prec - start), start, f_off, prec)
+
+    # -- fast paths --------------------------------------------------------------------------
+    def mul_binomial(self, c: Number, j: int, order: int | None = None) -> Series:
+        """self * (1 - c q^j) for an integer j >= 1 in O(length) work.
+
+        >>> Series.constant(1).mul_binomial(1, 2)
+        1 - q^2
+        """
+        if j < 1:
+            raise UnableError("mul_binomial needs j >= 1")
+        R = self.ring
+        c = _as_number(c)
+        if isinstance(c, Fraction) and R == ZZ:
+            return self.change_ring(QQ).mul_binomial(c, j, order)
+        prec = _min_prec(self.prec, order)
+        n = None if prec is None else prec - self.start
+        return Series(R, R.binomial_mul(self.poly, c, j, n), self.start, self.offset, prec)
+
+    def div_binomial(self, c: Number, j: int, order: int | None = None) -> Series:
+        """self / (1 - c q^j) for an integer j >= 1 in O(length * log) work.
+
+        >>> Series.constant(1).div_binomial(1, 2, order=7)
+        1 + q^2 + q^4 + q^6 + O(q^7)
+        """
+        R = self.ring
+        c = _as_number(c)
+        if isinstance(c, Fraction) and R == ZZ:
+            return self.change_ring(QQ).div_binomial(c, j, order)
+        if j < 1:
+            raise UnableError("div_binomial needs j >= 1")
+        prec = _min_prec(self.prec, order)
+        if prec is None:
+            if c == 0:
+                return self
+            raise UnableError("1/(1 - c q^j) is an infinite series: give an order")
+        n = prec - self.start
+        if n <= 0:
+            return Series(R, R.zero(), prec, self.offset, prec)
+        return Series(R, R.binomial_div(self.poly, c, j, n), self.start, self.offset, prec)
+
+    def inflate(self, d: int) -> Series:
+        """The substitution q -> q^d for an integer d >= 1.
+
+        >>> Series.from_coefficients([1, 1], prec=2).inflate(3)
+        1 + q^3 + O(q^6)
+        """
+        if d < 1:
+            raise UnableError("q -> q^d needs an integer d >= 1")
+        n, f = _split_exponent(self.offset * d)
+        prec = None if self.prec is None else self.prec * d + n
+        return Series(self.ring, self.ring.inflate(self.poly, d), self.start * d + n, f, prec)
+
+    # -- comparison --------------------------------------------------------------------------
+    def __eq__(self, other: object) -> bool:
+        """Structural equality: same ring, offset, precision and known coefficients."""
+        if not isinstance(other, Series):
+            return NotImplemented
+        return (self.ring == other.ring and self.offset == other.offset
+                and self.prec == other.prec and self.start == other.start
+                and self.poly == other.poly)
+
+    def __hash__(self) -> int:
+        return hash((self.start, self.offset, self.prec, str(self.poly)))
+
+    def __repr__(self) -> str:
+        from .formatting import format_series
+        return format_series(self)
+
+    def __str__(self) -> str:
+        return self.__repr__()

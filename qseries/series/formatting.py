@@ -1,0 +1,79 @@
+"""Human-readable text of a series in the notation the parser reads back.
+
+>>> from qseries.series import Series
+>>> from fractions import Fraction
+>>> format_series(Series.from_coefficients([1, -1, Fraction(1, 2)], prec=5))
+'1 - q + (1/2)q^2 + O(q^5)'
+"""
+
+from __future__ import annotations
+
+from fractions import Fraction
+from typing import TYPE_CHECKING
+
+if TYPE_CHECKING:
+    from .core import Series
+
+Exponent = int | Fraction
+
+
+def format_exponent(e: Exponent) -> str:
+    """``q``, ``q^3``, ``q^-2`` or ``q^(1/24)`` for the monomial q^e (``1`` for e = 0).
+
+    >>> format_exponent(Fraction(-23, 24))
+    'q^(-23/24)'
+    """
+    e = Fraction(e)
+    if e == 0:
+        return "1"
+    if e == 1:
+        return "q"
+    if e.denominator == 1:
+        return f"q^{e.numerator}"
+    return f"q^({e})"
+
+
+def format_term(e: Exponent, c: int | Fraction, first: bool) -> str:
+    """One signed term: ``+ 2q^3``, ``- q``, ``(1/2)q^2``.
+
+    >>> format_term(3, -2, False)
+    '- 2q^3'
+    """
+    c = Fraction(c)
+    sign = "-" if c < 0 else "+"
+    a = abs(c)
+    mono = format_exponent(e)
+    if mono == "1":
+        body = str(a)
+    elif a == 1:
+        body = mono
+    elif a.denominator == 1:
+        body = f"{a}{mono}"
+    else:
+        body = f"({a}){mono}"
+    if first:
+        return body if sign == "+" else f"-{body}"
+    return f"{sign} {body}"
+
+
+def format_series(s: Series, max_terms: int | None = None) -> str:
+    """The series as ``c0 + c1 q + ... + O(q^N)``; ``max_terms`` elides the middle.
+
+    >>> from qseries.series import Series
+    >>> format_series(Series.from_coefficients(list(range(1, 9)), prec=8), max_terms=4)
+    '1 + 2q + ... + 7q^6 + 8q^7 + O(q^8)'
+    """
+    terms = list(s.terms())
+    parts: list[str] = []
+    if max_terms is not None and len(terms) > max_terms:
+        head = terms[: max_terms // 2]
+        tail = terms[len(terms) - (max_terms - max_terms // 2):]
+        parts = [format_term(e, c, i == 0) for i, (e, c) in enumerate(head)]
+        parts.append("+ ...")
+        parts += [format_term(e, c, False) for e, c in tail]
+    else:
+        parts = [format_term(e, c, i == 0) for i, (e, c) in enumerate(terms)]
+    if s.precision is not None:
+        big_o = f"O({format_exponent(s.precision)})" if s.precision != 0 else "O(1)"
+        parts.append(f"+ {big_o}" if parts else big_o)
+    return " ".join(parts) if parts else "0"
