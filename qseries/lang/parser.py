@@ -46,6 +46,18 @@ MAX_DEPTH = 150
 MAX_DIGITS = 2_000
 
 KEYWORDS = {"q", "sum", "prod", "inf", "O"}
+#: one line per construction of the notation; ``qseries notation`` and the README show it
+NOTATION_FORMS = [
+    ("2q^3, q^-2, q^(1/24), q^(k(3k-1)/2)", "numbers, q and its powers; ^ or ** for powers"),
+    ("(a;q)_n  (a;q^2)_{2k+1}  (q)_n", "q-Pochhammer symbol; (a)_n means (a;q)_n"),
+    ("(a;q)_inf  (a;q)_∞", "infinite q-Pochhammer product"),
+    ("(a,b,c;q)_inf", "the product (a;q)_inf (b;q)_inf (c;q)_inf"),
+    ("sum_{k>=0} T   sum_{k=0}^{10} T", "sums; the body T is the product term that follows"),
+    ("sum_{k=-inf}^{inf} T", "bilateral sum"),
+    ("prod_{n>=1} T   prod_{n=1}^{inf} T", "products"),
+    ("O(q^N)", "an unknown remainder of order N"),
+]
+
 _SYMBOLS = ["**", ">=", "<=", "+", "-", "*", "/", "^", "(", ")", "{", "}", ",", ";", "_", "=",
             "∞", "<", ">", "[", "]"]
 

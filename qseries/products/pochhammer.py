@@ -37,7 +37,7 @@ def monomial_parts(s: Series) -> tuple[int | Fraction, Fraction] | None:
 
 def euler_product(d: int, ring: Ring, order: int) -> Series:
     """(q^d; q^d)_inf modulo q^order from Euler's pentagonal number theorem,
-    sum_k (-1)^k q^(d k(3k-1)/2) (G. E. Andrews, The Theory of Partitions, 1976, Cor. 1.7).
+    sum_k (-1)^k q^(d k(3k-1)/2) (see G. E. Andrews, The Theory of Partitions, 1976, ch. 1).
 
     >>> from qseries.series import ZZ
     >>> euler_product(2, ZZ, 11)

@@ -1,0 +1,5 @@
+"""``python -m qseries``."""
+
+from .cli.main import run
+
+run()

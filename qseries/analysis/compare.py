@@ -1,0 +1,140 @@
+"""Compare the two sides of a conjectured identity modulo q^N.
+
+Agreement to O(q^N) is evidence, not a proof: :class:`CheckResult` says exactly which
+coefficients were compared, and at a mismatch which exponent differs first.
+
+>>> r = check("sum_{k>=0} q^(k^2)/(q;q)_k^2", "1/(q;q)_inf", order=50)
+>>> r.holds, r.order_verified
+(True, 50)
+>>> r = check("1/(1-q)", "1 + q + q^2 + 2q^3", order=10)
+>>> r.holds, r.first_mismatch.exponent, r.first_mismatch.lhs, r.first_mismatch.rhs
+(False, 3, 1, 2)
+"""
+
+from __future__ import annotations
+
+import time
+from dataclasses import dataclass, field
+from fractions import Fraction
+
+from ..errors import QSeriesError
+from ..lang import Node, evaluate
+from ..series import ZZ, Ring, Series
+
+Exponent = int | Fraction
+Number = int | Fraction
+
+
+@dataclass(frozen=True)
+class Mismatch:
+    """The first exponent at which the two sides differ, with both coefficients."""
+
+    exponent: Exponent
+    lhs: Number
+    rhs: Number
+
+    @property
+    def difference(self) -> Number:
+        return self.lhs - self.rhs
+
+
+@dataclass(frozen=True)
+class CheckResult:
+    """Outcome of comparing two sides modulo q^order.
+
+    ``holds`` means: every coefficient of q^e with e < ``order_verified`` agrees.  It is never
+    a proof of the identity; ``order_verified`` can be smaller than ``order_requested`` when
+    negative powers cost precision.
+    """
+
+    holds: bool
+    order_requested: int
+    order_verified: Exponent
+    first_mismatch: Mismatch | None
+    seconds: float
+    lhs: Series = field(repr=False)
+    rhs: Series = field(repr=False)
+
+    @property
+    def verdict(self) -> str:
+        """One honest sentence.
+
+        >>> check("(q;q)_inf", "1 - q - q^2", order=5).verdict
+        'the two sides agree to O(q^5) (every coefficient below q^5 compared; evidence, not a proof)'
+        """
+        if self.first_mismatch is None:
+            return (f"the two sides agree to O(q^{_text(self.order_verified)}) (every "
+                    f"coefficient below q^{_text(self.order_verified)} compared; evidence, "
+                    f"not a proof)")
+        m = self.first_mismatch
+        return (f"the two sides differ: first at q^{_text(m.exponent)}, where the left side "
+                f"has {_text(m.lhs)} and the right side {_text(m.rhs)}")
+
+    def neighbours(self, radius: int = 2) -> list[tuple[Exponent, Number, Number]]:
+        """Coefficients of both sides at the exponents around the first mismatch."""
+        if self.first_mismatch is None:
+            return []
+        e0 = Fraction(self.first_mismatch.exponent)
+        out = []
+        for d in range(-radius, radius + 1):
+            e = e0 + d
+            if e < min(_low(self.lhs), _low(self.rhs), e0) or e >= self.order_verified:
+                continue
+            e_out = e.numerator if e.denominator == 1 else e
+            out.append((e_out, self.lhs.coefficient(e), self.rhs.coefficient(e)))
+        return out
+
+
+def _low(s: Series) -> Fraction:
+    v = s.valuation
+    return Fraction(v) if v is not None else Fraction(0)
+
+
+def _text(x: Exponent | Number) -> str:
+    return str(x)
+
+
+def _known_to(s: Series, order: int) -> Exponent:
+    p = s.precision
+    if p is None or p >= order:
+        return order
+    return p
+
+
+def compare_series(lhs: Series, rhs: Series, order: int) -> tuple[Exponent, Mismatch | None]:
+    """(order verified, first mismatch or None) for two computed series.
+
+    >>> from qseries.series import Series
+    >>> compare_series(Series.from_coefficients([1, 2, 3]), Series.from_coefficients([1, 2, 4]), 9)
+    (9, Mismatch(exponent=2, lhs=3, rhs=4))
+    """
+    verified = min(_known_to(lhs, order), _known_to(rhs, order))
+    if lhs.offset == rhs.offset or lhs.is_zero() or rhs.is_zero():
+        diff = lhs - rhs
+        for e, _ in diff.terms():
+            if e >= verified:
+                break
+            return verified, Mismatch(e, lhs.coefficient(e), rhs.coefficient(e))
+        return verified, None
+    # different fractional offsets: the first term of either side below the order differs
+    firsts = [e for s in (lhs, rhs) for e, _ in list(s.terms())[:1] if e < verified]
+    if not firsts:
+        return verified, None
+    e = min(firsts)
+    return verified, Mismatch(e, lhs.coefficient(e), rhs.coefficient(e))
+
+
+def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ) -> CheckResult:
+    """Evaluate both sides modulo q^order and compare every coefficient below q^order.
+
+    >>> check("(-q;q)_inf", "1/(q;q^2)_inf", order=200).holds      # Euler
+    True
+    """
+    if isinstance(order, bool) or not isinstance(order, int) or order < 1:
+        raise QSeriesError(f"the order must be a positive integer, not {order!r}")
+    t0 = time.perf_counter()
+    left = evaluate(lhs, order, ring)
+    right = evaluate(rhs, order, ring)
+    verified, mismatch = compare_series(left, right, order)
+    return CheckResult(mismatch is None, order, verified, mismatch,
+                       time.perf_counter() - t0, left, right)
