@@ -145,7 +145,8 @@ class Ring:
             return self.zero()
         c0 = p[0] if p.length() else self.coerce(0)
         if not self.is_unit(c0):
-            raise DomainError(f"constant term {self.to_number(c0)} is not invertible over {self.name}")
+            raise DomainError(f"constant term {self.to_number(c0)} is not invertible over "
+                              f"{self.name}")
         g = self._ptype([self._unit_inverse(c0)])
         m = 1
         two = self._ptype([2])

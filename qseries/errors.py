@@ -30,7 +30,7 @@ class ParseError(QSeriesError):
 
     def _render(self) -> str:
         if not self.text:
-            return self.message
+            return f"{self.message} at column 1"
         line_start = self.text.rfind("\n", 0, self.position) + 1
         line_end = self.text.find("\n", self.position)
         if line_end < 0:
@@ -42,7 +42,8 @@ class ParseError(QSeriesError):
             lo = max(0, col - 50)
             line = ("..." if lo else "") + line[lo : lo + 100]
             col = col - lo + (3 if lo else 0)
-        return f"{self.message} at column {self.position - line_start + 1}\n  {line}\n  {' ' * col}^"
+        column = self.position - line_start + 1
+        return f"{self.message} at column {column}\n  {line}\n  {' ' * col}^"
 
 
 class DomainError(QSeriesError):

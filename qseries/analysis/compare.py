@@ -59,8 +59,8 @@ class CheckResult:
     def verdict(self) -> str:
         """One honest sentence.
 
-        >>> check("(q;q)_inf", "1 - q - q^2", order=5).verdict
-        'the two sides agree to O(q^5) (every coefficient below q^5 compared; evidence, not a proof)'
+        >>> print(check("(q;q)_inf", "1 - q - q^2", order=5).verdict)
+        the two sides agree to O(q^5) (every coefficient below q^5 compared; evidence, not a proof)
         """
         if self.first_mismatch is None:
             return (f"the two sides agree to O(q^{_text(self.order_verified)}) (every "

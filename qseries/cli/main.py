@@ -102,7 +102,7 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
             (str(e), str(a), str(b), str(a - b)) for e, a, b in r.neighbours()]
         widths = [max(len(row[i]) for row in rows) for i in range(4)]
         for row in rows:
-            typer.echo("  " + "  ".join(cell.rjust(w) for cell, w in zip(row, widths)))
+            typer.echo("  " + "  ".join(cell.rjust(w) for cell, w in zip(row, widths, strict=True)))
     if r.order_verified != r.order_requested:
         typer.echo(f"note: negative powers cost precision: only the coefficients below "
                    f"q^{r.order_verified} could be compared, not q^{r.order_requested}")
@@ -154,7 +154,8 @@ def demo() -> None:
     colleague's conjecture that agrees for a while and then fails."""
     for case in DEMO_CASES:
         typer.echo(f"== {case.story}")
-        typer.echo(f"   qseries check \"{case.lhs}\" \\\n                 \"{case.rhs}\" --order {case.order}")
+        typer.echo(f"   qseries check \"{case.lhs}\" \\")
+        typer.echo(f"                 \"{case.rhs}\" --order {case.order}")
         r: CheckResult = _guarded(check, case.lhs, case.rhs, case.order)
         _print_check(r, case.lhs, case.rhs)
         typer.echo("")

@@ -41,7 +41,7 @@ from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q
 #: longest accepted input, in characters
 MAX_TEXT = 100_000
 #: deepest accepted nesting of parentheses, operators and sums
-MAX_DEPTH = 150
+MAX_DEPTH = 100
 #: most digits in one integer literal
 MAX_DIGITS = 2_000
 
@@ -185,7 +185,6 @@ class _Parser:
         return t.kind == "sym" and t.text in ("(", "{", "∞")
 
     def term(self) -> Node:
-        self.enter()
         node = self.signed()
         while True:
             if self.tail_taken:
@@ -201,7 +200,6 @@ class _Parser:
                 node = BinOp("*", node, right, pos)
             else:
                 break
-        self.leave()
         return node
 
     def signed_after_operator(self) -> Node:
@@ -224,12 +222,10 @@ class _Parser:
         return node
 
     def power(self) -> Node:
-        self.enter()
         base = self.atom()
         if self.at("^") and not self.tail_taken:
             t = self.take()
             base = BinOp("^", base, self.exponent(), t.pos)
-        self.leave()
         return base
 
     def exponent(self) -> Node:
@@ -303,7 +299,6 @@ class _Parser:
 
     def paren(self) -> Node:
         open_tok = self.take()
-        self.enter()
         first = self.expr()
         if self.at(",", ";"):
             params = [first]
@@ -314,10 +309,8 @@ class _Parser:
             base = self.expr()
             self.expect(")")
             length = self.subscript("a q-Pochhammer symbol")
-            self.leave()
             return Poch(tuple(params), base, length, open_tok.pos)
         self.expect(")")
-        self.leave()
         if self.at("_"):
             # (a)_n is the usual shorthand for (a;q)_n
             length = self.subscript("a q-Pochhammer symbol")

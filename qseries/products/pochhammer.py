@@ -119,14 +119,19 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
             if j > MAX_FACTORS:
                 raise UnableError("too many factors in an infinite q-Pochhammer symbol")
         return acc.truncate(order)
-    if abs(n) > MAX_FACTORS:
+    if n < -MAX_FACTORS:
         raise UnableError(f"a q-Pochhammer symbol with {abs(n)} factors is too large")
     if n >= 0:
         # a short product of binomials stays an exact polynomial
         work: int | None = order
         if mono is not None and mono[1] >= 0 and mono[1] * n + t * n * (n - 1) // 2 < order:
             work = None
-        for j in range(n):
+        count = n
+        va = a.valuation
+        if work is not None and va is not None and va > 0 and a.prec is None:
+            # factors 1 - a q^(tj) with val(a) + tj >= order are 1 modulo q^order
+            count = min(n, max(0, -((va - order) // t)))
+        for j in range(count):
             acc = _checked(acc, a, mono, t * j, False, work)
     else:
         for j in range(n, 0):

@@ -34,7 +34,7 @@ Number = int | Fraction
 Exponent = int | Fraction
 
 #: Largest absolute precision (and largest exact polynomial degree) a series may reach.
-MAX_LENGTH = 20_000_000
+MAX_LENGTH = 10_000_000
 
 
 def _as_number(x: Any) -> Number:
@@ -158,7 +158,8 @@ class Series:
     def precision(self) -> Exponent | None:
         """The exponent below which every coefficient is known (None when exact).
 
-        >>> (Series.monomial(Fraction(1, 2)) + Series.zero(prec=3) * Series.monomial(Fraction(1, 2))).precision
+        >>> half = Series.monomial(Fraction(1, 2))
+        >>> (half + Series.zero(prec=3) * half).precision
         Fraction(7, 2)
         """
         if self.prec is None:
@@ -284,6 +285,12 @@ class Series:
         s = min(a.start, b.start)
         if prec is not None:
             s = min(s, prec)
+        top = max(a.start + R.length(a.poly), b.start + R.length(b.poly))
+        if prec is not None:
+            top = min(top, prec)
+        if top - s > MAX_LENGTH:
+            raise UnableError(f"the sum spans {top - s} coefficients, beyond the limit "
+                              f"{MAX_LENGTH}")
         pa = R.shift_up(a.poly, a.start - s)
         pb = R.shift_up(b.poly, b.start - s)
         return Series(R, pa + pb, s, a.offset, prec)
@@ -325,6 +332,8 @@ class Series:
             return Series(R, R.zero(), 0, 0, prec + carry if prec is not None else None)
         start = va + vb + carry
         if prec is None:
+            if R.length(a.poly) + R.length(b.poly) > MAX_LENGTH:
+                raise UnableError("the exact product is too long; truncate first")
             poly = a.poly * b.poly
         else:
             prec += carry
@@ -479,6 +488,9 @@ class Series:
         if isinstance(c, Fraction) and R == ZZ:
             return self.change_ring(QQ).mul_binomial(c, j, order)
         prec = _min_prec(self.prec, order)
+        if self.prec is None and prec is not None and \
+                self.start + R.length(self.poly) + j <= prec:
+            prec = None  # the exact product is short enough to stay exact
         n = None if prec is None else prec - self.start
         return Series(R, R.binomial_mul(self.poly, c, j, n), self.start, self.offset, prec)
 

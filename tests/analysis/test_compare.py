@@ -1,0 +1,83 @@
+"""The comparison of two sides: verdicts, first mismatch, order boundary, precision loss."""
+
+from fractions import Fraction
+
+import pytest
+
+from qseries import check
+from qseries.errors import QSeriesError
+
+RR1_SUM = "sum_{k>=0} q^(k^2)/(q;q)_k"
+RR1_PRODUCT = "1/((q;q^5)_inf (q^4;q^5)_inf)"
+
+
+def test_defect_at_order_boundary():
+    # a defect planted at q^150 is invisible modulo q^150 and seen modulo q^151
+    broken = f"{RR1_PRODUCT} + q^150"
+    assert check(RR1_SUM, broken, order=150).holds
+    r = check(RR1_SUM, broken, order=151)
+    assert not r.holds
+    assert r.first_mismatch.exponent == 150
+    assert r.first_mismatch.rhs - r.first_mismatch.lhs == 1
+
+
+def test_misprinted_modulus_is_located_exactly():
+    # Rogers-Ramanujan with the modulus 5 misprinted as 6: 1/((q;q^6)(q^5;q^6)) counts
+    # partitions into parts = +-1 mod 6; the first difference is at q^4, where the sum side
+    # has 2 (4, 3+1) and the product side 1 (1+1+1+1) -- counted by hand
+    r = check(RR1_SUM, "1/((q;q^6)_inf (q^5;q^6)_inf)", order=100)
+    assert not r.holds
+    assert (r.first_mismatch.exponent, r.first_mismatch.lhs, r.first_mismatch.rhs) == (4, 2, 1)
+
+
+def test_extra_factor_is_located_at_its_first_effect():
+    # an extra factor 1/(q^20;q^20)_inf changes the product side first at q^20 (by 1)
+    r = check("sum_{k>=0} q^(k^2+k)/(q;q)_k",
+              "1/((q^2;q^5)_inf (q^3;q^5)_inf (q^20;q^20)_inf)", order=300)
+    assert r.first_mismatch.exponent == 20
+    assert r.first_mismatch.rhs - r.first_mismatch.lhs == 1
+
+
+def test_neighbours_show_coefficients_around_the_mismatch():
+    r = check("1/(1-q)", "1/(1-q) + q^5", order=10)
+    rows = r.neighbours(radius=1)
+    assert rows == [(4, 1, 1), (5, 1, 2), (6, 1, 1)]
+
+
+def test_precision_lost_to_negative_powers_is_reported():
+    # O(q^10) inside, shifted by q^-3: only the coefficients below q^7 are known
+    r = check("q^-3 (1/(1-q) + O(q^10))", "q^-3/(1-q)", order=20)
+    assert r.holds
+    assert r.order_verified == 7
+
+
+def test_negative_powers_are_compensated_when_possible():
+    r = check("q^-5 sum_{k>=0} q^(k+5)", "1/(1-q)", order=50)
+    assert r.holds and r.order_verified == 50
+
+
+def test_fractional_offsets_compare_by_exponent():
+    r = check("eta(q)", "q^(1/24) (q;q)_inf", order=100)
+    assert r.holds
+    r = check("eta(q)", "(q;q)_inf", order=100)
+    assert not r.holds
+    assert r.first_mismatch.exponent == 0
+    assert r.first_mismatch.lhs == 0 and r.first_mismatch.rhs == 1
+    r = check("eta(q)", "q^(1/24) (q;q)_inf + q^(25/24)", order=100)
+    assert r.first_mismatch.exponent == Fraction(25, 24)
+
+
+def test_rational_coefficients():
+    r = check("1/(2-q)", "sum_{k>=0} q^k/2^(k+1)", order=40)
+    assert r.holds
+
+
+def test_verdict_is_honest():
+    r = check("(q;q)_inf", "(q;q)_inf", order=30)
+    assert "evidence, not a proof" in r.verdict
+
+
+@pytest.mark.parametrize("order", [0, -3, True, 2.5])
+def test_bad_orders(order):
+    with pytest.raises(QSeriesError):
+        check("q", "q", order=order)

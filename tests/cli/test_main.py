@@ -1,0 +1,114 @@
+"""The command-line contract: outputs, JSON shapes and exit codes (0 agree, 1 mismatch, 2 bad
+input, never a traceback)."""
+
+import json
+import subprocess
+import sys
+
+import pytest
+from typer.testing import CliRunner
+
+from qseries.cli.main import app
+from qseries.products import FUNCTIONS
+
+runner = CliRunner()
+
+RR1 = ("sum_{k>=0} q^(k^2)/(q;q)_k", "1/((q;q^5)_inf (q^4;q^5)_inf)")
+
+
+def run(*args: str):
+    return runner.invoke(app, list(args))
+
+
+def test_expand_human_output():
+    r = run("expand", "1/(q;q)_inf", "--order", "8")
+    assert r.exit_code == 0
+    assert r.stdout.strip() == "1 + q + 2q^2 + 3q^3 + 5q^4 + 7q^5 + 11q^6 + 15q^7 + O(q^8)"
+
+
+def test_expand_json():
+    r = run("expand", "(q;q)_inf", "-n", "8", "--json")
+    data = json.loads(r.stdout)
+    assert data == {"order": 8, "terms": [[0, "1"], [1, "-1"], [2, "-1"], [5, "1"], [7, "1"]]}
+    r = run("expand", "eta(q)", "-n", "2", "--json")
+    assert json.loads(r.stdout)["terms"] == [["1/24", "1"], ["25/24", "-1"]]
+    r = run("expand", "1/(2-q)", "-n", "2", "--json")
+    assert json.loads(r.stdout)["terms"] == [[0, "1/2"], [1, "1/4"]]
+
+
+def test_check_agrees_exit_0():
+    r = run("check", *RR1, "--order", "300")
+    assert r.exit_code == 0
+    assert "agree to O(q^300)" in r.stdout and "not a proof" in r.stdout
+
+
+def test_check_mismatch_exit_1_with_location():
+    r = run("check", RR1[0], RR1[1] + " + 5q^40", "--order", "100")
+    assert r.exit_code == 1
+    assert "first at q^40" in r.stdout
+    assert "difference" in r.stdout
+
+
+def test_check_json_shape():
+    r = run("check", RR1[0], RR1[1] + " - q^150", "--order", "151", "--json")
+    assert r.exit_code == 1
+    data = json.loads(r.stdout)
+    assert set(data) == {"holds", "order", "first_mismatch", "seconds"}
+    assert data["holds"] is False and data["order"] == 151
+    fm = data["first_mismatch"]
+    assert fm["index"] == 150 and int(fm["lhs"]) - int(fm["rhs"]) == 1
+    r = run("check", RR1[0], RR1[1] + " - q^150", "--order", "150", "--json")
+    assert r.exit_code == 0
+    assert json.loads(r.stdout)["first_mismatch"] is None
+
+
+def test_check_reports_the_order_really_verified():
+    r = run("check", "q^-3 (1/(1-q) + O(q^10))", "q^-3/(1-q)", "-n", "20", "--json")
+    assert json.loads(r.stdout)["order"] == 7
+
+
+@pytest.mark.parametrize("args", [
+    ["check", "1/(q", "q"],
+    ["check", "q", "__import__('os').system('true')"],
+    ["check", "sum_{k>=0} 1/(q;q)_k", "1"],
+    ["expand", "1/0"],
+    ["expand", "x"],
+    ["expand", "q", "--order", "0"],
+    ["expand", "q", "--order", "-5"],
+    ["expand", "q", "--order", "abc"],
+    ["expand", "(" * 500 + "q" + ")" * 500],
+    ["expand", "2^(10^9)"],
+    ["expand", "q^(-10^8) (q;q)_inf"],
+])
+def test_bad_input_exits_2_without_traceback(args):
+    r = run(*args)
+    assert r.exit_code == 2, r.output
+    assert "Traceback" not in r.output
+
+
+def test_parse_error_shows_the_caret():
+    r = run("expand", "1 + (q;q)_")
+    assert r.exit_code == 2
+    assert "column 11" in r.stderr and "^" in r.stderr
+
+
+def test_notation_lists_every_registered_function():
+    r = run("notation")
+    assert r.exit_code == 0
+    for name in FUNCTIONS:
+        assert f"{name}(" in r.stdout
+
+
+def test_demo_shows_a_success_and_a_located_failure():
+    r = run("demo")
+    assert r.exit_code == 0
+    assert "AGREES" in r.stdout and "DIFFERS" in r.stdout and "first at q^20" in r.stdout
+
+
+def test_module_entry_point_and_real_process_exit_codes():
+    ok = subprocess.run([sys.executable, "-m", "qseries", "check", "q", "q", "-n", "5"],
+                        capture_output=True, text=True)
+    assert ok.returncode == 0
+    bad = subprocess.run([sys.executable, "-m", "qseries", "expand", "q +"],
+                         capture_output=True, text=True)
+    assert bad.returncode == 2 and "Traceback" not in bad.stderr and "column" in bad.stderr

@@ -1,0 +1,10 @@
+"""Shared test settings: hypothesis profiles (more examples in CI)."""
+
+import os
+
+from hypothesis import HealthCheck, settings
+
+settings.register_profile("dev", max_examples=60, deadline=None)
+settings.register_profile("ci", max_examples=200, deadline=None,
+                          suppress_health_check=[HealthCheck.too_slow])
+settings.load_profile("ci" if os.environ.get("CI") else "dev")

@@ -1,0 +1,118 @@
+"""The evaluator: sums, products, q-Pochhammer conventions, honest termination, errors."""
+
+from fractions import Fraction
+
+import pytest
+
+from qseries.errors import DomainError, QSeriesError, UnableError
+from qseries.lang import evaluate, parse
+from qseries.lang.evaluator import Evaluator
+from qseries.series import QQ, ZZ, Series
+
+
+def coeffs(text: str, n: int) -> list:
+    return evaluate(text, n).coefficient_list(n)
+
+
+def test_sums_with_finite_and_infinite_ranges():
+    assert coeffs("sum_{k=0}^{3} q^k", 6) == [1, 1, 1, 1, 0, 0]
+    assert coeffs("sum_{k=2}^{1} q^k", 3) == [0, 0, 0]          # empty sum
+    assert coeffs("sum_{k>=3} q^k", 6) == [0, 0, 0, 1, 1, 1]
+    assert coeffs("sum_{k=-inf}^{-1} q^(k^2)", 10) == [0, 1, 0, 0, 1, 0, 0, 0, 0, 1]
+    assert coeffs("sum_{k=-inf}^{inf} q^(k^2)", 10) == [1, 2, 0, 0, 2, 0, 0, 0, 0, 2]
+    assert evaluate("sum_{k=1}^{4} k", 5) == Series.constant(10)
+
+
+def test_sum_takes_the_term_that_follows():
+    assert coeffs("sum_{k=0}^{2} q^k 2 + 1", 4) == [3, 2, 2, 0]
+
+
+def test_nested_sums_with_outer_variable_in_the_inner_range():
+    # sum_{n=0}^{3} sum_{k=0}^{n} q^(n+k): exponents n+k for 0<=k<=n<=3
+    got = coeffs("sum_{n=0}^{3} sum_{k=0}^{n} q^(n+k)", 8)
+    expected = [0] * 8
+    for n in range(4):
+        for k in range(n + 1):
+            expected[n + k] += 1
+    assert got == expected
+
+
+def test_products():
+    assert evaluate("prod_{n>=1} (1-q^n)", 40) == evaluate("(q;q)_inf", 40)
+    assert coeffs("prod_{n=1}^{3} (1-q^n)", 8) == [1, -1, -1, 0, 1, 1, -1, 0]
+    assert evaluate("prod_{n>=1} (1-q^n)^-1", 60) == evaluate("1/(q;q)_inf", 60)
+    assert evaluate("prod_{n>=1} (1+q^(2n-1))/(1-q^(2n))", 50) == \
+        evaluate("(-q;q^2)_inf/(q^2;q^2)_inf", 50)
+
+
+def test_pochhammer_conventions():
+    assert evaluate("(q;q)_0", 5) == Series.constant(1)
+    # (a;q)_n = 1/(a q^n;q)_(-n) for negative n
+    assert evaluate("(q^3;q)_(-2)", 10) == evaluate("1/((q;q)_2)", 10)
+    assert evaluate("(q,q^2;q^3)_inf", 30) == evaluate("(q;q^3)_inf (q^2;q^3)_inf", 30)
+    assert evaluate("(1;q)_3", 10).is_zero()
+    assert evaluate("(2;q)_2", 4) == evaluate("(1-2)(1-2q)", 4)
+
+
+def test_stepping_fast_path_matches_direct_evaluation():
+    for text in ["sum_{k>=0} q^(k^2)/(q;q)_k^2",
+                 "sum_{k>=0} (-1)^k q^(k(k+1)/2) (q;q^2)_k/(q;q)_(2k+1)",
+                 "sum_{k>=0} q^(k^2+k) (-q;q)_k / (q;q)_(2k+1)",
+                 "sum_{k>=0} q^(2k) (q^8;q^2)_(k-3)"]:
+        fast = Evaluator(ZZ).evaluate(parse(text), 120)
+        slow = Evaluator(ZZ, stepping=False).evaluate(parse(text), 120)
+        assert fast == slow, text
+
+
+def test_rational_coefficients_and_exponents():
+    s = evaluate("1/(2-q)", 4)
+    assert s.ring == QQ and s.coefficient_list(4) == [Fraction(1, 2 ** (k + 1)) for k in range(4)]
+    assert evaluate("q^(1/3) q^(2/3)", 5) == evaluate("q", 5)
+
+
+def test_negative_powers_raise_the_working_order():
+    s = evaluate("q^-10 (q;q)_inf", 5)
+    assert s.precision == 5
+    assert s.valuation == -10
+
+
+@pytest.mark.parametrize("text", [
+    "sum_{k>=0} 1/(q;q)_k",
+    "sum_{k>=0} (q;q)_k",
+    "sum_{k>=0} q^(-k)",
+    "sum_{k>=0} 1",
+    "prod_{n>=1} 2",
+])
+def test_divergent_sums_and_products_are_refused(text):
+    with pytest.raises(DomainError, match="converge|infinitely many|no meaning"):
+        evaluate(text, 20)
+
+
+def test_unprovable_convergence_is_refused_not_truncated():
+    with pytest.raises(UnableError, match="cannot show"):
+        evaluate("prod_{n>=1} (2 - q^n)", 20)
+
+
+@pytest.mark.parametrize("text", [
+    "1/0", "1/(1;q)_inf", "1/(q-q)", "q/(q^2-q^2)", "(q;q)_(-1)", "0^(-1)",
+    "sum_{k=0}^{2} 1/k",
+])
+def test_division_by_zero(text):
+    with pytest.raises(DomainError):
+        evaluate(text, 10)
+
+
+@pytest.mark.parametrize("text", [
+    "2^q", "2^(1/2)", "(1+q)^(1/2)", "(q;q)_(1/2)", "(q;q^0)_inf", "(q;-q)_inf",
+    "(q;2q)_inf", "theta3(2)", "eta(1+q)", "gaussian(q, 2)", "gaussian(1/2, 1)",
+    "2^(10^9)", "10^(10^7)", "q^(-10^8) (q;q)_inf", "sum_{k=0}^{10^9} 1",
+])
+def test_other_bad_input_is_a_clear_error(text):
+    with pytest.raises(QSeriesError):
+        evaluate(text, 10)
+
+
+def test_huge_positive_exponents_vanish_quickly():
+    s = evaluate("q^(10^9) + 1", 10)
+    assert s.coefficient_list(10) == [1] + [0] * 9 and s.precision == 10
+    assert evaluate("(q;q)_(10^9)", 30) == evaluate("(q;q)_inf", 30)

@@ -1,0 +1,107 @@
+"""The parser: the notation of papers, positions in errors, limits, and no code execution."""
+
+from fractions import Fraction
+
+import pytest
+
+from qseries.errors import ParseError
+from qseries.lang.ast import BigOp, BinOp, Call, Name, Neg, Num, Poch, Q
+from qseries.lang.parser import MAX_DEPTH, MAX_TEXT, parse
+
+
+def test_implicit_multiplication_and_powers():
+    assert parse("2q^3") == BinOp("*", Num(Fraction(2)), BinOp("^", Q(), Num(Fraction(3))))
+    assert parse("q**3") == parse("q^3")
+    assert parse("-q^2") == Neg(BinOp("^", Q(), Num(Fraction(2))))
+    assert parse("q^-2") == BinOp("^", Q(), Neg(Num(Fraction(2))))
+    # right associative powers
+    assert parse("q^2^3") == parse("q^(2^3)")
+
+
+def test_pochhammer_forms():
+    a = parse("(q;q)_inf")
+    assert a == Poch((Q(),), Q(), None)
+    assert parse("(q;q)_∞") == a == parse("(q)_inf") == parse("(q;q)_{inf}")
+    assert parse("(q,-q;q^2)_inf").params == (Q(), Neg(Q()))
+    assert parse("(q;q)_(2k+1)", bound={"k"}).length == parse("2k+1", bound={"k"})
+    assert parse("(q;q)_{2k}", bound={"k"}).length == parse("2k", bound={"k"})
+    assert parse("(q;q)_10").length == Num(Fraction(10))
+    assert parse("(q;q)_k", bound={"k"}).length == Name("k")
+
+
+def test_sums_and_products():
+    s = parse("sum_{k>=0} q^(k^2)/(q;q)_k + 1")
+    assert isinstance(s, BinOp) and s.op == "+"
+    assert isinstance(s.left, BigOp) and s.left.lower == Num(Fraction(0)) and s.left.upper is None
+    assert parse("sum_{k=0}^{inf} q^k") == parse("sum_{k>=0} q^k")
+    b = parse("sum_{k=-inf}^{inf} q^(k^2)")
+    assert b.lower is None and b.upper is None
+    f = parse("sum_{k=0}^{10} q^k")
+    assert f.upper == Num(Fraction(10))
+    p = parse("prod_{n=1}^{inf} (1-q^n)")
+    assert p.kind == "prod" and p.upper is None
+    # the body is the product term that follows, up to the next + or -
+    t = parse("2 sum_{k>=0} q^k (1-q) - 3")
+    assert t.op == "-" and t.left.op == "*" and isinstance(t.left.right, BigOp)
+    # parentheses end a body
+    u = parse("(sum_{k>=0} q^k) (1-q)")
+    assert u.op == "*" and isinstance(u.left, BigOp)
+
+
+def test_nested_sums_see_outer_variables():
+    t = parse("sum_{n>=0} sum_{k=0}^{n} q^(n+k)")
+    assert isinstance(t.body, BigOp) and t.body.upper == Name("n")
+
+
+def test_functions_and_big_o():
+    assert parse("eta(q^2)") == Call("eta", (BinOp("^", Q(), Num(Fraction(2))),))
+    assert parse("1 + O(q^5)").right.exponent == Num(Fraction(5))
+
+
+@pytest.mark.parametrize("text, column", [
+    ("1 + )", 5),
+    ("(q;q", 5),
+    ("(q;q)_", 7),
+    ("q^", 3),
+    ("", 1),
+    ("2 $ 3", 3),
+    ("1.5 q", 2),
+    ("x + q", 1),
+    ("qq", 1),
+    ("sum_{k>0} q^k", 7),
+    ("sum_{k=0} q^k", 11),
+    ("sum_{q>=0} q", 6),
+    ("eta(q, q)", 1),
+    ("O(2)", 1),
+    ("k + q", 1),
+    ("sum_{k>=0} sum_{k>=0} q", 17),
+    ("(q;q)_n", 7),
+])
+def test_errors_name_the_position(text, column):
+    with pytest.raises(ParseError) as info:
+        parse(text)
+    assert f"column {column}" in str(info.value)
+    assert "^" in str(info.value) or text == ""
+
+
+@pytest.mark.parametrize("text", [
+    "__import__('os').system('echo hi')",
+    "exec('1')",
+    "eval(1)",
+    "q.__class__",
+    "lambda: 1",
+    "open('/etc/passwd')",
+    "[x for x in ()]",
+])
+def test_code_is_rejected_not_run(text):
+    with pytest.raises(ParseError):
+        parse(text)
+
+
+def test_limits():
+    with pytest.raises(ParseError, match="longer than"):
+        parse("q+" * MAX_TEXT + "q")
+    with pytest.raises(ParseError, match="nested more than"):
+        parse("(" * (MAX_DEPTH + 5) + "q" + ")" * (MAX_DEPTH + 5))
+    with pytest.raises(ParseError, match="digits"):
+        parse("1" * 5000)

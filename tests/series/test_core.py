@@ -1,0 +1,161 @@
+"""Series arithmetic against the slow pure-Python reference and sympy, and the precision rules."""
+
+from fractions import Fraction
+
+import pytest
+import sympy
+from hypothesis import given
+from hypothesis import strategies as st
+
+from qseries.errors import DomainError, IncompatibleRingError, UnableError
+from qseries.series import GF, QQ, ZZ, Series
+from qseries.series.reference import ref_inverse, ref_mul, ref_pow
+
+small_ints = st.integers(-20, 20)
+coeff_lists = st.lists(small_ints, min_size=1, max_size=12)
+unit_lists = st.tuples(st.sampled_from([1, -1]), st.lists(small_ints, max_size=11)).map(
+    lambda t: [t[0], *t[1]])
+precs = st.integers(1, 14)
+
+
+def known(s: Series, n: int) -> list:
+    return [Fraction(c) for c in s.coefficient_list(n)]
+
+
+@given(coeff_lists, coeff_lists, precs, precs)
+def test_mul_matches_reference(a, b, pa, pb):
+    x = Series.from_coefficients(a, prec=pa)
+    y = Series.from_coefficients(b, prec=pb)
+    z = x * y
+    # both have valuation >= 0, so the product is known to min(pa + val y, pb + val x)
+    vx = x.valuation if x.valuation is not None else pa
+    vy = y.valuation if y.valuation is not None else pb
+    assert z.precision == min(pa + vy, pb + vx)
+    n = z.precision
+    assert known(z, n) == ref_mul(a[:pa], b[:pb], n)
+
+
+@given(coeff_lists, coeff_lists, precs, precs)
+def test_add_takes_minimum_precision(a, b, pa, pb):
+    z = Series.from_coefficients(a, prec=pa) + Series.from_coefficients(b, prec=pb)
+    n = min(pa, pb)
+    assert z.precision == n
+    ref = [Fraction(a[i] if i < len(a) else 0) + (b[i] if i < len(b) else 0) for i in range(n)]
+    assert known(z, n) == ref
+
+
+@given(unit_lists, precs)
+def test_inverse_over_integers_matches_reference(a, p):
+    x = Series.from_coefficients(a, prec=p)
+    y = x.inverse()
+    assert y.ring == ZZ
+    assert y.precision == p
+    assert known(y, p) == ref_inverse(a[:p], p)
+
+
+@given(st.lists(small_ints, min_size=1, max_size=10).filter(lambda a: a[0] not in (0, 1, -1)),
+       precs)
+def test_inverse_with_non_unit_leading_coefficient_is_rational(a, p):
+    y = Series.from_coefficients(a, prec=p).inverse()
+    assert y.ring == QQ
+    assert known(y, p) == ref_inverse(a[:p], p)
+
+
+@given(coeff_lists.filter(lambda a: a[0] != 0), st.integers(0, 5), precs)
+def test_power_matches_reference(a, e, p):
+    y = Series.from_coefficients(a, prec=p).power(e)
+    assert known(y, p) == ref_pow(a[:p], e, p)
+
+
+@given(coeff_lists, coeff_lists, coeff_lists, precs)
+def test_ring_laws(a, b, c, p):
+    x, y, z = (Series.from_coefficients(v, prec=p) for v in (a, b, c))
+    assert (x * (y + z)).coefficient_list(p) == (x * y + x * z).coefficient_list(p)
+    assert ((x * y) * z).coefficient_list(p) == (x * (y * z)).coefficient_list(p)
+    assert (x + y).coefficient_list(p) == (y + x).coefficient_list(p)
+
+
+@given(coeff_lists.filter(lambda a: a[0] != 0), precs)
+def test_series_times_inverse_is_one(a, p):
+    x = Series.from_coefficients(a, prec=p)
+    one = x * x.inverse()
+    assert one.coefficient_list(p) == [1] + [0] * (p - 1)
+
+
+def test_against_sympy_series_of_rational_function():
+    # 1/(1 - q - q^2) is the Fibonacci generating function; sympy expands it independently
+    q = sympy.symbols("q")
+    ref = sympy.series(1 / (1 - q - q**2), q, 0, 30).removeO()
+    ours = Series.from_coefficients([1, -1, -1]).inverse(order=30)
+    assert ours.coefficient_list(30) == [int(ref.coeff(q, i)) for i in range(30)]
+
+
+def test_negative_power_lowers_precision():
+    f = Series.from_coefficients([1, 2, 3], prec=10)
+    g = f * Series.monomial(-5)
+    assert g.precision == 5
+    assert g.valuation == -5
+
+
+def test_division_by_positive_valuation_lowers_precision():
+    # (f + O(q^10)) / (q^2 + q^3 + O(q^10)): the quotient is known to O(q^6)
+    f = Series.from_coefficients([1, 1], prec=10)
+    d = Series.from_coefficients([0, 0, 1, 1], prec=10)
+    assert (f / d).precision == 10 - 2 - 2
+
+
+def test_rational_offset_and_mismatched_offsets():
+    eta_like = Series.monomial(Fraction(1, 24)) * Series.from_coefficients([1, -1], prec=5)
+    assert eta_like.valuation == Fraction(1, 24)
+    assert eta_like.precision == Fraction(121, 24)
+    with pytest.raises(IncompatibleRingError):
+        eta_like + Series.constant(1)
+    # offsets add up and carry into the integer part
+    s = Series.monomial(Fraction(2, 3)) * Series.monomial(Fraction(2, 3))
+    assert s.valuation == Fraction(4, 3)
+
+
+def test_inverse_of_polynomial_needs_an_order():
+    with pytest.raises(UnableError):
+        Series.from_coefficients([1, -1]).inverse()
+    assert Series.monomial(3, c=-1).inverse().valuation == -3
+
+
+def test_division_by_zero_and_by_vanishing_series():
+    with pytest.raises(DomainError):
+        Series.zero().inverse()
+    with pytest.raises(DomainError):
+        Series.zero(prec=5).inverse()
+
+
+def test_binomial_fast_paths_match_general_arithmetic():
+    f = Series.from_coefficients(list(range(1, 40)), prec=40)
+    b = Series.from_coefficients([1, 0, 0, -3])
+    assert f.mul_binomial(3, 3) == (f * b).truncate(40)
+    slow = (f * b.inverse(order=40)).coefficient_list(40)
+    assert f.div_binomial(3, 3).coefficient_list(40) == slow
+    assert f.div_binomial(Fraction(1, 2), 2).ring == QQ
+
+
+def test_modular_ring_agrees_with_integers():
+    p = 1_000_003
+    a = Series.from_coefficients([1, 5, -7, 11], prec=20)
+    m = a.change_ring(GF(p))
+    inv = m.inverse()
+    exact = a.inverse()
+    assert [c % p for c in exact.coefficient_list(20)] == inv.coefficient_list(20)
+    with pytest.raises(IncompatibleRingError):
+        m + Series.from_coefficients([1], ring=GF(7))
+
+
+def test_coefficient_beyond_precision_is_an_error():
+    f = Series.from_coefficients([1, 2], prec=3)
+    assert f[2] == 0
+    with pytest.raises(DomainError):
+        f[3]
+
+
+def test_inflate():
+    f = Series.from_coefficients([1, 2, 3], prec=3)
+    g = f.inflate(2)
+    assert g.precision == 6 and g.coefficient_list(6) == [1, 0, 2, 0, 3, 0]

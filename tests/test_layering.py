@@ -1,0 +1,70 @@
+"""The layering rule: a module imports only modules above it in LAYERS; only qseries._flint
+imports python-flint; nothing imports the CLI."""
+
+import ast
+import pathlib
+
+import qseries
+
+ROOT = pathlib.Path(qseries.__file__).parent
+
+LAYERS = ["errors", "_flint", "series", "products", "lang", "analysis", "cli"]
+
+
+def _layer(module: str) -> str:
+    return module.split(".")[0]
+
+
+def _imports(path: pathlib.Path) -> list[tuple[str, int]]:
+    """(imported qseries module relative to the package, line) for every import."""
+    tree = ast.parse(path.read_text())
+    rel = path.relative_to(ROOT).with_suffix("")
+    pkg_parts = list(rel.parts[:-1])
+    out = []
+    for node in ast.walk(tree):
+        if isinstance(node, ast.ImportFrom):
+            if node.level:
+                base = pkg_parts[: len(pkg_parts) - (node.level - 1)]
+                mod = ".".join(base + ([node.module] if node.module else []))
+                if not mod:
+                    for alias in node.names:
+                        out.append((alias.name, node.lineno))
+                    continue
+                out.append((mod, node.lineno))
+            elif node.module and node.module.startswith("qseries."):
+                out.append((node.module[len("qseries."):], node.lineno))
+            elif node.module in ("flint",):
+                out.append(("flint", node.lineno))
+        elif isinstance(node, ast.Import):
+            for alias in node.names:
+                if alias.name.split(".")[0] == "flint":
+                    out.append(("flint", node.lineno))
+    return out
+
+
+def test_layering_rule():
+    problems = []
+    for path in ROOT.rglob("*.py"):
+        rel = path.relative_to(ROOT)
+        if rel.parts[0] in ("__init__.py", "__main__.py"):
+            continue
+        own = _layer(".".join(rel.with_suffix("").parts))
+        for mod, line in _imports(path):
+            if mod == "flint":
+                if own != "_flint":
+                    problems.append(f"{rel}:{line} imports python-flint")
+                continue
+            other = _layer(mod)
+            if other == own:
+                continue
+            if LAYERS.index(other) > LAYERS.index(own):
+                problems.append(f"{rel}:{line} ({own}) imports {mod} ({other}), a lower layer")
+    assert not problems, "\n".join(problems)
+
+
+def test_every_module_has_a_layer():
+    for path in ROOT.rglob("*.py"):
+        rel = path.relative_to(ROOT)
+        if rel.parts[0] in ("__init__.py", "__main__.py"):
+            continue
+        assert _layer(".".join(rel.with_suffix("").parts)) in LAYERS, rel
