@@ -15,7 +15,6 @@ qseries.errors.DomainError: sum_{k>=0} does not converge as a formal power serie
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from fractions import Fraction
 
 from ..errors import DomainError, QSeriesError, UnableError
@@ -24,6 +23,7 @@ from ..series import MAX_LENGTH, ZZ, Ring, Series
 from . import symbolic as sym
 from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, free_names, mentions_q
 from .parser import parse
+from .termination import NoBound, TermBounds
 
 Value = Fraction | Series
 
@@ -37,19 +37,6 @@ def _int_value(v: Fraction, what: str) -> int:
     if v.denominator != 1:
         raise DomainError(f"{what} must be an integer, not {v}")
     return v.numerator
-
-
-class _NoBound(Exception):
-    """Raised inside the valuation analysis when no bound can be established."""
-
-
-@dataclass(frozen=True)
-class _Bound:
-    """val(term at k = sign*m) >= poly(m) for all integers m >= start; equality when exact."""
-
-    poly: sym.Poly
-    exact: bool
-    start: int
 
 
 class Evaluator:
@@ -69,6 +56,7 @@ class Evaluator:
         self._cache: dict[tuple[int, int], Value] = {}
         self._free: dict[int, frozenset[str]] = {}
         self._hasq: dict[int, bool] = {}
+        self.bounds = TermBounds(self)
 
     # -- public ------------------------------------------------------------------------
     def evaluate(self, node: Node, order: int, retries: int = 3) -> Series:
@@ -347,24 +335,34 @@ class Evaluator:
         """First m >= start (k = sign*m) from which every term has valuation >= order."""
         label = _label(node)
         what = "factor minus 1" if deviation else "term"
+        var = node.var
         try:
-            b = (self._deviation if deviation else self._lower)(node.body, node.var, sign, env,
-                                                                order)
-        except _NoBound as why:
+            if deviation:
+                b = self.bounds.deviation(node.body, var, {var: sign}, env, order)
+            else:
+                b = self.bounds.lower(node.body, var, {var: sign}, env, order)
+            if b is None:  # every factor is exactly 1
+                return start
+            poly = sym.m_to_uni(b.poly, var)
+            if poly is None:
+                raise NoBound("the bound involves the variables of inner sums")
+        except NoBound as why:
             raise UnableError(f"cannot show that {label} converges as a formal power series "
                               f"({why}); give finite limits") from None
-        if b is None:  # every factor is exactly 1
-            return start
-        if sym.degree(b.poly) < 1 or sym.leading(b.poly) <= 0:
-            shown = sym.peval(b.poly, 0)
+        if sym.degree(poly) < 1 or sym.leading(poly) <= 0:
+            shown = sym.peval(poly, 0)
+            if b.exact and sym.degree(poly) < 1:
+                raise DomainError(f"{label} does not converge as a formal power series: the "
+                                  f"valuation of its {var}-th {what} stays at "
+                                  f"{_num(shown)} (it does not grow with {var})")
             if b.exact:
                 raise DomainError(f"{label} does not converge as a formal power series: the "
-                                  f"valuation of its {node.var}-th {what} stays at "
-                                  f"{_num(shown)} (it does not grow with {node.var})")
+                                  f"valuation of its {var}-th {what} is "
+                                  f"{_poly_text(poly, var, sign)}, which does not grow")
             raise UnableError(f"cannot show that {label} converges as a formal power series: "
-                              f"the valuation of its {node.var}-th {what} is only known to "
-                              f"be at least {_poly_text(b.poly, node.var, sign)}")
-        m = sym.eventually_at_least(b.poly, order, max(start, b.start))
+                              f"the valuation of its {var}-th {what} is only known to "
+                              f"be at least {_poly_text(poly, var, sign)}")
+        m = sym.eventually_at_least(poly, order, max(start, b.start, 0))
         return max(m, start)
 
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
@@ -461,8 +459,10 @@ class Evaluator:
         if any(var in self.free(x) for x in (*f.params, f.base)) or f.length is None:
             return False
         try:
-            poly = self._poly_of(f.length, var, 1, env)
-        except _NoBound:
+            poly = sym.m_to_uni(self.bounds.poly_of(f.length, {var: 1}, env), var)
+        except NoBound:
+            return False
+        if poly is None:
             return False
         return sym.degree(poly) == 1 and all(c.denominator == 1 for c in poly)
 
@@ -511,151 +511,6 @@ class Evaluator:
                 acc = -acc
         return acc
 
-    # -- valuation analysis ------------------------------------------------------------------
-    def _poly_of(self, node: Node, var: str, sign: int, env: dict[str, int]) -> sym.Poly:
-        """A number-valued node as a polynomial in m, where var = sign*m."""
-        if var not in self.free(node):
-            if self.has_q(node):
-                raise _NoBound("an exponent involves q")
-            return sym.const(self.scalar(node, env))
-        if isinstance(node, Name):
-            return (Fraction(0), Fraction(sign))
-        if isinstance(node, Neg):
-            return sym.pneg(self._poly_of(node.operand, var, sign, env))
-        if isinstance(node, BinOp):
-            if node.op in "+-*":
-                a = self._poly_of(node.left, var, sign, env)
-                b = self._poly_of(node.right, var, sign, env)
-                return sym.padd(a, b) if node.op == "+" else (
-                    sym.psub(a, b) if node.op == "-" else sym.pmul(a, b))
-            if node.op == "/" and var not in self.free(node.right):
-                d = self.scalar(node.right, env)
-                if d == 0:
-                    raise DomainError("division by zero")
-                return sym.pscale(self._poly_of(node.left, var, sign, env), 1 / d)
-            if node.op == "^" and var not in self.free(node.right):
-                e = self.scalar(node.right, env)
-                if e.denominator == 1 and 0 <= e <= 8:
-                    return sym.ppow(self._poly_of(node.left, var, sign, env), int(e))
-        raise _NoBound(f"the expression at column {getattr(node, 'pos', 0) + 1} is not a "
-                       f"polynomial in {var}")
-
-    def _constant_bound(self, node: Node, env: dict[str, int], order: int) -> _Bound:
-        v = self._as_series(self.value(node, env, order))
-        val = v.valuation
-        if val is None:
-            raise _NoBound("a factor vanishes to the working order")
-        return _Bound(sym.const(Fraction(val)), v.is_exact or v.precision is None
-                      or v.precision > val, 0)
-
-    def _lower(self, node: Node, var: str, sign: int, env: dict[str, int],
-               order: int) -> _Bound:
-        """A lower bound for the valuation of node as a polynomial in m (var = sign*m)."""
-        if not self.has_q(node):
-            return _Bound((), True, 0)
-        if var not in self.free(node):
-            return self._constant_bound(node, env, order)
-        if isinstance(node, Neg):
-            return self._lower(node.operand, var, sign, env, order)
-        if isinstance(node, BinOp):
-            if node.op in "+-":
-                a = self._lower(node.left, var, sign, env, order)
-                b = self._lower(node.right, var, sign, env, order)
-                return _min_bound(a, b)
-            if node.op == "*":
-                a = self._lower(node.left, var, sign, env, order)
-                b = self._lower(node.right, var, sign, env, order)
-                return _Bound(sym.padd(a.poly, b.poly), a.exact and b.exact,
-                              max(a.start, b.start))
-            if node.op == "/":
-                a = self._lower(node.left, var, sign, env, order)
-                b = self._lower(node.right, var, sign, env, order)
-                if not b.exact:
-                    raise _NoBound("the valuation of a denominator is not known exactly")
-                return _Bound(sym.psub(a.poly, b.poly), a.exact, max(a.start, b.start))
-            # a power
-            if self.has_q(node.right):
-                raise _NoBound("an exponent involves q")
-            if var not in self.free(node.right):
-                e = self.scalar(node.right, env)
-                b = self._lower(node.left, var, sign, env, order)
-                if e < 0 and not b.exact:
-                    raise _NoBound("the valuation of a denominator is not known exactly")
-                return _Bound(sym.pscale(b.poly, e), b.exact, b.start)
-            ep = self._poly_of(node.right, var, sign, env)
-            b = self._lower(node.left, var, sign, env, order)
-            if sym.degree(b.poly) > 0 or not b.exact:
-                raise _NoBound("a power with a variable exponent of a non-monomial")
-            return _Bound(sym.pscale(ep, b.poly[0] if b.poly else Fraction(0)), True, b.start)
-        if isinstance(node, Poch):
-            start = self._poch_start(node, var, sign, env, order)
-            return _Bound((), True, start)
-        if isinstance(node, Call) and FUNCTIONS[node.name].unit_constant_term:
-            return _Bound((), False, 0)
-        if isinstance(node, BigO):
-            return _Bound(self._poly_of(node.exponent, var, sign, env), False, 0)
-        raise _NoBound(f"no valuation bound for the expression at column "
-                       f"{getattr(node, 'pos', 0) + 1}")
-
-    def _poch_start(self, node: Poch, var: str, sign: int, env: dict[str, int],
-                    order: int) -> int:
-        """m from which (params; q^t)_n(m) has constant term 1 (valuation exactly 0)."""
-        if var in self.free(node.base):
-            raise _NoBound("the base of a q-Pochhammer symbol depends on the variable")
-        start = 0
-        if node.length is not None and var in self.free(node.length):
-            lp = self._poly_of(node.length, var, sign, env)
-            if sym.leading(lp) < 0:
-                raise _NoBound("the subscript of a q-Pochhammer symbol becomes negative")
-            if sym.degree(lp) >= 1:
-                start = sym.eventually_at_least(lp, 0, 0)
-        elif node.length is not None and self.integer(node.length, env, "a subscript") < 0:
-            raise _NoBound("a q-Pochhammer symbol with negative subscript")
-        for p in node.params:
-            if not self.has_q(p):
-                if var in self.free(p) or self.scalar(p, env) == 1:
-                    raise _NoBound("a q-Pochhammer symbol (c;q)_n with c = 1 or varying")
-                continue
-            b = self._lower(p, var, sign, env, order)
-            if sym.degree(b.poly) >= 1 and sym.leading(b.poly) > 0:
-                start = max(start, sym.eventually_at_least(b.poly, 1, b.start))
-            elif sym.degree(b.poly) <= 0 and (b.poly[0] if b.poly else 0) >= 1:
-                start = max(start, b.start)
-            else:
-                raise _NoBound("a q-Pochhammer parameter without positive valuation")
-        return start
-
-    def _deviation(self, node: Node, var: str, sign: int, env: dict[str, int],
-                   order: int) -> _Bound | None:
-        """A lower bound for val(node - 1); None when node is exactly 1."""
-        if not self.has_q(node):
-            if var not in self.free(node) and self.scalar(node, env) == 1:
-                return None
-            raise _NoBound("a factor of the product is a number other than 1")
-        if isinstance(node, BinOp):
-            if node.op in "+-":
-                for one, other in ((node.left, node.right), (node.right, node.left)):
-                    if isinstance(one, Num) and one.value == 1 and \
-                            (node.op == "+" or one is node.left):
-                        return self._lower(other, var, sign, env, order)
-                raise _NoBound("a factor is not of the form 1 +- X")
-            if node.op in "*/":
-                a = self._deviation(node.left, var, sign, env, order)
-                b = self._deviation(node.right, var, sign, env, order)
-                if a is None or b is None:
-                    return a or b
-                return _min_bound(a, b)
-            if node.op == "^" and not self.has_q(node.right):
-                return self._deviation(node.left, var, sign, env, order)
-        if isinstance(node, Poch):
-            self._poch_start(node, var, sign, env, order)
-            bounds = [self._lower(p, var, sign, env, order) for p in node.params]
-            out = bounds[0]
-            for b in bounds[1:]:
-                out = _min_bound(out, b)
-            return _Bound(out.poly, False, out.start)
-        raise _NoBound(f"no bound for the factor at column {getattr(node, 'pos', 0) + 1}")
-
 
 # -- module helpers ---------------------------------------------------------------------------
 def _label(node: BigOp) -> str:
@@ -679,16 +534,6 @@ def _poly_text(p: sym.Poly, var: str, sign: int) -> str:
             power = "" if i == 0 else f"*{m}" + ("" if i == 1 else f"^{i}")
             parts.append(f"{_num(p[i])}{power}")
     return " + ".join(parts)
-
-
-def _min_bound(a: _Bound, b: _Bound) -> _Bound:
-    d = sym.psub(a.poly, b.poly)
-    start = max(a.start, b.start)
-    if not d:
-        return _Bound(a.poly, False, start)
-    if sym.leading(d) > 0:        # b eventually smaller
-        return _Bound(b.poly, b.exact, max(start, sym.root_bound(d)))
-    return _Bound(a.poly, a.exact, max(start, sym.root_bound(d)))
 
 
 def _factors(node: Node, p: int = 1) -> list[tuple[Node, int]]:

@@ -122,3 +122,120 @@ def eventually_at_least(a: Poly, target: int | Fraction, start: int) -> int:
     while m > start and peval(a, m - 1) >= target:
         m -= 1
     return m
+
+
+# -- polynomials in several variables ------------------------------------------------------
+# An MPoly maps a monomial (a sorted tuple of (name, exponent) pairs) to its coefficient.
+# Used for valuation bounds of nested sums, where every variable ranges over integers >= 0.
+
+Monomial = tuple[tuple[str, int], ...]
+MPoly = dict[Monomial, Fraction]
+
+
+def m_const(c: Fraction | int) -> MPoly:
+    """The constant polynomial c.
+
+    >>> m_const(3)
+    {(): Fraction(3, 1)}
+    """
+    return {(): Fraction(c)} if c else {}
+
+
+def m_var(name: str, coeff: Fraction | int = 1) -> MPoly:
+    return {((name, 1),): Fraction(coeff)} if coeff else {}
+
+
+def _clean(p: MPoly) -> MPoly:
+    return {k: v for k, v in p.items() if v}
+
+
+def m_add(a: MPoly, b: MPoly) -> MPoly:
+    out = dict(a)
+    for k, v in b.items():
+        out[k] = out.get(k, Fraction(0)) + v
+    return _clean(out)
+
+
+def m_scale(a: MPoly, c: Fraction | int) -> MPoly:
+    return _clean({k: v * c for k, v in a.items()})
+
+
+def m_sub(a: MPoly, b: MPoly) -> MPoly:
+    return m_add(a, m_scale(b, -1))
+
+
+def _mono_mul(x: Monomial, y: Monomial) -> Monomial:
+    d: dict[str, int] = dict(x)
+    for name, e in y:
+        d[name] = d.get(name, 0) + e
+    return tuple(sorted(d.items()))
+
+
+def m_mul(a: MPoly, b: MPoly) -> MPoly:
+    out: MPoly = {}
+    for ka, va in a.items():
+        for kb, vb in b.items():
+            k = _mono_mul(ka, kb)
+            out[k] = out.get(k, Fraction(0)) + va * vb
+    return _clean(out)
+
+
+def m_pow(a: MPoly, e: int) -> MPoly:
+    out = m_const(1)
+    for _ in range(e):
+        out = m_mul(out, a)
+    return out
+
+
+def m_vars(a: MPoly) -> set[str]:
+    return {name for k in a for name, _ in k}
+
+
+def m_coeffs_in(a: MPoly, name: str) -> dict[int, MPoly]:
+    """a as a polynomial in ``name``: power -> coefficient polynomial.
+
+    >>> m_coeffs_in(m_add(m_mul(m_var("j"), m_var("k")), m_var("k")), "j")
+    {1: {(('k', 1),): Fraction(1, 1)}, 0: {(('k', 1),): Fraction(1, 1)}}
+    """
+    out: dict[int, MPoly] = {}
+    for k, v in a.items():
+        d = dict(k)
+        e = d.pop(name, 0)
+        rest = tuple(sorted(d.items()))
+        out.setdefault(e, {})[rest] = v
+    return out
+
+
+def m_subst(a: MPoly, name: str, value: MPoly) -> MPoly:
+    """Substitute the polynomial ``value`` for the variable ``name``."""
+    out: MPoly = {}
+    for e, c in m_coeffs_in(a, name).items():
+        out = m_add(out, m_mul(c, m_pow(value, e)))
+    return out
+
+
+def m_nonnegative(a: MPoly) -> bool:
+    """True when every coefficient is >= 0: then a >= 0 wherever all variables are >= 0."""
+    return all(v >= 0 for v in a.values())
+
+
+def m_min(a: MPoly, b: MPoly) -> MPoly:
+    """Coefficient-wise minimum: a lower bound for min(a, b) where all variables are >= 0."""
+    return _clean({k: min(a.get(k, Fraction(0)), b.get(k, Fraction(0))) for k in {*a, *b}})
+
+
+def m_to_uni(a: MPoly, name: str) -> Poly | None:
+    """a as a univariate polynomial in ``name`` (None if other variables occur)."""
+    if m_vars(a) - {name}:
+        return None
+    coeffs = m_coeffs_in(a, name)
+    top = max(coeffs, default=-1)
+    return norm([coeffs.get(i, {}).get((), Fraction(0)) for i in range(top + 1)])
+
+
+def m_from_uni(p: Poly, name: str) -> MPoly:
+    out: MPoly = {}
+    for i, c in enumerate(p):
+        if c:
+            out[((name, i),) if i else ()] = c
+    return out

@@ -116,3 +116,19 @@ def test_huge_positive_exponents_vanish_quickly():
     s = evaluate("q^(10^9) + 1", 10)
     assert s.coefficient_list(10) == [1] + [0] * 9 and s.precision == 10
     assert evaluate("(q;q)_(10^9)", 30) == evaluate("(q;q)_inf", 30)
+
+
+def test_nested_infinite_sums_terminate_through_their_inner_bodies():
+    # sum_{a>=0} sum_{b>=0} q^(a^2 + a b + b^2): count pairs directly
+    n = 60
+    expected = [0] * n
+    for a in range(n):
+        for b in range(n):
+            if a * a + a * b + b * b < n:
+                expected[a * a + a * b + b * b] += 1
+    assert coeffs("sum_{a>=0} sum_{b>=0} q^(a^2 + a b + b^2)", n) == expected
+
+
+def test_nested_sums_whose_inner_terms_do_not_grow_are_refused():
+    with pytest.raises(QSeriesError):
+        evaluate("sum_{a>=0} sum_{b>=0} q^(a - b)", 10)

@@ -1,0 +1,249 @@
+"""When does an infinite sum or product stop mattering modulo q^N?
+
+For the k-th term of ``sum_{k...} T`` (or the k-th factor minus 1 of a product) we derive a
+lower bound for its valuation as a polynomial in m, where k = sign*m and m grows.  Nested sums
+are bounded through their own bodies: with the inner variable j written as its lower limit plus
+t >= 0, a body bound whose coefficients of t, t^2, ... are all non-negative is smallest at
+t = 0.  All variables are assumed >= 0 where such coefficient tests are used, so bounds are
+only applied for m >= 0.
+
+Every rule is sound (a true lower bound, "exact" only when it is the valuation itself); when no
+rule applies, :class:`NoBound` says why and the caller refuses to truncate.
+
+>>> from qseries.lang.parser import parse
+>>> from qseries.lang.evaluator import Evaluator
+>>> tb = TermBounds(Evaluator())
+>>> body = parse("sum_{k>=0} q^(k^2)/(q;q)_k").body
+>>> b = tb.lower(body, "k", {"k": 1}, {}, 50)
+>>> sym.m_to_uni(b.poly, "k"), b.exact
+((Fraction(0, 1), Fraction(0, 1), Fraction(1, 1)), True)
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+from typing import Any
+
+from ..errors import DomainError
+from ..products import FUNCTIONS
+from . import symbolic as sym
+from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch
+
+
+class NoBound(Exception):
+    """No valuation bound could be established (the message says where)."""
+
+
+@dataclass(frozen=True)
+class Bound:
+    """val(term) >= poly for every m >= start (and all inner variables >= 0); equality when
+    ``exact``."""
+
+    poly: sym.MPoly
+    exact: bool
+    start: int
+
+
+def _pos(node: Node) -> int:
+    return getattr(node, "pos", 0) + 1
+
+
+class TermBounds:
+    """The valuation analysis, over an evaluator that supplies values of closed subterms."""
+
+    def __init__(self, evaluator: Any) -> None:
+        self.ev = evaluator
+
+    # -- polynomials in the bound variables -------------------------------------------
+    def _symbolic(self, node: Node, syms: dict[str, int]) -> bool:
+        return bool(self.ev.free(node) & syms.keys())
+
+    def poly_of(self, node: Node, syms: dict[str, int], env: dict[str, int]) -> sym.MPoly:
+        """A number-valued node as a polynomial in the symbolic variables (var = sign*m)."""
+        if not self._symbolic(node, syms):
+            if self.ev.has_q(node):
+                raise NoBound("an exponent or limit involves q")
+            return sym.m_const(self.ev.scalar(node, env))
+        if isinstance(node, Name):
+            return sym.m_var(node.name, syms[node.name])
+        if isinstance(node, Neg):
+            return sym.m_scale(self.poly_of(node.operand, syms, env), -1)
+        if isinstance(node, BinOp):
+            if node.op in "+-*":
+                a = self.poly_of(node.left, syms, env)
+                b = self.poly_of(node.right, syms, env)
+                if node.op == "+":
+                    return sym.m_add(a, b)
+                return sym.m_sub(a, b) if node.op == "-" else sym.m_mul(a, b)
+            if node.op == "/" and not self._symbolic(node.right, syms):
+                d = self.ev.scalar(node.right, env)
+                if d == 0:
+                    raise DomainError(f"division by zero at column {_pos(node.right)}")
+                return sym.m_scale(self.poly_of(node.left, syms, env), 1 / d)
+            if node.op == "^" and not self._symbolic(node.right, syms):
+                e = self.ev.scalar(node.right, env)
+                if e.denominator == 1 and 0 <= e <= 8:
+                    return sym.m_pow(self.poly_of(node.left, syms, env), int(e))
+        raise NoBound(f"the expression at column {_pos(node)} is not a polynomial in the "
+                      f"summation variables")
+
+    # -- valuations ------------------------------------------------------------------------
+    def _constant(self, node: Node, env: dict[str, int], order: int) -> Bound:
+        v = self.ev._as_series(self.ev.value(node, env, order))
+        val = v.valuation
+        if val is None:
+            raise NoBound(f"the factor at column {_pos(node)} vanishes to the working order")
+        exact = v.precision is None or v.precision > val
+        return Bound(sym.m_const(Fraction(val)), exact, 0)
+
+    def lower(self, node: Node, main: str, syms: dict[str, int], env: dict[str, int],
+              order: int) -> Bound:
+        """A lower bound for the valuation of ``node``."""
+        ev = self.ev
+        if not ev.has_q(node):
+            return Bound({}, True, 0)
+        if not self._symbolic(node, syms):
+            return self._constant(node, env, order)
+        if isinstance(node, Neg):
+            return self.lower(node.operand, main, syms, env, order)
+        if isinstance(node, BinOp):
+            if node.op in "+-":
+                return min_bound(self.lower(node.left, main, syms, env, order),
+                                 self.lower(node.right, main, syms, env, order), main)
+            a = self.lower(node.left, main, syms, env, order)
+            if node.op == "*":
+                b = self.lower(node.right, main, syms, env, order)
+                return Bound(sym.m_add(a.poly, b.poly), a.exact and b.exact,
+                             max(a.start, b.start))
+            if node.op == "/":
+                b = self.lower(node.right, main, syms, env, order)
+                if not b.exact:
+                    raise NoBound(f"the valuation of the denominator at column "
+                                  f"{_pos(node.right)} is not known exactly")
+                return Bound(sym.m_sub(a.poly, b.poly), a.exact, max(a.start, b.start))
+            return self._power(node, main, syms, env, order)
+        if isinstance(node, Poch):
+            return Bound({}, True, self.poch_start(node, main, syms, env, order))
+        if isinstance(node, Call) and FUNCTIONS[node.name].unit_constant_term:
+            return Bound({}, False, 0)
+        if isinstance(node, BigO):
+            return Bound(self.poly_of(node.exponent, syms, env), False, 0)
+        if isinstance(node, BigOp) and node.kind == "sum":
+            return self._inner_sum(node, main, syms, env, order)
+        raise NoBound(f"no valuation bound for the expression at column {_pos(node)}")
+
+    def _power(self, node: BinOp, main: str, syms: dict[str, int], env: dict[str, int],
+               order: int) -> Bound:
+        if self.ev.has_q(node.right):
+            raise NoBound("an exponent involves q")
+        base = self.lower(node.left, main, syms, env, order)
+        if not self._symbolic(node.right, syms):
+            e = self.ev.scalar(node.right, env)
+            if e < 0 and not base.exact:
+                raise NoBound(f"the valuation of the base at column {_pos(node.left)} is not "
+                              f"known exactly")
+            return Bound(sym.m_scale(base.poly, e), base.exact, base.start)
+        if sym.m_vars(base.poly) or not base.exact:
+            raise NoBound(f"a power with a variable exponent of a non-monomial at column "
+                          f"{_pos(node)}")
+        c = base.poly.get((), Fraction(0))
+        return Bound(sym.m_scale(self.poly_of(node.right, syms, env), c), True, base.start)
+
+    def _inner_sum(self, node: BigOp, main: str, syms: dict[str, int], env: dict[str, int],
+                   order: int) -> Bound:
+        j = node.var
+        if node.lower is None:
+            raise NoBound(f"the inner sum at column {_pos(node)} has no lower limit")
+        lo = self.poly_of(node.lower, syms, env)
+        if not sym.m_nonnegative(lo):
+            raise NoBound(f"the lower limit of the inner sum at column {_pos(node)} may be "
+                          f"negative")
+        body = self.lower(node.body, main, {**syms, j: 1}, env, order)
+        shifted = sym.m_subst(body.poly, j, sym.m_add(lo, sym.m_var(j)))
+        by_power = sym.m_coeffs_in(shifted, j)
+        for d, c in by_power.items():
+            if d >= 1 and not sym.m_nonnegative(c):
+                raise NoBound(f"the terms of the inner sum at column {_pos(node)} do not grow "
+                              f"with {j} in a way this analysis can see")
+        return Bound(by_power.get(0, {}), False, body.start)
+
+    def poch_start(self, node: Poch, main: str, syms: dict[str, int], env: dict[str, int],
+                   order: int) -> int:
+        """m from which (params; q^t)_n has constant term 1 (valuation exactly 0)."""
+        if self._symbolic(node.base, syms):
+            raise NoBound("the base of a q-Pochhammer symbol depends on the variable")
+        start = 0
+        if node.length is not None and self._symbolic(node.length, syms):
+            start = self._eventually(self.poly_of(node.length, syms, env), 0, main, start,
+                                     "the subscript of a q-Pochhammer symbol may be negative")
+        elif node.length is not None and self.ev.integer(node.length, env, "a subscript") < 0:
+            raise NoBound("a q-Pochhammer symbol with negative subscript")
+        for p in node.params:
+            if not self.ev.has_q(p):
+                if self._symbolic(p, syms) or self.ev.scalar(p, env) == 1:
+                    raise NoBound("a q-Pochhammer symbol (c;q)_n with c = 1 or varying")
+                continue
+            b = self.lower(p, main, syms, env, order)
+            start = self._eventually(b.poly, 1, main, max(start, b.start),
+                                     "a q-Pochhammer parameter without positive valuation")
+        return start
+
+    def _eventually(self, p: sym.MPoly, target: int, main: str, start: int, why: str) -> int:
+        """m from which p >= target: for a polynomial in ``main`` alone, from its growth; for
+        one involving inner variables, only if p - target has no negative coefficient."""
+        uni = sym.m_to_uni(p, main)
+        if uni is not None:
+            if sym.degree(uni) >= 1 and sym.leading(uni) > 0:
+                return max(start, sym.eventually_at_least(uni, target, 0))
+            if sym.degree(uni) <= 0 and (uni[0] if uni else 0) >= target:
+                return start
+            raise NoBound(why)
+        if sym.m_nonnegative(sym.m_sub(p, sym.m_const(target))):
+            return start
+        raise NoBound(why)
+
+    def deviation(self, node: Node, main: str, syms: dict[str, int], env: dict[str, int],
+                  order: int) -> Bound | None:
+        """A lower bound for val(node - 1); None when node is exactly 1."""
+        ev = self.ev
+        if not ev.has_q(node):
+            if not self._symbolic(node, syms) and ev.scalar(node, env) == 1:
+                return None
+            raise NoBound("a factor of the product is a number other than 1")
+        if isinstance(node, BinOp):
+            if node.op in "+-":
+                for one, other in ((node.left, node.right), (node.right, node.left)):
+                    if isinstance(one, Num) and one.value == 1 and \
+                            (node.op == "+" or one is node.left):
+                        return self.lower(other, main, syms, env, order)
+                raise NoBound(f"the factor at column {_pos(node)} is not of the form 1 +- X")
+            if node.op in "*/":
+                a = self.deviation(node.left, main, syms, env, order)
+                b = self.deviation(node.right, main, syms, env, order)
+                if a is None or b is None:
+                    return a or b
+                return min_bound(a, b, main)
+            if node.op == "^" and not ev.has_q(node.right):
+                return self.deviation(node.left, main, syms, env, order)
+        if isinstance(node, Poch):
+            self.poch_start(node, main, syms, env, order)
+            out = self.lower(node.params[0], main, syms, env, order)
+            for p in node.params[1:]:
+                out = min_bound(out, self.lower(p, main, syms, env, order), main)
+            return Bound(out.poly, False, out.start)
+        raise NoBound(f"no bound for the factor at column {_pos(node)}")
+
+
+def min_bound(a: Bound, b: Bound, main: str) -> Bound:
+    """A bound for the valuation of a sum of two terms with bounds a and b."""
+    start = max(a.start, b.start)
+    ua, ub = sym.m_to_uni(a.poly, main), sym.m_to_uni(b.poly, main)
+    if ua is None or ub is None:
+        return Bound(sym.m_min(a.poly, b.poly), False, start)
+    d = sym.psub(ua, ub)
+    if not d:
+        return Bound(a.poly, False, start)
+    if sym.leading(d) > 0:        # b is eventually the smaller
+        return Bound(b.poly, b.exact, max(start, sym.root_bound(d)))
+    return Bound(a.poly, a.exact, max(start, sym.root_bound(d)))
