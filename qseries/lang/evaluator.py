@@ -431,8 +431,8 @@ class Evaluator:
             for s_i, (f, p) in enumerate(stepping):
                 states[s_i] = self._step(f, p, states[s_i], prev_k, k, env, var, keep)
             prev_k = k
-            if need <= 0:
-                continue
+            # no term is skipped on the strength of its q-power alone: another factor may
+            # have a negative valuation (a regression test covers this)
             c = Fraction(sign)
             for f, p in scalars:
                 v = self.scalar(f, env_k)

@@ -132,3 +132,12 @@ def test_nested_infinite_sums_terminate_through_their_inner_bodies():
 def test_nested_sums_whose_inner_terms_do_not_grow_are_refused():
     with pytest.raises(QSeriesError):
         evaluate("sum_{a>=0} sum_{b>=0} q^(a - b)", 10)
+
+
+def test_terms_with_negative_valuation_factors_are_not_skipped():
+    # regression: the n = -4 term is q^66 (q^-12 - q^11); its q^54 must not be dropped at
+    # order 60 just because its q-power factor q^66 lies beyond the order
+    text = "sum_{n=-inf}^{inf} q^(3 (3n^2+n)/2) (q^(3 n) - q^(-(3n+1)))"
+    low, high = evaluate(text, 60), evaluate(text, 200)
+    assert low.coefficient_list(60) == high.coefficient_list(60)
+    assert low.coefficient(54) == 2

@@ -1,0 +1,246 @@
+"""Identity files: TOML, one ``[[identity]]`` table per entry, validated with file:line errors.
+
+Fields of an entry (our own names):
+
+=========== ==========================================================================
+key         identifier, lowercase letters, digits and dashes (required)
+title       one line (required)
+left        the left side, in the notation; may use family templates (required)
+right       the right side (required)
+order       default order N: coefficients below q^N are compared (required)
+source      authors, title, venue, year, equation or theorem; "from memory" where the
+            equation number is not known (required)
+tags        list of words for selection
+params      a family: ``{k = "2..6", i = "1..k"}``; each range may use earlier parameters
+expect      "holds" (default) or "fails": a printed form known to be wrong
+fails_at    with expect = "fails": the exponent of the first mismatch
+note        free text (what the misprint is, who corrected it)
+corrects    the key of the misprinted entry that this entry corrects
+=========== ==========================================================================
+
+>>> import tempfile, pathlib
+>>> d = pathlib.Path(tempfile.mkdtemp())
+>>> _ = (d / "x.toml").write_text('''
+... [[identity]]
+... key = "euler"
+... title = "Euler"
+... left = "(-q;q)_inf"
+... right = "1/(q;q^2)_inf"
+... order = 50
+... source = "L. Euler (1748), from memory"
+... ''')
+>>> [e.key for e in load_entries([d])]
+['euler']
+"""
+
+from __future__ import annotations
+
+import re
+import tomllib
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from ..errors import ParseError, QSeriesError
+from ..lang import parse
+from .templates import TemplateError, expand_template, integer_expression
+
+REQUIRED = ("key", "title", "left", "right", "order", "source")
+OPTIONAL = ("tags", "params", "expect", "fails_at", "note", "corrects")
+MAX_MEMBERS = 500
+MAX_ORDER = 100_000
+_KEY = re.compile(r"^[a-z0-9][a-z0-9-]*$")
+
+
+class IdentityFileError(QSeriesError):
+    """A malformed identity file; the message starts with ``file:line:``."""
+
+
+@dataclass(frozen=True)
+class Entry:
+    """One identity (a family member has its parameter values in ``params``)."""
+
+    key: str
+    title: str
+    left: str
+    right: str
+    order: int
+    source: str
+    path: str
+    line: int
+    tags: tuple[str, ...] = ()
+    params: tuple[tuple[str, int], ...] = ()
+    expect: str = "holds"
+    fails_at: int | str | None = None
+    note: str = ""
+    corrects: str = ""
+    family: str = field(default="")
+
+    @property
+    def ident(self) -> str:
+        """The key, with parameter values for a family member: ``andrews-gordon[k=3,i=1]``."""
+        if not self.params:
+            return self.key
+        return f"{self.key}[{','.join(f'{n}={v}' for n, v in self.params)}]"
+
+
+def _entry_lines(text: str) -> list[tuple[int, dict[str, int]]]:
+    """For each [[identity]] table: its header line and the line of each field."""
+    out: list[tuple[int, dict[str, int]]] = []
+    for number, raw in enumerate(text.splitlines(), start=1):
+        line = raw.strip()
+        if line == "[[identity]]":
+            out.append((number, {}))
+        elif out and "=" in line and not line.startswith("#"):
+            name = line.split("=", 1)[0].strip()
+            out[-1][1].setdefault(name, number)
+    return out
+
+
+def _ranges(spec: dict, where: str) -> list[dict[str, int]]:
+    """All parameter assignments of a family, in order."""
+    assignments: list[dict[str, int]] = [{}]
+    for name, rng in spec.items():
+        if not (isinstance(name, str) and name.isalpha() and name.isascii()):
+            raise IdentityFileError(f"{where}: parameter names are letters, not {name!r}")
+        if not isinstance(rng, str) or ".." not in rng:
+            raise IdentityFileError(f"{where}: parameter {name} needs a range such as \"1..k\"")
+        lo_text, hi_text = rng.split("..", 1)
+        nxt: list[dict[str, int]] = []
+        for a in assignments:
+            try:
+                lo = integer_expression(lo_text.strip(), a)
+                hi = integer_expression(hi_text.strip(), a)
+            except QSeriesError as err:
+                raise IdentityFileError(f"{where}: range of {name}: {err}") from None
+            nxt.extend({**a, name: v} for v in range(lo, hi + 1))
+            if len(nxt) > MAX_MEMBERS:
+                raise IdentityFileError(f"{where}: more than {MAX_MEMBERS} family members")
+        assignments = nxt
+    return assignments
+
+
+def _check_side(text: str, where: str) -> None:
+    try:
+        parse(text)
+    except ParseError as err:
+        raise IdentityFileError(f"{where}: {err}") from None
+
+
+def load_file(path: Path) -> list[Entry]:
+    """Entries of one identity file, families expanded, every side parsed."""
+    try:
+        text = path.read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError) as err:
+        raise IdentityFileError(f"{path}: cannot read: {err}") from None
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as err:
+        raise IdentityFileError(f"{path}: not valid TOML: {err}") from None
+    unknown_top = set(data) - {"identity"}
+    if unknown_top:
+        raise IdentityFileError(f"{path}:1: unknown top-level field(s) {sorted(unknown_top)}; "
+                                f"entries are [[identity]] tables")
+    tables = data.get("identity", [])
+    if not isinstance(tables, list):
+        raise IdentityFileError(f"{path}:1: 'identity' must be an array of tables")
+    lines = _entry_lines(text)
+    entries: list[Entry] = []
+    for idx, table in enumerate(tables):
+        header, field_lines = lines[idx] if idx < len(lines) else (1, {})
+
+        def at(name: str, header: int = header, field_lines: dict = field_lines) -> str:
+            return f"{path}:{field_lines.get(name, header)}"
+
+        for name in table:
+            if name not in REQUIRED and name not in OPTIONAL:
+                raise IdentityFileError(f"{at(name)}: unknown field {name!r} (known: "
+                                        f"{', '.join(REQUIRED + OPTIONAL)})")
+        for name in REQUIRED:
+            if name not in table:
+                raise IdentityFileError(f"{path}:{header}: missing field {name!r}")
+        for name in ("key", "title", "left", "right", "source"):
+            if not isinstance(table[name], str) or not table[name].strip():
+                raise IdentityFileError(f"{at(name)}: {name} must be a non-empty string")
+        if not _KEY.match(table["key"]):
+            raise IdentityFileError(f"{at('key')}: key {table['key']!r} must use lowercase "
+                                    f"letters, digits and dashes")
+        order = table["order"]
+        if isinstance(order, bool) or not isinstance(order, int) or not 1 <= order <= MAX_ORDER:
+            raise IdentityFileError(f"{at('order')}: order must be an integer from 1 to "
+                                    f"{MAX_ORDER}")
+        tags = table.get("tags", [])
+        if not isinstance(tags, list) or not all(isinstance(t, str) for t in tags):
+            raise IdentityFileError(f"{at('tags')}: tags must be a list of strings")
+        expect = table.get("expect", "holds")
+        if expect not in ("holds", "fails"):
+            raise IdentityFileError(f"{at('expect')}: expect must be \"holds\" or \"fails\"")
+        fails_at = table.get("fails_at")
+        if expect == "fails" and fails_at is None:
+            raise IdentityFileError(f"{at('expect')}: an entry expected to fail needs "
+                                    f"fails_at (the exponent of the first mismatch)")
+        if expect == "holds" and fails_at is not None:
+            raise IdentityFileError(f"{at('fails_at')}: fails_at goes with expect = \"fails\"")
+        for name in ("note", "corrects"):
+            if not isinstance(table.get(name, ""), str):
+                raise IdentityFileError(f"{at(name)}: {name} must be a string")
+        params = table.get("params")
+        if params is not None and not isinstance(params, dict):
+            raise IdentityFileError(f"{at('params')}: params must be a table of ranges")
+        assignments = _ranges(params, at("params")) if params else [{}]
+        for values in assignments:
+            sides = []
+            for name in ("left", "right"):
+                try:
+                    side = expand_template(table[name], values) if params else table[name]
+                except TemplateError as err:
+                    raise IdentityFileError(f"{at(name)}: {err}") from None
+                label = f"{at(name)}" + (f" (with {values})" if values else "")
+                _check_side(side, label)
+                sides.append(side)
+            entries.append(Entry(
+                key=table["key"], title=table["title"], left=sides[0], right=sides[1],
+                order=order, source=table["source"], path=str(path), line=header,
+                tags=tuple(tags), params=tuple(values.items()), expect=expect,
+                fails_at=fails_at, note=table.get("note", ""),
+                corrects=table.get("corrects", ""), family=table["key"] if params else ""))
+    return entries
+
+
+def identity_files(paths: list[Path]) -> list[Path]:
+    """The .toml files named, or found (recursively) in the folders named, in order."""
+    files: list[Path] = []
+    for p in paths:
+        if p.is_dir():
+            files.extend(sorted(p.rglob("*.toml")))
+        elif p.is_file():
+            files.append(p)
+        else:
+            raise IdentityFileError(f"{p}: no such file or folder")
+    return files
+
+
+def load_entries(paths: list[Path] | list[str]) -> list[Entry]:
+    """All entries of the given files and folders; keys must be unique across them."""
+    entries: list[Entry] = []
+    seen: dict[str, str] = {}
+    for f in identity_files([Path(p) for p in paths]):
+        for e in load_file(f):
+            if e.key in seen and seen[e.key] != f"{e.path}:{e.line}":
+                raise IdentityFileError(f"{e.path}:{e.line}: key {e.key!r} is already used at "
+                                        f"{seen[e.key]}")
+            seen[e.key] = f"{e.path}:{e.line}"
+            entries.append(e)
+    keys = {e.key for e in entries}
+    for e in entries:
+        if e.corrects and e.corrects not in keys:
+            raise IdentityFileError(f"{e.path}:{e.line}: corrects {e.corrects!r}, which is not "
+                                    f"an entry")
+    return entries
+
+
+def select(entries: list[Entry], wanted: list[str]) -> list[Entry]:
+    """Entries whose key, member id or a tag is in ``wanted`` (all when empty)."""
+    if not wanted:
+        return entries
+    w = set(wanted)
+    return [e for e in entries if e.key in w or e.ident in w or w & set(e.tags)]
