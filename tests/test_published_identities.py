@@ -126,7 +126,8 @@ def test_jacobi_four_square_theorem():
 def test_andrews_gordon_mod_7_as_a_double_sum(i):
     # Andrews-Gordon identities for k = 3 (G. E. Andrews, Proc. Nat. Acad. Sci. USA 71 (1974);
     # see Andrews, The Theory of Partitions (1976), ch. 7): with N1 = n1 + n2, N2 = n2,
-    # sum q^(N1^2 + N2^2 + N_i + ... + N_2) / ((q)_n1 (q)_n2) = (q^i, q^(7-i), q^7; q^7)_inf / (q)_inf
+    # sum q^(N1^2 + N2^2 + N_i + ... + N_2) / ((q)_n1 (q)_n2)
+    #   = (q^i, q^(7-i), q^7; q^7)_inf / (q)_inf
     linear = {1: "n1 + 2n2", 2: "n2", 3: "0"}[i]
     lhs = f"sum_{{n1>=0}} sum_{{n2>=0}} q^((n1+n2)^2 + n2^2 + {linear})/((q;q)_n1 (q;q)_n2)"
     rhs = f"(q^{i},q^{7 - i},q^7;q^7)_inf/(q;q)_inf"
