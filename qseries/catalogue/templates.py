@@ -31,6 +31,7 @@ class TemplateError(QSeriesError):
 
 
 _MAX_OUTPUT = 50_000
+_MAX_REPEAT = 200
 
 
 def integer_expression(text: str, values: dict[str, int]) -> int:
@@ -106,7 +107,14 @@ def expand_template(text: str, values: dict[str, int]) -> str:
             lo = integer_expression(lo_text.strip(), values)
             hi = integer_expression(hi_text.strip(), values)
             body = body.strip()
-            items = [expand_template(body, {**values, var: j}) for j in range(lo, hi + 1)]
+            if hi - lo + 1 > _MAX_REPEAT:
+                raise TemplateError(f"$repeat over {hi - lo + 1} values (at most {_MAX_REPEAT})",
+                                    i)
+            items = []
+            for j in range(lo, hi + 1):
+                items.append(expand_template(body, {**values, var: j}))
+                if sum(len(x) for x in items) > _MAX_OUTPUT:
+                    raise TemplateError("the expanded template is too long", i)
             out.append(sep.join(items) if sep.strip() == "" else f" {sep.strip()} ".join(items))
             i = close + 1
         elif text.startswith("$(", i):

@@ -9,11 +9,13 @@ from __future__ import annotations
 import json
 import sys
 from fractions import Fraction
+from pathlib import Path
 from typing import Annotated, Any
 
 import typer
 
 from ..analysis.compare import CheckResult, check
+from ..catalogue import SHIPPED, EntryResult, load_entries, select, verify_entries
 from ..errors import QSeriesError
 from ..lang import evaluate
 from ..lang.parser import NOTATION_FORMS
@@ -159,6 +161,143 @@ def demo() -> None:
         r: CheckResult = _guarded(check, case.lhs, case.rhs, case.order)
         _print_check(r, case.lhs, case.rhs)
         typer.echo("")
+
+
+PathsArgument = Annotated[list[Path] | None, typer.Argument(
+    help="Identity files (.toml) or folders; default: the shipped catalogue.",
+    show_default=False)]
+
+
+def _load(paths: list[Path] | None, only: list[str]) -> list:
+    entries = _guarded(load_entries, paths or [SHIPPED])
+    chosen = select(entries, only)
+    if not chosen:
+        _fail(f"no entry matches {', '.join(only)}")
+    return chosen
+
+
+@app.command()
+def verify(
+    paths: PathsArgument = None,
+    order: Annotated[int | None, typer.Option(
+        "--order", "-n", min=1, max=MAX_LENGTH,
+        help="Override every entry's default order.")] = None,
+    jobs: Annotated[int | None, typer.Option(
+        "--jobs", "-j", min=1, help="Worker processes (default: all cores).")] = None,
+    only: Annotated[list[str] | None, typer.Option(
+        "--only", help="Run only entries with this key, member id or tag (repeatable).")] = None,
+    as_json: JsonOption = False,
+) -> None:
+    """Verify every identity of the given files; exit 0 when every entry behaves as its file
+    says (holds, or fails exactly where it is recorded to fail), 1 otherwise, 2 for
+    malformed files.
+
+    Example: qseries verify identities --only rogers-ramanujan -n 1000
+    """
+    import time
+
+    from rich.console import Console
+    from rich.progress import Progress
+    from rich.table import Table
+
+    entries = _load(paths, only or [])
+    t0 = time.perf_counter()
+    console = Console()
+    show_bar = console.is_terminal and not as_json
+    try:
+        if show_bar:
+            with Progress(console=console, transient=True) as bar:
+                task = bar.add_task("verifying", total=len(entries))
+                results = verify_entries(entries, order, jobs,
+                                         progress=lambda _r: bar.advance(task))
+        else:
+            results = verify_entries(entries, order, jobs)
+    except KeyboardInterrupt:
+        typer.echo("qseries: interrupted", err=True)
+        raise typer.Exit(130) from None
+    elapsed = time.perf_counter() - t0
+    n_ok = sum(r.ok for r in results)
+    n_err = sum(bool(r.error) for r in results)
+    if as_json:
+        typer.echo(json.dumps({
+            "results": [_result_json(r) for r in results],
+            "summary": {"entries": len(results), "ok": n_ok, "not_ok": len(results) - n_ok,
+                        "errors": n_err, "seconds": round(elapsed, 3)},
+        }))
+    else:
+        table = Table(title=None, show_lines=False)
+        for col in ("identifier", "verdict", "order", "seconds", "first mismatch"):
+            table.add_column(col)
+        by_ident = {e.ident: e for e in entries}
+        for r in results:
+            entry = by_ident[r.ident]
+            table.add_row(r.ident, _verdict_text(r, entry.expect), _exp_text(r.order),
+                          f"{r.seconds:.2f}", _mismatch_text(r))
+        console.print(table)
+        console.print(f"{n_ok} of {len(results)} entries behave as recorded "
+                      f"({elapsed:.1f} s); agreement to O(q^N) is evidence, not a proof")
+    raise typer.Exit(0 if n_ok == len(results) else 1)
+
+
+def _exp_text(e: int | Fraction) -> str:
+    return str(_exp_json(e))
+
+
+def _verdict_text(r: EntryResult, expect: str) -> str:
+    if r.error:
+        return "ERROR " + r.error.splitlines()[0]
+    if expect == "fails":
+        return "fails as recorded" if r.ok else "NOT AS RECORDED"
+    return "holds" if r.ok else "FAILS"
+
+
+def _mismatch_text(r: EntryResult) -> str:
+    m = r.first_mismatch
+    if not m:
+        return ""
+    return f"q^{m['index']}: {m['lhs']} vs {m['rhs']}"
+
+
+def _result_json(r: EntryResult) -> dict:
+    out: dict[str, Any] = {"id": r.ident, "holds": r.holds, "ok": r.ok,
+                           "order": _exp_json(r.order), "first_mismatch": r.first_mismatch,
+                           "seconds": round(r.seconds, 6)}
+    if r.error:
+        out["error"] = r.error
+    return out
+
+
+@app.command(name="list")
+def list_cmd(
+    paths: PathsArgument = None,
+    as_json: JsonOption = False,
+) -> None:
+    """List the identities of the given files (identifier, members, title, source) without
+    running them.
+
+    Example: qseries list identities
+    """
+    entries = _load(paths, [])
+    rows: dict[str, dict[str, Any]] = {}
+    for e in entries:
+        row = rows.setdefault(e.key, {"id": e.key, "members": 0, "title": e.title,
+                                      "source": e.source, "tags": list(e.tags),
+                                      "expect": e.expect, "file": f"{e.path}:{e.line}"})
+        row["members"] += 1
+    if as_json:
+        typer.echo(json.dumps({"identities": list(rows.values())}))
+        return
+    from rich.console import Console
+    from rich.table import Table
+
+    table = Table()
+    for col in ("identifier", "members", "title", "source"):
+        table.add_column(col, overflow="fold")
+    for row in rows.values():
+        table.add_row(row["id"], str(row["members"]), row["title"], row["source"])
+    console = Console()
+    console.print(table)
+    console.print(f"{len(rows)} entries, {len(entries)} identities counting family members")
 
 
 def run() -> None:

@@ -112,3 +112,46 @@ def test_module_entry_point_and_real_process_exit_codes():
     bad = subprocess.run([sys.executable, "-m", "qseries", "expand", "q +"],
                          capture_output=True, text=True)
     assert bad.returncode == 2 and "Traceback" not in bad.stderr and "column" in bad.stderr
+
+
+def test_verify_shipped_catalogue_subset_and_json():
+    r = run("verify", "--only", "rogers-ramanujan", "--json", "-j", "1")
+    assert r.exit_code == 0, r.output
+    data = json.loads(r.stdout)
+    ids = [x["id"] for x in data["results"]]
+    assert "rogers-ramanujan-1" in ids and "andrews-gordon[k=3,i=2]" in ids
+    first = data["results"][0]
+    assert set(first) == {"id", "holds", "ok", "order", "first_mismatch", "seconds"}
+    assert data["summary"]["ok"] == len(ids)
+
+
+def test_verify_catches_an_altered_copy(tmp_path):
+    from qseries.catalogue import SHIPPED
+    text = (SHIPPED / "rogers_ramanujan.toml").read_text()
+    altered = text.replace('right = "1/((q;q^5)_inf (q^4;q^5)_inf)"',
+                           'right = "1/((q;q^5)_inf (q^4;q^6)_inf)"')
+    assert altered != text
+    (tmp_path / "copy.toml").write_text(altered)
+    r = run("verify", str(tmp_path), "--only", "rogers-ramanujan-1", "-j", "1")
+    assert r.exit_code == 1
+    assert "FAILS" in r.stdout and "q^9" in r.stdout
+
+
+def test_verify_malformed_file_exits_2_with_file_and_line(tmp_path):
+    bad = tmp_path / "bad.toml"
+    bad.write_text('[[identity]]\nkey = "x"\ntitle = "t"\nleft = "q"\nright = "q"\n'
+                   'order = 10\nsource = "s"\nauthor = "me"\n')
+    r = run("verify", str(bad))
+    assert r.exit_code == 2
+    assert f"{bad}:8:" in r.stderr and "unknown field 'author'" in r.stderr
+
+
+def test_list_shows_identifiers_and_sources():
+    r = run("list", "--json")
+    assert r.exit_code == 0
+    rows = json.loads(r.stdout)["identities"]
+    keys = {row["id"] for row in rows}
+    assert {"rogers-ramanujan-1", "andrews-gordon", "jacobi-cube"} <= keys
+    assert all(row["source"] for row in rows)
+    ag = next(row for row in rows if row["id"] == "andrews-gordon")
+    assert ag["members"] == 2 + 3 + 4 + 5

@@ -1,0 +1,44 @@
+"""The user-facing test helpers: assert_identity and the hypothesis strategies."""
+
+import re
+
+import pytest
+from hypothesis import given, settings
+
+from qseries import evaluate
+from qseries.testing import assert_identity
+from qseries.testing.strategies import catalogue_entries, family_members, q_products
+
+
+def test_assert_identity_passes_and_fails_readably():
+    assert_identity("sum_{k>=0} q^(k^2)/(q;q)_k", "1/((q;q^5)_inf (q^4;q^5)_inf)", order=200)
+    with pytest.raises(AssertionError) as info:
+        assert_identity("1/(q;q)_inf", "1/(q;q)_inf + q^30", order=40)
+    text = str(info.value)
+    assert "first at q^30" in text and "exponent" in text and "5604" in text  # p(30) = 5604
+
+
+def test_assert_identity_refuses_reduced_precision():
+    with pytest.raises(AssertionError, match=re.escape("only the coefficients below q^7")):
+        assert_identity("q^-3 (1/(1-q) + O(q^10))", "q^-3/(1-q)", order=20)
+
+
+@settings(max_examples=10, deadline=None)
+@given(family_members("andrews-gordon"))
+def test_andrews_gordon_members_hold(entry):
+    assert_identity(entry.left, entry.right, order=60)
+
+
+@settings(max_examples=10, deadline=None)
+@given(catalogue_entries())
+def test_random_catalogue_entries_hold_at_low_order(entry):
+    assert_identity(entry.left, entry.right, order=40)
+
+
+@settings(max_examples=20, deadline=None)
+@given(q_products(), q_products())
+def test_products_multiply_by_concatenation(a, b):
+    # a property a user might write: the product of two q-products is their juxtaposition
+    n = 30
+    assert (evaluate(a, n) * evaluate(b, n)).coefficient_list(n) == \
+        evaluate(f"{a} {b}", n).coefficient_list(n)
