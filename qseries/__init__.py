@@ -13,7 +13,7 @@ compare.  Agreement to O(q^N) is evidence, not a proof.
 """
 
 from ._flint import GF, QQ, ZZ
-from .analysis import CheckResult, Mismatch, check
+from .analysis import CheckResult, Mismatch, ProductForm, check, diagnose, product_form
 from .errors import DomainError, IncompatibleRingError, ParseError, QSeriesError, UnableError
 from .lang import evaluate, parse, show
 from .series import Series
@@ -22,5 +22,6 @@ __version__ = "0.1.0"
 
 __all__ = [
     "CheckResult", "DomainError", "GF", "IncompatibleRingError", "Mismatch", "ParseError",
-    "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check", "evaluate", "parse", "show",
+    "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose",
+    "evaluate", "parse", "product_form", "show",
 ]

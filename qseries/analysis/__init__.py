@@ -1,4 +1,5 @@
-"""Analyses on computed series: comparing the two sides of an identity.
+"""Analyses on computed series: comparing the two sides of an identity, recovering product
+forms, and diagnosing failed checks.
 
 >>> from qseries.analysis import check
 >>> check("(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)", order=300).holds
@@ -6,5 +7,8 @@ True
 """
 
 from .compare import CheckResult, Mismatch, check, compare_series
+from .diagnose import Hint, diagnose
+from .product_form import ProductForm, product_form
 
-__all__ = ["CheckResult", "Mismatch", "check", "compare_series"]
+__all__ = ["CheckResult", "Hint", "Mismatch", "ProductForm", "check", "compare_series",
+           "diagnose", "product_form"]

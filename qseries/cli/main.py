@@ -14,6 +14,7 @@ from typing import Annotated, Any
 
 import typer
 
+from ..analysis import diagnose, product_form
 from ..analysis.compare import CheckResult, check
 from ..catalogue import SHIPPED, EntryResult, load_entries, select, verify_entries
 from ..errors import QSeriesError
@@ -105,6 +106,8 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
         widths = [max(len(row[i]) for row in rows) for i in range(4)]
         for row in rows:
             typer.echo("  " + "  ".join(cell.rjust(w) for cell, w in zip(row, widths, strict=True)))
+    for hint in diagnose(r):
+        typer.echo(f"  hint ({hint.kind}): {hint.message}")
     if r.order_verified != r.order_requested:
         typer.echo(f"note: negative powers cost precision: only the coefficients below "
                    f"q^{r.order_verified} could be compared, not q^{r.order_requested}")
@@ -132,10 +135,52 @@ def check_cmd(
                 "index": _exp_json(m.exponent), "lhs": _num_text(m.lhs),
                 "rhs": _num_text(m.rhs)},
             "seconds": round(r.seconds, 6),
+            "hints": [{"kind": h.kind, "message": h.message} for h in diagnose(r)],
         }))
     else:
         _print_check(r, lhs, rhs)
     raise typer.Exit(0 if r.holds else 1)
+
+
+@app.command()
+def product(
+    expr: Annotated[str, typer.Argument(help="The series, e.g. a sum side.")],
+    order: OrderOption = 100,
+    as_json: JsonOption = False,
+) -> None:
+    """Find c, s and integers e_n with EXPR = c q^s prod_{n>=1} (1-q^n)^(e_n) + O(q^N); print
+    the product in the notation (periodic exponents as (q^a;q^m)_inf powers, and as an eta
+    quotient when there is one).  Exit 1 when there is no such product form.
+
+    Example: qseries product "sum_{k>=0} q^(k^2)/(q;q)_k" --order 200
+    """
+    try:
+        pf = product_form(_guarded(evaluate, expr, order), order)
+    except QSeriesError as err:
+        if as_json:
+            typer.echo(json.dumps({"order": order, "product_form": False, "reason": str(err)}))
+        else:
+            typer.echo(f"no product form: {err}")
+        raise typer.Exit(1) from None
+    if as_json:
+        out = {"order": _exp_json(pf.order), "constant": _num_text(pf.constant),
+               "shift": _exp_json(pf.shift), "exponents": pf.exponents, "period": pf.period,
+               "repetitions": pf.repetitions, "expression": pf.expression, "eta": pf.eta}
+        if pf.expression is None:
+            out["reason"] = pf.reason
+        typer.echo(json.dumps(out))
+        raise typer.Exit(0 if pf.expression is not None else 1)
+    if pf.expression is None:
+        typer.echo(f"no product form of this kind to this order: {pf.reason}")
+        raise typer.Exit(1)
+    typer.echo(pf.expression + f" + O(q^{_exp_json(pf.order)})")
+    if pf.period:
+        typer.echo(f"  the exponents repeat with period {pf.period} ({pf.repetitions} full "
+                   f"periods below q^{_exp_json(pf.order)})")
+    else:
+        typer.echo("  no period in the exponents below the order; the product is finite")
+    if pf.eta:
+        typer.echo(f"  as an eta quotient: {pf.eta}")
 
 
 @app.command()

@@ -53,7 +53,7 @@ def test_check_json_shape():
     r = run("check", RR1[0], RR1[1] + " - q^150", "--order", "151", "--json")
     assert r.exit_code == 1
     data = json.loads(r.stdout)
-    assert set(data) == {"holds", "order", "first_mismatch", "seconds"}
+    assert set(data) == {"holds", "order", "first_mismatch", "seconds", "hints"}
     assert data["holds"] is False and data["order"] == 151
     fm = data["first_mismatch"]
     assert fm["index"] == 150 and int(fm["lhs"]) - int(fm["rhs"]) == 1
@@ -155,3 +155,23 @@ def test_list_shows_identifiers_and_sources():
     assert all(row["source"] for row in rows)
     ag = next(row for row in rows if row["id"] == "andrews-gordon")
     assert ag["members"] == 2 + 3 + 4 + 5
+
+
+def test_product_command():
+    r = run("product", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "200", "--json")
+    assert r.exit_code == 0
+    data = json.loads(r.stdout)
+    assert data["period"] == 5 and data["expression"] == "(q, q^4;q^5)_inf^-1"
+    assert data["exponents"][:5] == [-1, 0, 0, -1, 0] and len(data["exponents"]) == 199
+    assert data["constant"] == "1" and data["shift"] == 0
+    # the printed form round-trips through check
+    assert run("check", "sum_{k>=0} q^(k^2)/(q;q)_k", data["expression"], "-n", "200"
+               ).exit_code == 0
+    r = run("product", "1 + 2q", "-n", "30")
+    assert r.exit_code == 1 and "no product form" in r.stdout
+    assert run("product", "1/(q", "-n", "30").exit_code == 2
+
+
+def test_check_prints_hints_at_a_mismatch():
+    r = run("check", "(-q;q)_inf", "1/(q^2;q^4)_inf", "-n", "100")
+    assert r.exit_code == 1 and "hint (dilation)" in r.stdout

@@ -1,0 +1,225 @@
+"""Recover the infinite-product form of a series: f = c q^s prod_{n>=1} (1 - q^n)^(e_n).
+
+Method (G. E. Andrews, q-Series, CBMS 66, AMS 1986; Bernstein and Sloane, Linear Algebra
+Appl. 226-228 (1995)): normalise g = f/(c q^s) = 1 + ..., compute the logarithmic derivative
+q g'/g = sum_n C_n q^n, where C_n = -sum_{d|n} d e_d, and recover n e_n = -sum_{d|n}
+mu(n/d) C_d by Moebius inversion.  Everything is exact.  Periodic exponents
+(e_{n+m} = e_n) are printed as powers of (q^r;q^m)_inf, and as an eta quotient where e_n
+depends only on gcd(n, m).
+
+>>> pf = product_form("sum_{k>=0} q^(k^2)/(q;q)_k", 60)
+>>> pf.period, pf.expression
+(5, '(q, q^4;q^5)_inf^-1')
+>>> product_form("(q;q)_inf^3", 40).eta
+'eta(q)^3 q^(-1/8)'
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+
+from ..errors import DomainError
+from ..lang import Node, evaluate
+from ..series import QQ, ZZ, Ring, Series
+from ..series.formatting import format_exponent
+
+Number = int | Fraction
+Exponent = int | Fraction
+
+#: a period must repeat at least this many times below the order to be reported
+MIN_REPETITIONS = 3
+
+
+@dataclass(frozen=True)
+class ProductForm:
+    """f = constant * q^shift * prod_{n=1}^{len(exponents)} (1 - q^n)^exponents[n-1]
+    + O(q^order); ``period`` (with ``repetitions``) when the exponents repeat.
+
+    ``expression`` is the product in the notation when it is recognisable: periodic
+    exponents, or finitely many non-zero exponents (all in the lower half of the range
+    computed).  Otherwise it is None and ``reason`` says why; every series 1 + O(q) with
+    integer coefficients has integer exponents, so only such a pattern makes a product form.
+    """
+
+    order: Exponent
+    constant: Number
+    shift: Exponent
+    exponents: list[int]
+    period: int | None
+    repetitions: int
+    expression: str | None
+    eta: str | None
+    #: why there is no recognisable product (``expression`` is then None)
+    reason: str = ""
+
+    def nonzero(self) -> list[tuple[int, int]]:
+        """(n, e_n) for the nonzero exponents."""
+        return [(n, e) for n, e in enumerate(self.exponents, start=1) if e]
+
+
+def mobius_table(n: int) -> list[int]:
+    """mu(0..n-1) by a linear sieve (mu(0) unused).
+
+    >>> mobius_table(11)[1:]
+    [1, -1, -1, 0, -1, 1, -1, 0, 0, 1]
+    """
+    mu = [1] * max(n, 2)
+    mu[0] = 0
+    is_comp = [False] * max(n, 2)
+    primes: list[int] = []
+    for i in range(2, n):
+        if not is_comp[i]:
+            primes.append(i)
+            mu[i] = -1
+        for p in primes:
+            if i * p >= n:
+                break
+            is_comp[i * p] = True
+            if i % p == 0:
+                mu[i * p] = 0
+                break
+            mu[i * p] = -mu[i]
+    return mu[:n]
+
+
+def exponents_of(g: Series, length: int) -> list[Fraction]:
+    """e_1..e_(length-1) with g = prod (1 - q^n)^(e_n) + O(q^length), for g = 1 + O(q)."""
+    if length <= 1:
+        return []
+    ring: Ring = QQ if g.ring == QQ else ZZ
+    coeffs = g.coefficient_list(length)
+    dq = Series.from_coefficients([i * c for i, c in enumerate(coeffs)], ring, prec=length)
+    log_der = dq * g.truncate(length).inverse(order=length)
+    big_c = [Fraction(c) for c in log_der.coefficient_list(length)]
+    mu = mobius_table(length)
+    out = [Fraction(0)] * length
+    # n e_n = -sum_{d | n} mu(n/d) C_d, accumulated over multiples
+    for d in range(1, length):
+        cd = big_c[d]
+        if cd:
+            for n in range(d, length, d):
+                m = mu[n // d]
+                if m:
+                    out[n] -= m * cd
+    return [out[n] / n for n in range(1, length)]
+
+
+def find_period(ex: list[int], min_repetitions: int = MIN_REPETITIONS) -> int | None:
+    """The least m with e_{n+m} = e_n for every known n, seen at least ``min_repetitions``
+    times.
+
+    >>> find_period([1, 0, 0, 1, 1, 0, 0, 1, 1, 0, 0, 1])
+    4
+    """
+    n = len(ex)
+    for m in range(1, n // min_repetitions + 1):
+        if all(ex[i] == ex[i + m] for i in range(n - m)):
+            return m
+    return None
+
+
+def _power(e: int) -> str:
+    return "" if e == 1 else f"^{e}"
+
+
+def _q(e: Exponent) -> str:
+    return format_exponent(e)
+
+
+def periodic_expression(period: int, ex: list[int]) -> str:
+    """prod_r (q^r;q^m)_inf^(e_r), grouping residues with equal exponents.
+
+    >>> periodic_expression(5, [-1, 0, 0, -1, 0])
+    '(q, q^4;q^5)_inf^-1'
+    """
+    groups: dict[int, list[int]] = {}
+    for r in range(1, period + 1):
+        e = ex[r - 1]
+        if e:
+            groups.setdefault(e, []).append(r)
+    parts = []
+    for e, rs in sorted(groups.items(), key=lambda t: (-t[0], t[1])):
+        params = ", ".join(_q(r) for r in rs)
+        parts.append(f"({params};{_q(period)})_inf{_power(e)}")
+    return " ".join(parts) if parts else "1"
+
+
+def eta_quotient(period: int, ex: list[int]) -> tuple[dict[int, int], Fraction] | None:
+    """(r_d, weight shift) with prod_{d|m} (q^d;q^d)_inf^(r_d) = prod (1-q^n)^(e_n), when e_n
+    depends only on gcd(n, m); the shift sum d r_d / 24 makes it prod eta(d tau)^(r_d)."""
+    from math import gcd
+
+    m = period
+    by_gcd: dict[int, int] = {}
+    for n in range(1, m + 1):
+        g = gcd(n, m)
+        if by_gcd.setdefault(g, ex[n - 1]) != ex[n - 1]:
+            return None
+    divisors = [d for d in range(1, m + 1) if m % d == 0]
+    mu = mobius_table(m + 1)
+    r = {}
+    for d in divisors:
+        val = sum(mu[d // g] * by_gcd[g] for g in divisors if d % g == 0)
+        if val:
+            r[d] = val
+    return r, Fraction(sum(d * v for d, v in r.items()), 24)
+
+
+def _constant_text(c: Number) -> str:
+    if c == 1:
+        return ""
+    if c == -1:
+        return "-"
+    return f"({c}) " if isinstance(c, Fraction) and c.denominator != 1 else f"{c} "
+
+
+def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
+    """The product form of a series (or an expression evaluated to ``order``).
+
+    Raises DomainError when the series is zero to this order or its exponents are not all
+    integers ("no product form of this kind to this order").
+    """
+    f = expr if isinstance(expr, Series) else evaluate(expr, order)
+    v = f.valuation
+    if v is None:
+        raise DomainError("the series vanishes to this order; it has no product form")
+    c = f.coefficient(v)
+    g = f * Series.monomial(-Fraction(v), f.ring)
+    if c != 1:
+        g = g * (Fraction(1) / Fraction(c))
+    known = g.precision
+    length = int(known) if known is not None else order
+    ex = exponents_of(g, length)
+    for n, e in enumerate(ex, start=1):
+        if e.denominator != 1:
+            raise DomainError(f"no product form prod (1-q^n)^(e_n) with integer exponents to "
+                              f"this order: the exponent of (1-q^{n}) would be {e}")
+    ints = [int(e) for e in ex]
+    period = find_period(ints) if ints else None
+    reps = len(ints) // period if period else 0
+    prefix = _constant_text(c) + ("" if v == 0 else f"{_q(v)} ")
+    eta_text = None
+    if period:
+        body = periodic_expression(period, ints[:period])
+        eq = eta_quotient(period, ints[:period])
+        if eq is not None:
+            r, w = eq
+            etas = " ".join(f"eta({_q(d)}){_power(e)}" for d, e in sorted(r.items())) or "1"
+            rest = Fraction(v) - w
+            eta_text = f"{_constant_text(c)}{etas}" + ("" if rest == 0 else f" {_q(rest)}")
+    else:
+        nonzero = [(n, e) for n, e in enumerate(ints, 1) if e]
+        if nonzero and nonzero[-1][0] * 2 > len(ints) + 1:
+            # exponents still non-zero in the upper half: neither periodic nor a finite
+            # product that the computed terms can show
+            big = max(nonzero, key=lambda t: abs(t[1]))
+            return ProductForm(known if known is not None else order, c, v, ints, None, 0,
+                               None, None, f"the exponents show no period and do not end "
+                                           f"below the order (e_{big[0]} = {big[1]})")
+        body = " ".join(f"(1 - {_q(n)}){_power(e)}" for n, e in nonzero) or "1"
+    expression = (prefix + body).strip() if body != "1" or not prefix else prefix.strip()
+    if expression in ("", "-"):
+        expression += "1"
+    return ProductForm(known if known is not None else order, c, v, ints, period, reps,
+                       expression, eta_text)

@@ -1,0 +1,51 @@
+"""Each diagnosis kind, exercised by a deliberately broken published identity."""
+
+from qseries import check
+from qseries.analysis.diagnose import diagnose
+
+RR2_SUM = "sum_{k>=0} q^(k^2+k)/(q;q)_k"
+RR2_PRODUCT = "1/((q^2;q^5)_inf (q^3;q^5)_inf)"   # second Rogers-Ramanujan identity
+
+
+def kinds(lhs, rhs, order=200):
+    return [h.kind for h in diagnose(check(lhs, rhs, order=order))]
+
+
+def test_power_of_q():
+    assert kinds(RR2_SUM, f"q^2 {RR2_PRODUCT}") == ["shift"]
+
+
+def test_sign_and_constant():
+    # Jacobi's identity with a wrong sign, and with a stray factor 2
+    assert kinds("(q;q)_inf^3", "-sum_{n>=0} (-1)^n (2n+1) q^(n(n+1)/2)") == ["constant"]
+    assert kinds("2 (q;q)_inf^3", "sum_{n>=0} (-1)^n (2n+1) q^(n(n+1)/2)") == ["constant"]
+
+
+def test_dilation():
+    # Euler's (-q;q)_inf = 1/(q;q^2)_inf, misprinted with q^2 for q on the right
+    assert kinds("(-q;q)_inf", "1/(q^2;q^4)_inf") == ["dilation"]
+
+
+def test_missing_product_factor():
+    assert kinds(RR2_SUM, f"{RR2_PRODUCT} / (q^20;q^20)_inf") == ["product-factor"]
+    assert kinds(RR2_SUM, f"{RR2_PRODUCT} (1 - q^4)") == ["product-factor"]
+
+
+def test_finitely_many_terms():
+    # the Durfee square identity with two planted terms
+    r = check("1/(q;q)_inf", "sum_{k>=0} q^(k^2)/(q;q)_k^2 + q^11 - 2q^40", order=200)
+    hints = diagnose(r)
+    assert [h.kind for h in hints] == ["polynomial"]
+    assert "-q^11 + 2q^40" in hints[0].message
+
+
+def test_no_hint_when_it_holds_or_nothing_fits():
+    assert diagnose(check(RR2_SUM, RR2_PRODUCT, order=100)) == []
+    assert kinds("1/(q;q)_inf", "1/(q;q)_inf + sum_{n>=1} q^(n^2)") == []
+
+
+def test_swapped_rogers_ramanujan_sides_show_the_ratio():
+    r = check("sum_{k>=0} q^(k^2)/(q;q)_k", RR2_PRODUCT, order=200)
+    (hint,) = diagnose(r)
+    assert hint.kind == "product-factor"
+    assert "(q^2, q^3;q^5)_inf (q, q^4;q^5)_inf^-1" in hint.message

@@ -1,0 +1,70 @@
+"""Product-form recovery against published product sides, with sources named."""
+
+import pytest
+
+from qseries import check
+from qseries.analysis.product_form import find_period, mobius_table, product_form
+from qseries.errors import DomainError
+
+
+def test_rogers_ramanujan_sum_sides_give_their_products():
+    # L. J. Rogers (1894); Andrews, The Theory of Partitions (1976), ch. 7
+    pf = product_form("sum_{k>=0} q^(k^2)/(q;q)_k", 300)
+    assert pf.period == 5 and pf.exponents[:5] == [-1, 0, 0, -1, 0]
+    assert pf.expression == "(q, q^4;q^5)_inf^-1"
+    assert pf.repetitions == 59
+    pf2 = product_form("sum_{k>=0} q^(k^2+k)/(q;q)_k", 300)
+    assert pf2.expression == "(q^2, q^3;q^5)_inf^-1"
+
+
+def test_goellnitz_gordon_sum_side():
+    # B. Gordon, Duke Math. J. 32 (1965); H. Goellnitz (1967)
+    pf = product_form("sum_{n>=0} q^(n^2) (-q;q^2)_n/(q^2;q^2)_n", 200)
+    assert pf.period == 8
+    assert pf.expression == "(q, q^4, q^7;q^8)_inf^-1"
+
+
+def test_euler_and_jacobi():
+    # Euler: (-q;q)_inf = 1/(q;q^2)_inf, exponent -1 at odd n
+    pf = product_form("(-q;q)_inf", 100)
+    assert all(e == (-1 if n % 2 else 0) for n, e in enumerate(pf.exponents, 1))
+    # (q;q)_inf^3 (Jacobi's product side) has exponent 3 everywhere
+    assert set(product_form("(q;q)_inf^3", 100).exponents) == {3}
+
+
+def test_eta_quotient_of_theta4():
+    # Gauss: theta4(q) = (q;q)_inf/(-q;q)_inf = eta(tau)^2/eta(2 tau)
+    pf = product_form("theta4(q)", 120)
+    assert pf.eta == "eta(q)^2 eta(q^2)^-1"
+
+
+@pytest.mark.parametrize("expr", [
+    "sum_{k>=0} q^(k^2)/(q;q)_k^2",
+    "theta3(q)",
+    "2 q^3 (q;q^2)_inf",
+    "-q^2 (q^2;q^7)_inf^2 (q^5;q^7)_inf^-1",
+    "eta(q)^3/eta(q^2)",
+    "(1-q)(1-q^3)^2",
+])
+def test_printed_forms_round_trip(expr):
+    pf = product_form(expr, 150)
+    assert check(expr, pf.expression, order=150).holds
+    if pf.eta:
+        assert check(expr, pf.eta, order=150).holds
+
+
+def test_series_without_such_a_product_form():
+    # every 1 + O(q) integer series has integer exponents; 1 + 2q has no pattern in them
+    pf = product_form("1 + 2q", 60)
+    assert pf.expression is None and "no period" in pf.reason
+    with pytest.raises(DomainError, match="integer exponents"):
+        product_form("2 + q", 20)
+    with pytest.raises(DomainError, match="vanishes"):
+        product_form("O(q^5)", 20)
+
+
+def test_helpers():
+    # Moebius function, OEIS A008683 (from memory): 1, -1, -1, 0, -1, 1, -1, 0, 0, 1
+    assert mobius_table(11)[1:] == [1, -1, -1, 0, -1, 1, -1, 0, 0, 1]
+    assert find_period([0, 1, 0, 1, 0]) is None or find_period([0, 1, 0, 1, 0]) == 2
+    assert find_period([1, 2, 3, 4]) is None
