@@ -161,17 +161,27 @@ class Ring:
 
     def binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
         """p * (1 - c q^j), truncated to length n when n is not None; O(length) work."""
-        r = p - self.shift_up(p, j) * self.coerce(c)
-        return r if n is None else r.truncate(max(n, 0))
+        if n is not None:
+            p = p.truncate(max(n, 0))
+            shifted = self.shift_up(p.truncate(max(n - j, 0)), j)
+        else:
+            shifted = self.shift_up(p, j)
+        if c == 1:
+            return p - shifted
+        if c == -1:
+            return p + shifted
+        return p - shifted * self.coerce(c)
 
     def binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
         """p / (1 - c q^j) modulo q^n for j >= 1, by the doubling
         1/(1-x) = (1+x)(1+x^2)(1+x^4)...; each step is a shift and an add."""
         p = p.truncate(max(n, 0))
         cc = self.coerce(c)
+        one = self.coerce(1)
         step = j
         while step < n and cc != 0:
-            p = (p + self.shift_up(p, step) * cc).truncate(n)
+            shifted = self.shift_up(p.truncate(n - step), step)
+            p = p + shifted if cc == one else p + shifted * cc
             step *= 2
             cc = cc * cc
         return p
@@ -286,15 +296,21 @@ class _ModularRing(Ring):
         return p * int(self.coerce(c))
 
     def binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
-        r = p - self.shift_up(p, j) * int(self.coerce(c))
-        return r if n is None else r.truncate(max(n, 0))
+        if n is not None:
+            p = p.truncate(max(n, 0))
+            shifted = self.shift_up(p.truncate(max(n - j, 0)), j)
+        else:
+            shifted = self.shift_up(p, j)
+        cc = int(self.coerce(c))
+        return p - shifted if cc == 1 else p - shifted * cc
 
     def binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
         p = p.truncate(max(n, 0))
         cc = int(self.coerce(c))
         step = j
         while step < n and cc != 0:
-            p = (p + self.shift_up(p, step) * cc).truncate(n)
+            shifted = self.shift_up(p.truncate(n - step), step)
+            p = p + shifted if cc == 1 else p + shifted * cc
             step *= 2
             cc = cc * cc % self.p
         return p

@@ -18,7 +18,7 @@ from __future__ import annotations
 from fractions import Fraction
 
 from ..errors import DomainError, QSeriesError, UnableError
-from ..products import FUNCTIONS, monomial_parts, pochhammer
+from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
 from ..series import MAX_LENGTH, ZZ, Ring, Series
 from . import symbolic as sym
 from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, free_names, mentions_q
@@ -53,7 +53,7 @@ class Evaluator:
         #: use the ratio of consecutive terms for q-Pochhammer factors of sums (the fast
         #: path); False evaluates every term from scratch (the reference path for tests)
         self.stepping = stepping
-        self._cache: dict[tuple[int, int], Value] = {}
+        self._cache: dict[tuple, Value] = {}
         self._free: dict[int, frozenset[str]] = {}
         self._hasq: dict[int, bool] = {}
         self.bounds = TermBounds(self)
@@ -263,11 +263,67 @@ class Evaluator:
             acc = acc * coeff
         return acc.shift(shift).truncate(order) if shift else acc
 
+    def _poch_atoms(self, node: Node, env: dict[str, int]) -> list[tuple[int, int]] | None:
+        """[(a, m), ...] when node is (q^a1, q^a2, ...; q^m)_inf with positive integer a_i."""
+        if not isinstance(node, Poch) or node.length is not None:
+            return None
+        try:
+            m = self._base_step(node, env, 1)
+        except QSeriesError:
+            return None
+        out = []
+        for p in node.params:
+            mono = self._exact_monomial(p, env)
+            parts = monomial_parts(mono) if mono is not None else None
+            if parts is None or parts[0] != 1 or parts[1].denominator != 1 or parts[1] < 1:
+                return None
+            out.append((int(parts[1]), m))
+        return out
+
+    def _paired_products(self, factors: list[tuple[Node, int]], env: dict[str, int],
+                         order: int) -> tuple[list[Series], list[tuple[Node, int]]]:
+        """Jacobi's triple product fast path: factors (q^a;q^m)_inf^p and (q^(m-a);q^m)_inf^p
+        are computed together as a sparse sum over (q^m;q^m)_inf.  Returns the values of the
+        paired products and the factors left to the general path."""
+        atoms: list[tuple[int, int, int]] = []
+        rest: list[tuple[Node, int]] = []
+        for node, p in factors:
+            info = self._poch_atoms(node, env)
+            if info is None:
+                rest.append((node, p))
+            else:
+                atoms.extend((a, m, p) for a, m in info)
+        if len(atoms) < 2:
+            return [], factors
+        pool = list(atoms)
+        values: list[Series] = []
+        singles: list[tuple[int, int, int]] = []
+        while pool:
+            a, m, p = pool.pop(0)
+            partner = (m - a, m, p)
+            if 0 < a < m and 2 * a != m and partner in pool:
+                pool.remove(partner)
+                key = ("pair", min(a, m - a), m, p, order)
+                v = self._cache.get(key)  # type: ignore[call-overload]
+                if v is None:
+                    v = theta_pair_power(min(a, m - a), m, p, self.ring, order)
+                    self._cache[key] = v  # type: ignore[index]
+                values.append(v)
+            else:
+                singles.append((a, m, p))
+        for a, m, p in singles:
+            v = pochhammer(Series.monomial(a, self.ring), m, None, order)
+            values.append(v if p == 1 else v.power(p, order))
+        return values, rest
+
     def _apply(self, acc: Series, factors: list[tuple[Node, int]], env: dict[str, int],
                order: int) -> Series:
         """acc * prod node^power modulo q^order."""
         dens: list[Series] = []
         binoms: list[tuple[Fraction | int, int, int]] = []
+        paired, factors = self._paired_products(factors, env, order)
+        for v in paired:
+            acc = (acc * v).truncate(order)
         for node, p in factors:
             v = self.value(node, env, order)
             if not isinstance(v, Series):

@@ -6,8 +6,15 @@ functions, q-binomial coefficients, and the registry the parser and CLI read.
 True
 """
 
-from .pochhammer import euler_product, gaussian_binomial, monomial_parts, pochhammer
+from .pochhammer import (
+    euler_product,
+    gaussian_binomial,
+    monomial_parts,
+    pochhammer,
+    theta_pair_power,
+    triple_product_sum,
+)
 from .registry import FUNCTIONS, FunctionEntry
 
 __all__ = ["FUNCTIONS", "FunctionEntry", "euler_product", "gaussian_binomial",
-           "monomial_parts", "pochhammer"]
+           "monomial_parts", "pochhammer", "theta_pair_power", "triple_product_sum"]

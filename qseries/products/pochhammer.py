@@ -62,6 +62,48 @@ def euler_product(d: int, ring: Ring, order: int) -> Series:
     return Series.from_coefficients(coeffs, ring, prec=order)
 
 
+def triple_product_sum(a: int, m: int, ring: Ring, order: int) -> Series:
+    """sum_{n=-inf}^{inf} (-1)^n q^(m n(n-1)/2 + a n) = (q^a, q^(m-a), q^m; q^m)_inf modulo
+    q^order, for 0 < a < m (Jacobi's triple product; Andrews 1976, Thm. 2.8): O(sqrt(order))
+    nonzero terms.
+
+    >>> from qseries.series import ZZ
+    >>> triple_product_sum(1, 3, ZZ, 8)   # (q, q^2, q^3; q^3)_inf = (q;q)_inf
+    1 - q - q^2 + q^5 + q^7 + O(q^8)
+    """
+    if not 0 < a < m:
+        raise UnableError("the triple product sum needs 0 < a < m")
+    if order <= 0:
+        return Series.zero(ring, order)
+    coeffs = [0] * order
+    for sign in (1, -1):
+        n = 0 if sign == 1 else -1
+        while True:
+            e = m * n * (n - 1) // 2 + a * n
+            if e >= order:
+                break
+            coeffs[e] += -1 if n % 2 else 1
+            n += sign
+    return Series.from_coefficients(coeffs, ring, prec=order)
+
+
+def theta_pair_power(a: int, m: int, power: int, ring: Ring, order: int) -> Series:
+    """(q^a, q^(m-a); q^m)_inf^power by the triple product: a sparse sum divided by
+    (q^m;q^m)_inf, instead of 2 order/m binomial multiplications.
+
+    >>> from qseries.series import ZZ
+    >>> theta_pair_power(1, 5, -1, ZZ, 10) == pochhammer(Series.monomial(1), 5, None, 10).power(-1, 10) * pochhammer(Series.monomial(4), 5, None, 10).power(-1, 10)
+    True
+    """
+    num = triple_product_sum(a, m, ring, order)
+    den = euler_product(m, ring, order)
+    if power < 0:
+        num, den = den, num
+        power = -power
+    base = (num * den.inverse()).truncate(order)
+    return base if power == 1 else base.power(power, order)
+
+
 def _one(ring: Ring) -> Series:
     return Series.constant(1, ring)
 
