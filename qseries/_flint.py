@@ -27,7 +27,7 @@ from .errors import DomainError, IncompatibleRingError
 
 Number = int | Fraction
 
-__all__ = ["ZZ", "QQ", "GF", "Ring", "join_rings", "partitions_p", "FLINT_VERSION"]
+__all__ = ["ZZ", "QQ", "GF", "Ring", "is_prime", "join_rings", "partitions_p", "FLINT_VERSION"]
 
 FLINT_VERSION: str = flint.__version__
 
@@ -338,6 +338,15 @@ class _ModularRing(Ring):
 
 ZZ: Ring = _IntegerRing()
 QQ: Ring = _RationalRing()
+
+
+def is_prime(n: int) -> bool:
+    """Primality by FLINT (a proof, not a probable-prime test).
+
+    >>> is_prime(2**61 - 1)
+    True
+    """
+    return n >= 2 and bool(flint.fmpz(n).is_prime())
 
 
 def GF(p: int) -> Ring:

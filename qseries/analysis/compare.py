@@ -13,13 +13,14 @@ coefficients were compared, and at a mismatch which exponent differs first.
 
 from __future__ import annotations
 
+import random
 import time
 from dataclasses import dataclass, field
 from fractions import Fraction
 
-from ..errors import QSeriesError
-from ..lang import Node, evaluate
-from ..series import ZZ, Ring, Series
+from ..errors import DomainError, QSeriesError
+from ..lang import Node, evaluate, parse
+from ..series import GF, QQ, ZZ, Ring, Series, is_prime
 
 Exponent = int | Fraction
 Number = int | Fraction
@@ -54,6 +55,9 @@ class CheckResult:
     seconds: float
     lhs: Series = field(repr=False)
     rhs: Series = field(repr=False)
+    #: "exact", or "modular" (both sides compared modulo ``primes``)
+    method: str = "exact"
+    primes: tuple[int, ...] = ()
 
     @property
     def verdict(self) -> str:
@@ -62,6 +66,13 @@ class CheckResult:
         >>> print(check("(q;q)_inf", "1 - q - q^2", order=5).verdict)
         the two sides agree to O(q^5) (every coefficient below q^5 compared; evidence, not a proof)
         """
+        if self.first_mismatch is None and self.method == "modular":
+            k = len(self.primes)
+            return (f"the two sides agree modulo the primes {', '.join(map(str, self.primes))} "
+                    f"at every coefficient below q^{_text(self.order_verified)} (a nonzero "
+                    f"coefficient difference of B bits escapes all {k} with probability at "
+                    f"most (B/(61*{PRIME_COUNT:.2e}))^{k}, below {escape_bound(10**6, k):.0e} "
+                    f"for B = 10^6; evidence, not a proof)")
         if self.first_mismatch is None:
             return (f"the two sides agree to O(q^{_text(self.order_verified)}) (every "
                     f"coefficient below q^{_text(self.order_verified)} compared; evidence, "
@@ -78,7 +89,9 @@ class CheckResult:
         out = []
         for d in range(-radius, radius + 1):
             e = e0 + d
-            if e < min(_low(self.lhs), _low(self.rhs), e0) or e >= self.order_verified:
+            known = [x.precision for x in (self.lhs, self.rhs) if x.precision is not None]
+            if e < min(_low(self.lhs), _low(self.rhs), e0) or e >= self.order_verified or \
+                    any(e >= k for k in known):
                 continue
             e_out = e.numerator if e.denominator == 1 else e
             out.append((e_out, self.lhs.coefficient(e), self.rhs.coefficient(e)))
@@ -124,17 +137,94 @@ def compare_series(lhs: Series, rhs: Series, order: int) -> tuple[Exponent, Mism
     return verified, Mismatch(e, lhs.coefficient(e), rhs.coefficient(e))
 
 
-def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ) -> CheckResult:
+#: orders above this use the modular method under ``method="auto"``
+AUTO_MODULAR_ORDER = 5000
+#: the modular method draws primes from [2^61, 2^62); there are about this many
+PRIME_COUNT = 2**61 / (62 * 0.6931471805599453)
+
+
+def escape_bound(bits: int, k: int) -> float:
+    """Upper bound on the chance that a nonzero integer of ``bits`` bits is divisible by k
+    primes drawn at random from [2^61, 2^62): it has at most bits/61 such prime factors.
+
+    >>> escape_bound(10**6, 3) < 1e-30
+    True
+    """
+    return (bits / 61 / PRIME_COUNT) ** k
+
+
+def random_primes(k: int, seed: int | None = None) -> tuple[int, ...]:
+    """k distinct random primes in [2^61, 2^62).
+
+    >>> all(2**61 <= p < 2**62 for p in random_primes(2, seed=1))
+    True
+    """
+    rng = random.Random(seed)
+    out: list[int] = []
+    while len(out) < k:
+        n = rng.randrange(2**61, 2**62) | 1
+        while not is_prime(n):
+            n += 2
+        if n < 2**62 and n not in out:
+            out.append(n)
+    return tuple(out)
+
+
+def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
+          method: str = "exact", primes: int = 3, seed: int | None = None) -> CheckResult:
     """Evaluate both sides modulo q^order and compare every coefficient below q^order.
+
+    ``method="modular"`` compares modulo ``primes`` random primes near 2^62 (much faster at
+    high order) and recomputes the two coefficients exactly at a mismatch; ``"auto"`` uses
+    it above order 5000.
 
     >>> check("(-q;q)_inf", "1/(q;q^2)_inf", order=200).holds      # Euler
     True
+    >>> check("(-q;q)_inf", "1/(q;q^2)_inf", order=200, method="modular", seed=7).method
+    'modular'
     """
     if isinstance(order, bool) or not isinstance(order, int) or order < 1:
         raise QSeriesError(f"the order must be a positive integer, not {order!r}")
+    if method not in ("exact", "modular", "auto"):
+        raise QSeriesError(f"unknown method {method!r}: use exact, modular or auto")
+    if method == "auto":
+        method = "modular" if order > AUTO_MODULAR_ORDER and ring in (ZZ, QQ) else "exact"
     t0 = time.perf_counter()
+    if method == "modular":
+        return _check_modular(lhs, rhs, order, primes, seed, t0)
     left = evaluate(lhs, order, ring)
     right = evaluate(rhs, order, ring)
     verified, mismatch = compare_series(left, right, order)
     return CheckResult(mismatch is None, order, verified, mismatch,
                        time.perf_counter() - t0, left, right)
+
+
+def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: int | None,
+                   t0: float) -> CheckResult:
+    if k < 1:
+        raise QSeriesError("the modular method needs at least one prime")
+    ps = random_primes(k, seed)
+    lnode = parse(lhs) if isinstance(lhs, str) else lhs
+    rnode = parse(rhs) if isinstance(rhs, str) else rhs
+    verified: Exponent = order
+    first: Exponent | None = None
+    left = right = Series.zero()
+    for p in ps:
+        try:
+            left = evaluate(lnode, order, GF(p))
+            right = evaluate(rnode, order, GF(p))
+        except DomainError as err:
+            raise DomainError(f"{err} (modulo the prime {p}; try --method exact)") from None
+        v, m = compare_series(left, right, order)
+        verified = min(verified, v)
+        if m is not None and (first is None or Fraction(m.exponent) < Fraction(first)):
+            first = m.exponent
+    if first is None:
+        return CheckResult(True, order, verified, None, time.perf_counter() - t0, left, right,
+                           "modular", ps)
+    # recompute both sides exactly just past the first mismatch, and report them
+    upto = int(Fraction(first)) + 3
+    exact_l, exact_r = evaluate(lnode, upto), evaluate(rnode, upto)
+    _, mismatch = compare_series(exact_l, exact_r, upto)
+    return CheckResult(False, order, verified, mismatch, time.perf_counter() - t0,
+                       exact_l, exact_r, "modular", ps)

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import json
 import sys
+from enum import StrEnum
 from fractions import Fraction
 from pathlib import Path
 from typing import Annotated, Any
@@ -34,6 +35,14 @@ app = typer.Typer(
     add_completion=False,
     pretty_exceptions_enable=False,
 )
+
+class Method(StrEnum):
+    """How check compares the two sides."""
+
+    auto = "auto"
+    exact = "exact"
+    modular = "modular"
+
 
 OrderOption = Annotated[int, typer.Option(
     "--order", "-n", min=1, max=MAX_LENGTH,
@@ -119,13 +128,20 @@ def check_cmd(
     lhs: Annotated[str, typer.Argument(help="The left side.")],
     rhs: Annotated[str, typer.Argument(help="The right side.")],
     order: OrderOption = 100,
+    method: Annotated[Method, typer.Option(
+        "--method", "-m",
+        help="exact: integer/rational arithmetic; modular: compare modulo random primes near "
+             "2^62 (fast at high order; the exact coefficients are recomputed at a "
+             "mismatch); auto: exact up to order 5000, modular above.")] = "auto",
+    primes: Annotated[int, typer.Option(
+        "--primes", min=1, max=20, help="How many primes the modular method uses.")] = 3,
     as_json: JsonOption = False,
 ) -> None:
     """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch.
 
     Example: qseries check "sum_{k>=0} q^(k^2)/(q;q)_k" "1/((q;q^5)_inf (q^4;q^5)_inf)" -n 500
     """
-    r: CheckResult = _guarded(check, lhs, rhs, order)
+    r: CheckResult = _guarded(lambda: check(lhs, rhs, order, method=method.value, primes=primes))
     if as_json:
         m = r.first_mismatch
         typer.echo(json.dumps({
@@ -135,6 +151,8 @@ def check_cmd(
                 "index": _exp_json(m.exponent), "lhs": _num_text(m.lhs),
                 "rhs": _num_text(m.rhs)},
             "seconds": round(r.seconds, 6),
+            "method": r.method,
+            "primes": list(r.primes),
             "hints": [{"kind": h.kind, "message": h.message} for h in diagnose(r)],
         }))
     else:

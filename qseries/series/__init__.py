@@ -5,8 +5,9 @@
 1 + 2q + q^2
 """
 
-from .._flint import GF, QQ, ZZ, Ring
+from .._flint import GF, QQ, ZZ, Ring, is_prime
 from .core import MAX_LENGTH, Series
 from .formatting import format_exponent, format_series
 
-__all__ = ["Series", "Ring", "ZZ", "QQ", "GF", "MAX_LENGTH", "format_series", "format_exponent"]
+__all__ = ["Series", "Ring", "ZZ", "QQ", "GF", "is_prime", "MAX_LENGTH", "format_series",
+           "format_exponent"]

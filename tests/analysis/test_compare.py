@@ -81,3 +81,35 @@ def test_verdict_is_honest():
 def test_bad_orders(order):
     with pytest.raises(QSeriesError):
         check("q", "q", order=order)
+
+
+def test_modular_method_agrees_and_reports_primes():
+    r = check(RR1_SUM, RR1_PRODUCT, order=3000, method="modular", seed=11)
+    assert r.holds and r.method == "modular" and len(r.primes) == 3
+    assert all(2**61 <= p < 2**62 for p in r.primes)
+    assert "modulo the primes" in r.verdict and "not a proof" in r.verdict
+
+
+def test_modular_method_locates_and_recomputes_the_mismatch_exactly():
+    # p(n) via 1/(q;q)_inf against the Durfee sum with a planted defect at q^1234;
+    # the coefficients reported are the exact integers, p(1234) from FLINT
+    from qseries._flint import partitions_p
+    r = check("1/(q;q)_inf", "sum_{k>=0} q^(k^2)/(q;q)_k^2 + q^1234", order=2000,
+              method="modular", primes=2, seed=5)
+    assert not r.holds
+    m = r.first_mismatch
+    assert m.exponent == 1234
+    assert m.lhs == partitions_p(1234) and m.rhs == partitions_p(1234) + 1
+
+
+def test_modular_method_with_rational_coefficients_and_auto_choice():
+    assert check("1/(2-q)", "sum_{k>=0} q^k/2^(k+1)", order=200, method="modular").holds
+    assert check("q", "q", order=10, method="auto").method == "exact"
+    assert check("q", "q", order=6000, method="auto").method == "modular"
+
+
+def test_modular_method_agrees_with_exact_on_a_broken_identity():
+    lhs, rhs = RR1_SUM, "1/((q;q^6)_inf (q^5;q^6)_inf)"
+    exact = check(lhs, rhs, order=100)
+    modular = check(lhs, rhs, order=100, method="modular")
+    assert exact.first_mismatch == modular.first_mismatch

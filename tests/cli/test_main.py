@@ -53,7 +53,9 @@ def test_check_json_shape():
     r = run("check", RR1[0], RR1[1] + " - q^150", "--order", "151", "--json")
     assert r.exit_code == 1
     data = json.loads(r.stdout)
-    assert set(data) == {"holds", "order", "first_mismatch", "seconds", "hints"}
+    assert set(data) == {"holds", "order", "first_mismatch", "seconds", "hints", "method",
+                         "primes"}
+    assert data["method"] == "exact" and data["primes"] == []
     assert data["holds"] is False and data["order"] == 151
     fm = data["first_mismatch"]
     assert fm["index"] == 150 and int(fm["lhs"]) - int(fm["rhs"]) == 1
@@ -175,3 +177,13 @@ def test_product_command():
 def test_check_prints_hints_at_a_mismatch():
     r = run("check", "(-q;q)_inf", "1/(q^2;q^4)_inf", "-n", "100")
     assert r.exit_code == 1 and "hint (dilation)" in r.stdout
+
+
+def test_check_modular_method_json():
+    r = run("check", *RR1, "-n", "6000", "--json")
+    data = json.loads(r.stdout)
+    assert r.exit_code == 0 and data["method"] == "modular" and len(data["primes"]) == 3
+    r = run("check", *RR1, "-n", "300", "--method", "modular", "--primes", "2", "--json")
+    data = json.loads(r.stdout)
+    assert data["method"] == "modular" and len(data["primes"]) == 2
+    assert run("check", "q", "q", "--method", "bogus").exit_code == 2
