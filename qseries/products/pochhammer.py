@@ -92,8 +92,8 @@ def theta_pair_power(a: int, m: int, power: int, ring: Ring, order: int) -> Seri
     (q^m;q^m)_inf, instead of 2 order/m binomial multiplications.
 
     >>> from qseries.series import ZZ
-    >>> slow = pochhammer(Series.monomial(1), 5, None, 10) * \
-    ...     pochhammer(Series.monomial(4), 5, None, 10)
+    >>> slow = (pochhammer(Series.monomial(1), 5, None, 10)
+    ...         * pochhammer(Series.monomial(4), 5, None, 10))
     >>> theta_pair_power(1, 5, -1, ZZ, 10) == slow.power(-1, 10)
     True
     """
