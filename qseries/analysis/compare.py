@@ -138,7 +138,7 @@ def compare_series(lhs: Series, rhs: Series, order: int) -> tuple[Exponent, Mism
 
 
 #: orders above this use the modular method under ``method="auto"``
-AUTO_MODULAR_ORDER = 5000
+AUTO_MODULAR_ORDER = 3000
 #: the modular method draws primes from [2^61, 2^62); there are about this many
 PRIME_COUNT = 2**61 / (62 * 0.6931471805599453)
 
@@ -176,7 +176,7 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
 
     ``method="modular"`` compares modulo ``primes`` random primes near 2^62 (much faster at
     high order) and recomputes the two coefficients exactly at a mismatch; ``"auto"`` uses
-    it above order 5000.
+    it above order 3000.
 
     >>> check("(-q;q)_inf", "1/(q;q^2)_inf", order=200).holds      # Euler
     True
