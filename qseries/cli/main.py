@@ -132,7 +132,7 @@ def check_cmd(
         "--method", "-m",
         help="exact: integer/rational arithmetic; modular: compare modulo random primes near "
              "2^62 (fast at high order; the exact coefficients are recomputed at a "
-             "mismatch); auto: exact up to order 5000, modular above.")] = "auto",
+             "mismatch); auto: exact up to order 3000, modular above.")] = Method.auto,
     primes: Annotated[int, typer.Option(
         "--primes", min=1, max=20, help="How many primes the modular method uses.")] = 3,
     as_json: JsonOption = False,
