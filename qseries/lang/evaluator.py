@@ -476,6 +476,11 @@ class Evaluator:
         for i in range(len(ks) - 1, -1, -1):
             running = shifts[i] if running is None else min(running, shifts[i])
             suffix_min[i] = running
+        if self.stepping and not direct and len(ks) >= 8:
+            split = self._sum_by_splitting(node, ks, env, target, sign, scalars, stepping,
+                                           shifts)
+            if split is not None:
+                return (split * const).truncate(order)
         total = Series.zero(self.ring, target)
         states: list[Series | None] = [None] * len(stepping)
         prev_k: int | None = None
@@ -508,6 +513,94 @@ class Evaluator:
         if isinstance(const, Series):
             return (total * const).truncate(order)
         return (total * const).truncate(order)
+
+    def _sum_by_splitting(self, node: BigOp, ks: list[int], env: dict[str, int], target: int,
+                          sign: int, scalars: list[tuple[Node, int]],
+                          stepping: list[tuple[Poch, int]], shifts: list[Fraction]
+                          ) -> Series | None:
+        """Binary splitting for a sum whose consecutive terms have a ratio P(k)/Q(k) of
+        polynomials (a power of q, a number, binomials 1 - c q^j): with
+        P(l,r), Q(l,r) the products over [l, r) and T(l,r) = T(l,m) Q(m,r) + P(l,m) T(m,r),
+        the sum is term_a (Q + T)/Q over the whole range, in O(M(N) log K) instead of
+        K divisions by binomials.  None when the terms do not have that shape (the caller
+        then steps term by term)."""
+        var = node.var
+        coeffs: list[Fraction] = []
+        for k in ks:
+            c = Fraction(sign)
+            for f, p in scalars:
+                v = self.scalar(f, {**env, var: k})
+                if v == 0:
+                    return None
+                c *= _rational_power(v, Fraction(p))
+            coeffs.append(c)
+        for i in range(1, len(ks)):
+            d = shifts[i] - shifts[i - 1]
+            if d.denominator != 1 or d < 0:
+                return None
+        steps = []
+        for f, p in stepping:
+            t = self._base_step(f, env, 1)
+            params = []
+            for prm in f.params:
+                parts = monomial_parts(m) if (m := self._exact_monomial(prm, env)) else None
+                if parts is None or parts[1].denominator != 1:
+                    return None
+                params.append((parts[0], int(parts[1])))
+            ns = [self.integer(f.length, {**env, var: k}, "a subscript")  # type: ignore[arg-type]
+                  for k in ks]
+            steps.append((t, params, p, ns))
+        width = target - _ceil(shifts[0])
+        ring = self.ring
+        first = Series.constant(1, ring)
+        for f, p in stepping:
+            first = (first * self._step(f, p, None, None, ks[0], env, var, width)).truncate(width)
+        if first.is_zero():
+            return None
+        term_a = (first * coeffs[0]).shift(shifts[0])
+        va = term_a.valuation
+        w = target - (_floor(va) if va is not None else 0)
+        if w <= 0:
+            return term_a.truncate(target)
+        one = Series.constant(1, ring)
+        num: list[Series] = []
+        den: list[Series] = []
+        for i in range(1, len(ks)):
+            pn = one.shift(int(shifts[i] - shifts[i - 1])).truncate(w) * (coeffs[i] / coeffs[i - 1])
+            qd = one
+            for t, params, p, ns in steps:
+                lo, hi = sorted((ns[i - 1], ns[i]))
+                times = p if ns[i] > ns[i - 1] else -p
+                for c, e in params:
+                    for j in range(lo, hi):
+                        x = e + t * j
+                        if x < 0:
+                            return None
+                        if x == 0:
+                            if c == 1:
+                                return None
+                            pn = pn * _rational_power(Fraction(1 - Fraction(c)), Fraction(times))
+                            continue
+                        for _ in range(abs(times)):
+                            if times > 0:
+                                pn = pn.mul_binomial(c, x, w)
+                            else:
+                                qd = qd.mul_binomial(c, x, w)
+            num.append(pn.truncate(w))
+            den.append(qd.truncate(w))
+
+        def split(lo: int, hi: int) -> tuple[Series, Series, Series]:
+            if hi - lo == 1:
+                return num[lo], den[lo], num[lo]
+            mid = (lo + hi) // 2
+            p1, q1, t1 = split(lo, mid)
+            p2, q2, t2 = split(mid, hi)
+            return ((p1 * p2).truncate(w), (q1 * q2).truncate(w),
+                    (t1 * q2 + p1 * t2).truncate(w))
+
+        _, qq, tt = split(0, len(num))
+        ratio_sum = ((qq + tt) * qq.inverse(order=w)).truncate(w)
+        return (term_a * ratio_sum).truncate(target)
 
     def _steppable(self, f: Poch, var: str, env: dict[str, int]) -> bool:
         if not self.stepping:

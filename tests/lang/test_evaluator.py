@@ -141,3 +141,18 @@ def test_terms_with_negative_valuation_factors_are_not_skipped():
     low, high = evaluate(text, 60), evaluate(text, 200)
     assert low.coefficient_list(60) == high.coefficient_list(60)
     assert low.coefficient(54) == 2
+
+
+def test_binary_splitting_matches_term_by_term_evaluation():
+    # the binary-splitting path (ratio of consecutive terms a quotient of polynomials) against
+    # the reference path that evaluates every term from scratch, over ZZ and modulo a prime
+    from qseries.series import GF
+    texts = ["sum_{k>=0} q^(k^2)/(q;q)_k^2",
+             "sum_{k>=0} (-1)^k q^(k(k+1)/2) (q;q^2)_k/(q;q)_(2k+1)",
+             "sum_{k>=0} 3^k q^(k^2) (-q;q^2)_k/((q^2;q^2)_k (q;q)_k)",
+             "sum_{k>=0} q^(k^2+k) (q^3;q)_k (2;q)_k / (q;q)_(2k+1)"]
+    for ring in (ZZ, GF(1_000_003)):
+        for text in texts:
+            fast = Evaluator(ring).evaluate(parse(text), 400)
+            slow = Evaluator(ring, stepping=False).evaluate(parse(text), 400)
+            assert fast == slow, text
