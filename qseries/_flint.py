@@ -63,6 +63,11 @@ class Ring:
     def zero(self) -> Any:
         return self._ptype([])
 
+    def poly_from_ints(self, coeffs: list[int]) -> Any:
+        """Polynomial from a list of Python ints, without per-coefficient conversion (the
+        fast path for long sparse series such as Euler's product)."""
+        return self._ptype(coeffs)
+
     def convert(self, p: Any) -> Any:
         """The polynomial p (over a subring) as a polynomial of this ring."""
         if isinstance(p, self._ptype):
@@ -264,6 +269,9 @@ class _ModularRing(Ring):
 
     def poly(self, coeffs: list) -> Any:
         return flint.nmod_poly([int(self.coerce(c)) for c in coeffs], self.p)
+
+    def poly_from_ints(self, coeffs: list[int]) -> Any:
+        return flint.nmod_poly(coeffs, self.p)
 
     def convert(self, p: Any) -> Any:
         if isinstance(p, flint.nmod_poly):

@@ -595,8 +595,8 @@ class Evaluator:
             mid = (lo + hi) // 2
             p1, q1, t1 = split(lo, mid)
             p2, q2, t2 = split(mid, hi)
-            return ((p1 * p2).truncate(w), (q1 * q2).truncate(w),
-                    (t1 * q2 + p1 * t2).truncate(w))
+            return (p1.mul_trunc(p2, w), q1.mul_trunc(q2, w),
+                    (t1.mul_trunc(q2, w) + p1.mul_trunc(t2, w)).truncate(w))
 
         _, qq, tt = split(0, len(num))
         ratio_sum = ((qq + tt) * qq.inverse(order=w)).truncate(w)

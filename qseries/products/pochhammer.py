@@ -59,7 +59,7 @@ def euler_product(d: int, ring: Ring, order: int) -> Series:
         if k and e2 < order:
             coeffs[e2] = sign
         k += 1
-    return Series.from_coefficients(coeffs, ring, prec=order)
+    return Series.from_int_list(coeffs, ring, prec=order)
 
 
 def triple_product_sum(a: int, m: int, ring: Ring, order: int) -> Series:
@@ -84,7 +84,7 @@ def triple_product_sum(a: int, m: int, ring: Ring, order: int) -> Series:
                 break
             coeffs[e] += -1 if n % 2 else 1
             n += sign
-    return Series.from_coefficients(coeffs, ring, prec=order)
+    return Series.from_int_list(coeffs, ring, prec=order)
 
 
 def theta_pair_power(a: int, m: int, power: int, ring: Ring, order: int) -> Series:

@@ -71,7 +71,7 @@ def _theta_sum(d: int, ring: Ring, order: int, squares_of_halves: bool, alternat
             c = (-1) ** n if alternate else 1
             coeffs[d * n * n] += c if n == 0 else 2 * c
             n += 1
-    return Series.from_coefficients(coeffs, ring, prec=order)
+    return Series.from_int_list(coeffs, ring, prec=order)
 
 
 def _theta2(args: tuple[Value, ...], ring: Ring, order: int) -> Series:

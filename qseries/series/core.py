@@ -123,6 +123,16 @@ class Series:
         return cls(ring, ring.poly(nums), start, offset, prec)
 
     @classmethod
+    def from_int_list(cls, coeffs: list[int], ring: Ring, prec: int | None = None) -> Series:
+        """Like :meth:`from_coefficients` for a list of Python ints, converted in one step
+        (no per-coefficient checks): for long series built by the library itself.
+
+        >>> Series.from_int_list([1, 0, -1], ZZ, prec=3)
+        1 - q^2 + O(q^3)
+        """
+        return cls(ring, ring.poly_from_ints(coeffs), 0, 0, prec)
+
+    @classmethod
     def constant(cls, c: Number, ring: Ring | None = None) -> Series:
         """The exact constant c; the ring defaults to ZZ for integers and QQ for fractions.
 
@@ -341,6 +351,26 @@ class Series:
         return Series(R, poly, start, off, prec)
 
     __rmul__ = __mul__
+
+    def mul_trunc(self, other: Series, order: int) -> Series:
+        """(self * other) truncated to O(q^order), computing only the coefficients needed
+        (for exact polynomials too).
+
+        >>> a = Series.from_coefficients([1, 1, 1])
+        >>> a.mul_trunc(a, 3)
+        1 + 2q + 3q^2 + O(q^3)
+        """
+        a, b = self._joined(other)
+        if a.prec is not None or b.prec is not None or a.offset or b.offset:
+            return (a * b).truncate(order)
+        va, vb = a._val_int(), b._val_int()
+        if va is None or vb is None:
+            return Series.zero(a.ring)
+        R = a.ring
+        start = va + vb
+        if start + R.length(a.poly) + R.length(b.poly) - 1 <= order:
+            return Series(R, a.poly * b.poly, start, 0, None)
+        return Series(R, R.mul_low(a.poly, b.poly, order - start), start, 0, order)
 
     def shift(self, e: Exponent) -> Series:
         """Multiply by q^e (e an integer or a Fraction); precision moves with it.
