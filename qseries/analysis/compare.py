@@ -13,8 +13,10 @@ coefficients were compared, and at a mismatch which exponent differs first.
 
 from __future__ import annotations
 
+import os
 import random
 import time
+from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, field
 from fractions import Fraction
 
@@ -199,6 +201,23 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
                        time.perf_counter() - t0, left, right)
 
 
+#: from this order on, the modular method spreads its primes over worker processes
+PARALLEL_ORDER = 50_000
+
+
+def _modular_sides(lnode: Node, rnode: Node, order: int, p: int) -> tuple[Series, Series]:
+    try:
+        return evaluate(lnode, order, GF(p)), evaluate(rnode, order, GF(p))
+    except DomainError as err:
+        raise DomainError(f"{err} (modulo the prime {p}; try --method exact)") from None
+
+
+def _modular_compare(lnode: Node, rnode: Node, order: int, p: int
+                     ) -> tuple[Exponent, Mismatch | None]:
+    left, right = _modular_sides(lnode, rnode, order, p)
+    return compare_series(left, right, order)
+
+
 def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: int | None,
                    t0: float) -> CheckResult:
     if k < 1:
@@ -208,14 +227,23 @@ def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: i
     rnode = parse(rhs) if isinstance(rhs, str) else rhs
     verified: Exponent = order
     first: Exponent | None = None
-    left = right = Series.zero()
-    for p in ps:
-        try:
-            left = evaluate(lnode, order, GF(p))
-            right = evaluate(rnode, order, GF(p))
-        except DomainError as err:
-            raise DomainError(f"{err} (modulo the prime {p}; try --method exact)") from None
-        v, m = compare_series(left, right, order)
+    # at high order the other primes run in worker processes while this one computes the first
+    parallel = order >= PARALLEL_ORDER and len(ps) > 1 and (os.cpu_count() or 1) > 1
+    pool = ProcessPoolExecutor(max_workers=min(len(ps) - 1, os.cpu_count() or 1)) \
+        if parallel else None
+    try:
+        futures = [pool.submit(_modular_compare, lnode, rnode, order, p) for p in ps[1:]] \
+            if pool else []
+        left, right = _modular_sides(lnode, rnode, order, ps[0])
+        outcomes = [compare_series(left, right, order)]
+        if pool:
+            outcomes += [f.result() for f in futures]
+        else:
+            outcomes += [_modular_compare(lnode, rnode, order, p) for p in ps[1:]]
+    finally:
+        if pool:
+            pool.shutdown(cancel_futures=True)
+    for v, m in outcomes:
         verified = min(verified, v)
         if m is not None and (first is None or Fraction(m.exponent) < Fraction(first)):
             first = m.exponent

@@ -113,3 +113,12 @@ def test_modular_method_agrees_with_exact_on_a_broken_identity():
     exact = check(lhs, rhs, order=100)
     modular = check(lhs, rhs, order=100, method="modular")
     assert exact.first_mismatch == modular.first_mismatch
+
+
+def test_modular_primes_in_worker_processes_give_the_same_verdict(monkeypatch):
+    from qseries.analysis import compare
+    monkeypatch.setattr(compare, "PARALLEL_ORDER", 100)
+    broken = f"{RR1_PRODUCT} + q^300"
+    r = check(RR1_SUM, broken, order=400, method="modular", seed=3)
+    assert not r.holds and r.first_mismatch.exponent == 300
+    assert check(RR1_SUM, RR1_PRODUCT, order=400, method="modular", seed=3).holds
