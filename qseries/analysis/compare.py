@@ -16,6 +16,7 @@ from __future__ import annotations
 import os
 import random
 import time
+from collections.abc import Callable
 from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, field
 from fractions import Fraction
@@ -173,12 +174,13 @@ def random_primes(k: int, seed: int | None = None) -> tuple[int, ...]:
 
 
 def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
-          method: str = "exact", primes: int = 3, seed: int | None = None) -> CheckResult:
+          method: str = "exact", primes: int = 3, seed: int | None = None,
+          progress: Callable[[str], None] | None = None) -> CheckResult:
     """Evaluate both sides modulo q^order and compare every coefficient below q^order.
 
     ``method="modular"`` compares modulo ``primes`` random primes near 2^62 (much faster at
     high order) and recomputes the two coefficients exactly at a mismatch; ``"auto"`` uses
-    it above order 3000.
+    it above order 3000.  ``progress`` (if given) is called with a short text at each stage.
 
     >>> check("(-q;q)_inf", "1/(q;q^2)_inf", order=200).holds      # Euler
     True
@@ -192,9 +194,12 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     if method == "auto":
         method = "modular" if order > AUTO_MODULAR_ORDER and ring in (ZZ, QQ) else "exact"
     t0 = time.perf_counter()
+    say = progress or (lambda _text: None)
     if method == "modular":
-        return _check_modular(lhs, rhs, order, primes, seed, t0)
+        return _check_modular(lhs, rhs, order, primes, seed, t0, say)
+    say("evaluating the left side")
     left = evaluate(lhs, order, ring)
+    say("evaluating the right side")
     right = evaluate(rhs, order, ring)
     verified, mismatch = compare_series(left, right, order)
     return CheckResult(mismatch is None, order, verified, mismatch,
@@ -219,7 +224,7 @@ def _modular_compare(lnode: Node, rnode: Node, order: int, p: int
 
 
 def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: int | None,
-                   t0: float) -> CheckResult:
+                   t0: float, say: Callable[[str], None]) -> CheckResult:
     if k < 1:
         raise QSeriesError("the modular method needs at least one prime")
     ps = random_primes(k, seed)
@@ -234,12 +239,15 @@ def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: i
     try:
         futures = [pool.submit(_modular_compare, lnode, rnode, order, p) for p in ps[1:]] \
             if pool else []
+        say(f"comparing modulo {len(ps)} primes" + (" in parallel" if pool else ""))
         left, right = _modular_sides(lnode, rnode, order, ps[0])
         outcomes = [compare_series(left, right, order)]
         if pool:
             outcomes += [f.result() for f in futures]
         else:
-            outcomes += [_modular_compare(lnode, rnode, order, p) for p in ps[1:]]
+            for i, p in enumerate(ps[1:], start=2):
+                say(f"comparing modulo prime {i} of {len(ps)}")
+                outcomes.append(_modular_compare(lnode, rnode, order, p))
     finally:
         if pool:
             pool.shutdown(cancel_futures=True)
@@ -251,6 +259,7 @@ def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: i
         return CheckResult(True, order, verified, None, time.perf_counter() - t0, left, right,
                            "modular", ps)
     # recompute both sides exactly just past the first mismatch, and report them
+    say("recomputing the first mismatch exactly")
     upto = int(Fraction(first)) + 3
     exact_l, exact_r = evaluate(lnode, upto), evaluate(rnode, upto)
     _, mismatch = compare_series(exact_l, exact_r, upto)

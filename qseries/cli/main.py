@@ -123,6 +123,22 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
     typer.echo(f"  ({r.seconds:.3f} s)")
 
 
+#: checks from this order on show a status line on a terminal
+STATUS_ORDER = 20_000
+
+
+def _with_status(run: Any, show: bool) -> Any:
+    """Run ``run(say)``; on a terminal (and when ``show``) display what it says as a live
+    status line, on a pipe nothing."""
+    from rich.console import Console
+
+    console = Console(stderr=True)
+    if not (show and console.is_terminal):
+        return run(lambda _text: None)
+    with console.status("checking") as status:
+        return run(lambda text: status.update(text))
+
+
 @app.command(name="check")
 def check_cmd(
     lhs: Annotated[str, typer.Argument(help="The left side.")],
@@ -141,7 +157,9 @@ def check_cmd(
 
     Example: qseries check "sum_{k>=0} q^(k^2)/(q;q)_k" "1/((q;q^5)_inf (q^4;q^5)_inf)" -n 500
     """
-    r: CheckResult = _guarded(lambda: check(lhs, rhs, order, method=method.value, primes=primes))
+    r: CheckResult = _guarded(lambda: _with_status(
+        lambda say: check(lhs, rhs, order, method=method.value, primes=primes, progress=say),
+        show=order >= STATUS_ORDER and not as_json))
     if as_json:
         m = r.first_mismatch
         typer.echo(json.dumps({
