@@ -171,25 +171,25 @@ class Ring:
             shifted = self.shift_up(p.truncate(max(n - j, 0)), j)
         else:
             shifted = self.shift_up(p, j)
-        if c == 1:
-            return p - shifted
-        if c == -1:
-            return p + shifted
-        return p - shifted * self.coerce(c)
+        cc = self._multiplier(c)
+        return p - shifted if cc == 1 else p - shifted * cc
 
     def binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
         """p / (1 - c q^j) modulo q^n for j >= 1, by the doubling
         1/(1-x) = (1+x)(1+x^2)(1+x^4)...; each step is a shift and an add."""
         p = p.truncate(max(n, 0))
-        cc = self.coerce(c)
-        one = self.coerce(1)
+        cc = self._multiplier(c)
         step = j
         while step < n and cc != 0:
             shifted = self.shift_up(p.truncate(n - step), step)
-            p = p + shifted if cc == one else p + shifted * cc
+            p = p + shifted if cc == 1 else p + shifted * cc
             step *= 2
-            cc = cc * cc
+            cc = self._multiplier(cc * cc)
         return p
+
+    def _multiplier(self, c: Any) -> Any:
+        """c as a scalar that polynomials of this ring can be multiplied by."""
+        return self.coerce(c)
 
 
 def _py_coeffs(p: Any) -> list[Number]:
@@ -207,6 +207,8 @@ class _IntegerRing(Ring):
     _ptype = flint.fmpz_poly
 
     def coerce(self, c: Number) -> Any:
+        if isinstance(c, flint.fmpz):
+            return c
         if isinstance(c, Fraction):
             if c.denominator != 1:
                 raise IncompatibleRingError(f"{c} is not an integer")
@@ -228,6 +230,8 @@ class _RationalRing(Ring):
     _ptype = flint.fmpq_poly
 
     def coerce(self, c: Number) -> Any:
+        if isinstance(c, flint.fmpq):
+            return c
         if isinstance(c, Fraction):
             return flint.fmpq(c.numerator, c.denominator)
         if isinstance(c, flint.fmpz):
@@ -303,25 +307,8 @@ class _ModularRing(Ring):
     def scale(self, p: Any, c: Number) -> Any:
         return p * int(self.coerce(c))
 
-    def binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
-        if n is not None:
-            p = p.truncate(max(n, 0))
-            shifted = self.shift_up(p.truncate(max(n - j, 0)), j)
-        else:
-            shifted = self.shift_up(p, j)
-        cc = int(self.coerce(c))
-        return p - shifted if cc == 1 else p - shifted * cc
-
-    def binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
-        p = p.truncate(max(n, 0))
-        cc = int(self.coerce(c))
-        step = j
-        while step < n and cc != 0:
-            shifted = self.shift_up(p.truncate(n - step), step)
-            p = p + shifted if cc == 1 else p + shifted * cc
-            step *= 2
-            cc = cc * cc % self.p
-        return p
+    def _multiplier(self, c: Number) -> Any:
+        return int(self.coerce(c))
 
     def zero(self) -> Any:
         return flint.nmod_poly([], self.p)

@@ -421,19 +421,25 @@ class Evaluator:
         m = sym.eventually_at_least(poly, order, max(start, b.start, 0))
         return max(m, start)
 
+    def _numbers(self, node: BigOp, env: dict[str, int]) -> Fraction:
+        """A sum or product of numbers over a finite range."""
+        what = "adds" if node.kind == "sum" else "multiplies"
+        if node.lower is None or node.upper is None:
+            raise DomainError(f"{_label(node)} {what} infinitely many numbers; it has no "
+                              f"meaning as a formal power series")
+        lo = self.integer(node.lower, env, "a lower limit")
+        hi = self.integer(node.upper, env, "an upper limit")
+        if hi - lo + 1 > MAX_TERMS:
+            raise UnableError(f"{_label(node)} has too many terms")
+        total = Fraction(0 if node.kind == "sum" else 1)
+        for k in range(lo, hi + 1):
+            v = self.scalar(node.body, {**env, node.var: k})
+            total = total + v if node.kind == "sum" else total * v
+        return total
+
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):
-            if node.lower is None or node.upper is None:
-                raise DomainError(f"{_label(node)} adds infinitely many numbers; it has no "
-                                  f"meaning as a formal power series")
-            lo = self.integer(node.lower, env, "a lower limit")
-            hi = self.integer(node.upper, env, "an upper limit")
-            if hi - lo + 1 > MAX_TERMS:
-                raise UnableError(f"{_label(node)} has too many terms")
-            total = Fraction(0)
-            for k in range(lo, hi + 1):
-                total += self.scalar(node.body, {**env, node.var: k})
-            return total
+            return self._numbers(node, env)
         ks = self._range(node, env, order, deviation=False)
         return self._sum_terms(node, ks, env, order)
 
@@ -640,17 +646,7 @@ class Evaluator:
 
     def _prod(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):
-            if node.lower is None or node.upper is None:
-                raise DomainError(f"{_label(node)} multiplies infinitely many numbers; it has "
-                                  f"no meaning as a formal power series")
-            lo = self.integer(node.lower, env, "a lower limit")
-            hi = self.integer(node.upper, env, "an upper limit")
-            if hi - lo + 1 > MAX_TERMS:
-                raise UnableError(f"{_label(node)} has too many factors")
-            total = Fraction(1)
-            for k in range(lo, hi + 1):
-                total *= self.scalar(node.body, {**env, node.var: k})
-            return total
+            return self._numbers(node, env)
         ks = self._range(node, env, order, deviation=True)
         sign, factors = _signed_factors(node.body)
         acc = Series.constant(1, self.ring)

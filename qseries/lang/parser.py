@@ -5,8 +5,7 @@ Grammar (informally; juxtaposition is multiplication)::
     expr    := term (("+" | "-") term)*
     term    := signed (("*" | "/")? factor)*      -- a sum/prod factor takes the rest of the term
     signed  := ("-" | "+") signed | power
-    power   := atom (("^" | "**") exponent)?      -- right associative
-    exponent:= ("-" | "+") exponent | atom (("^" | "**") exponent)?
+    power   := atom (("^" | "**") signed)?       -- right associative
     atom    := number | "q" | name | "inf" | "(" expr ")" | "{" expr "}"
              | "(" expr ("," expr)* ";" expr ")" "_" subscript     -- q-Pochhammer symbol
              | "(" expr ")" "_" subscript                            -- (a)_n = (a;q)_n
@@ -225,21 +224,8 @@ class _Parser:
         base = self.atom()
         if self.at("^") and not self.tail_taken:
             t = self.take()
-            base = BinOp("^", base, self.exponent(), t.pos)
+            base = BinOp("^", base, self.signed(), t.pos)  # q^-2: a signed exponent
         return base
-
-    def exponent(self) -> Node:
-        self.enter()
-        if self.at("-"):
-            t = self.take()
-            node: Node = Neg(self.exponent(), t.pos)
-        elif self.at("+"):
-            self.take()
-            node = self.exponent()
-        else:
-            node = self.power()
-        self.leave()
-        return node
 
     def atom(self) -> Node:
         t = self.tok

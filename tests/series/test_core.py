@@ -134,7 +134,12 @@ def test_binomial_fast_paths_match_general_arithmetic():
     assert f.mul_binomial(3, 3) == (f * b).truncate(40)
     slow = (f * b.inverse(order=40)).coefficient_list(40)
     assert f.div_binomial(3, 3).coefficient_list(40) == slow
-    assert f.div_binomial(Fraction(1, 2), 2).ring == QQ
+    half = f.div_binomial(Fraction(1, 2), 2)
+    assert half.ring == QQ
+    b_half = Series.from_coefficients([1, 0, Fraction(-1, 2)])
+    assert half.coefficient_list(40) == (f * b_half.inverse(order=40)).coefficient_list(40)
+    assert f.mul_binomial(Fraction(-3, 4), 5) == (f * Series.from_coefficients(
+        [1, 0, 0, 0, 0, Fraction(3, 4)])).truncate(40)
 
 
 def test_modular_ring_agrees_with_integers():
