@@ -654,7 +654,20 @@ class Evaluator:
             acc = self._apply(acc, factors, {**env, node.var: k}, order)
             if sign < 0:
                 acc = -acc
+        v = acc.valuation
+        if v is not None and v < 0 and self._range_was_cut(node, env, ks):
+            # the factors left out are 1 + O(q^order); times a product of valuation v < 0
+            # they leave it exact only below q^(order + v): say so (the caller raises the
+            # working order and tries again)
+            acc = acc.truncate(order + _floor(v))
         return acc
+
+    def _range_was_cut(self, node: BigOp, env: dict[str, int], ks: list[int]) -> bool:
+        if node.lower is None or node.upper is None:
+            return True
+        lo = self.integer(node.lower, env, "a lower limit")
+        hi = self.integer(node.upper, env, "an upper limit")
+        return len(ks) < hi - lo + 1
 
 
 # -- module helpers ---------------------------------------------------------------------------

@@ -156,9 +156,13 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         va = a.valuation
         if a.is_zero():
             return acc if a.prec is None or a.prec >= order else acc.truncate(a.prec)
+        # factors 1 - a q^(tj) with negative valuation give the product valuation v < 0; the
+        # factors left out are 1 + O(q^e), which only leave the product exact below
+        # q^(e + v): so go on to e >= order - v
+        v = sum(va + t * i for i in range(int(-va // t) + 1) if va + t * i < 0)
         j = 0
-        while va + t * j < order:
-            acc = _checked(acc, a, mono, t * j, False, order)
+        while va + t * j < order - v:
+            acc = _checked(acc, a, mono, t * j, False, order - v)
             j += 1
             if j > MAX_FACTORS:
                 raise UnableError("too many factors in an infinite q-Pochhammer symbol")

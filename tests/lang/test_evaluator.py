@@ -156,3 +156,28 @@ def test_binary_splitting_matches_term_by_term_evaluation():
             fast = Evaluator(ring).evaluate(parse(text), 400)
             slow = Evaluator(ring, stepping=False).evaluate(parse(text), 400)
             assert fast == slow, text
+
+
+@pytest.mark.parametrize("text, step, first", [
+    ("(-q^-1;q)_inf", 1, -1),
+    ("(-q^-3;q^2)_inf", 2, -3),
+    ("prod_{n>=0} (1+q^(n-4))", 1, -4),
+])
+def test_infinite_products_with_negative_valuation_against_sympy(text, step, first):
+    # regression: the factors left out of an infinite product are 1 + O(q^N), but times a
+    # partial product of negative valuation v they disturb q^(N+v) .. q^(N-1); the reference
+    # is sympy's expansion of enough factors (those beyond j = 45 cannot reach below q^30)
+    import sympy
+    q = sympy.symbols("q")
+    poly, shift = sympy.Poly(1, q), 0
+    for j in range(46):
+        e = first + step * j
+        if e >= 0:
+            poly = poly * sympy.Poly(1 + q**e, q)
+        else:                      # 1 + q^e = q^e (q^-e + 1)
+            poly, shift = poly * sympy.Poly(q**(-e) + 1, q), shift + e
+    n = 30
+    ours = evaluate(text, n)
+    assert ours.precision == n
+    for e in range(shift, n):
+        assert ours.coefficient(e) == poly.coeff_monomial(q**(e - shift)), e
