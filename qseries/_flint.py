@@ -23,13 +23,16 @@ from typing import Any
 
 import flint
 
-from .errors import DomainError, IncompatibleRingError
+from .errors import DomainError, IncompatibleRingError, UnableError
 
 Number = int | Fraction
 
 __all__ = ["ZZ", "QQ", "GF", "Ring", "is_prime", "join_rings", "partitions_p", "FLINT_VERSION"]
 
 FLINT_VERSION: str = flint.__version__
+
+#: longest polynomial a shift may produce (FLINT aborts the process when memory runs out)
+MAX_SHIFT = 50_000_000
 
 
 def partitions_p(n: int) -> int:
@@ -107,13 +110,28 @@ class Ring:
 
     # -- arithmetic ------------------------------------------------------------------
     @staticmethod
+    def coefficient_bits(p: Any) -> int:
+        """Bits of the largest coefficient (numerators and denominators for QQ)."""
+        if p.length() == 0:
+            return 0
+        if isinstance(p, flint.fmpz_poly):
+            return int(p.height_bits())
+        if isinstance(p, flint.fmpq_poly):
+            return int(p.numer().height_bits()) + int(flint.fmpz(p.denom()).bit_length())
+        return 0   # modular coefficients do not grow
+
+    @staticmethod
     def truncate(p: Any, n: int) -> Any:
         return p.truncate(max(n, 0))
 
     @staticmethod
     def shift_up(p: Any, k: int) -> Any:
-        """p * q^k for k >= 0."""
-        return p.left_shift(k) if k else p
+        """p * q^k for k >= 0 (refused beyond MAX_SHIFT, where FLINT would abort)."""
+        if not k or p.length() == 0:
+            return p
+        if k + p.length() > MAX_SHIFT:
+            raise UnableError(f"a polynomial of degree {k + p.length() - 1} exceeds the limit")
+        return p.left_shift(k)
 
     @staticmethod
     def shift_down(p: Any, k: int) -> Any:
@@ -166,6 +184,8 @@ class Ring:
 
     def binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
         """p * (1 - c q^j), truncated to length n when n is not None; O(length) work."""
+        if n is not None and j >= n:
+            return p.truncate(max(n, 0))
         if n is not None:
             p = p.truncate(max(n, 0))
             shifted = self.shift_up(p.truncate(max(n - j, 0)), j)

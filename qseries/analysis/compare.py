@@ -24,6 +24,7 @@ from fractions import Fraction
 from ..errors import DomainError, QSeriesError
 from ..lang import Node, evaluate, parse
 from ..series import GF, QQ, ZZ, Ring, Series, is_prime
+from ..series.formatting import number_text
 
 Exponent = int | Fraction
 Number = int | Fraction
@@ -107,7 +108,7 @@ def _low(s: Series) -> Fraction:
 
 
 def _text(x: Exponent | Number) -> str:
-    return str(x)
+    return number_text(x)
 
 
 def _known_to(s: Series, order: int) -> Exponent:

@@ -21,6 +21,7 @@ from fractions import Fraction
 
 from ..analysis import check
 from ..errors import QSeriesError
+from ..series.formatting import number_text
 from .files import Entry
 
 
@@ -52,8 +53,8 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
         return EntryResult(entry.ident, False, False, 0, None, time.perf_counter() - t0,
                            str(err))
     m = r.first_mismatch
-    mismatch = None if m is None else {"index": _json_exp(m.exponent), "lhs": str(m.lhs),
-                                       "rhs": str(m.rhs)}
+    mismatch = None if m is None else {"index": _json_exp(m.exponent),
+                                       "lhs": number_text(m.lhs), "rhs": number_text(m.rhs)}
     if entry.expect == "holds":
         ok = r.holds and r.order_verified == n
     else:

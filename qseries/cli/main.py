@@ -23,7 +23,7 @@ from ..lang import evaluate
 from ..lang.parser import NOTATION_FORMS
 from ..products import FUNCTIONS
 from ..series import MAX_LENGTH, Series
-from ..series.formatting import format_series
+from ..series.formatting import format_series, number_text
 from .demo import DEMO_CASES
 
 app = typer.Typer(
@@ -56,7 +56,7 @@ def _exp_json(e: int | Fraction) -> int | str:
 
 
 def _num_text(c: int | Fraction) -> str:
-    return str(c)
+    return number_text(c)
 
 
 def _fail(message: str) -> None:
@@ -108,10 +108,11 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
         typer.echo(f"AGREES  {r.verdict}")
     else:
         m = r.first_mismatch
-        typer.echo(f"DIFFERS  {r.verdict} (difference {m.difference})")
+        typer.echo(f"DIFFERS  {r.verdict} (difference {number_text(m.difference)})")
         typer.echo(f"  coefficients below q^{m.exponent} agree")
         rows = [("exponent", "left", "right", "difference")] + [
-            (str(e), str(a), str(b), str(a - b)) for e, a, b in r.neighbours()]
+            (str(e), number_text(a), number_text(b), number_text(a - b))
+            for e, a, b in r.neighbours()]
         widths = [max(len(row[i]) for row in rows) for i in range(4)]
         for row in rows:
             typer.echo("  " + "  ".join(cell.rjust(w) for cell, w in zip(row, widths, strict=True)))

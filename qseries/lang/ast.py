@@ -137,10 +137,15 @@ def free_names(node: Node) -> frozenset[str]:
             if b is not None:
                 inner |= free_names(b)
         return inner
-    out: frozenset[str] = frozenset()
-    for c in children(node):
-        out |= free_names(c)
-    return out
+    out: set[str] = set()
+    stack = list(children(node))      # iterative: long sums of terms are deep left spines
+    while stack:
+        c = stack.pop()
+        if isinstance(c, (Name, BigOp)):
+            out |= free_names(c)
+        else:
+            stack.extend(children(c))
+    return frozenset(out)
 
 
 def mentions_q(node: Node) -> bool:
@@ -150,8 +155,10 @@ def mentions_q(node: Node) -> bool:
     >>> mentions_q(parse("(-1)^k 2/3", bound={"k"})), mentions_q(parse("(q;q)_2"))
     (False, True)
     """
-    if isinstance(node, (Q, Poch, Call, BigO)):
-        return True
-    if isinstance(node, BigOp):
-        return mentions_q(node.body)
-    return any(mentions_q(c) for c in children(node))
+    stack = [node]
+    while stack:
+        c = stack.pop()
+        if isinstance(c, (Q, Poch, Call, BigO)):
+            return True
+        stack.extend([c.body] if isinstance(c, BigOp) else children(c))
+    return False

@@ -20,6 +20,7 @@ from fractions import Fraction
 from ..errors import DomainError, QSeriesError, UnableError
 from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
 from ..series import MAX_LENGTH, ZZ, Ring, Series
+from ..series.formatting import short_number_text
 from . import symbolic as sym
 from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, free_names, mentions_q
 from .parser import parse
@@ -27,15 +28,27 @@ from .termination import NoBound, TermBounds
 
 Value = Fraction | Series
 
+#: the working order may be raised to RETRY_FACTOR * order + RETRY_SLACK to make up for
+#: precision lost to negative powers; beyond that the lower precision is reported
+RETRY_FACTOR = 4
+RETRY_SLACK = 2000
 #: most terms (or factors) a single sum (or product) may evaluate
-MAX_TERMS = 5_000_000
+MAX_TERMS = 2_000_000
+#: most terms all the sums and products of one evaluation may evaluate together
+MAX_TOTAL_TERMS = 4_000_000
+#: finite ranges longer than this are cut by the valuation analysis where it applies
+SPLIT_RANGE = 10_000
+#: largest integer accepted as an exponent of q, a limit of a sum or a subscript
+MAX_INTEGER = 10**18
 #: largest bit size of a rational constant built by powers
 MAX_BITS = 4_000_000
 
 
 def _int_value(v: Fraction, what: str) -> int:
     if v.denominator != 1:
-        raise DomainError(f"{what} must be an integer, not {v}")
+        raise DomainError(f"{what} must be an integer, not {short_number_text(v)}")
+    if abs(v.numerator) > MAX_INTEGER:
+        raise UnableError(f"{what} is {short_number_text(v)}, beyond the limit 10^18")
     return v.numerator
 
 
@@ -57,6 +70,7 @@ class Evaluator:
         self._free: dict[int, frozenset[str]] = {}
         self._hasq: dict[int, bool] = {}
         self.bounds = TermBounds(self)
+        self._terms = 0
 
     # -- public ------------------------------------------------------------------------
     def evaluate(self, node: Node, order: int, retries: int = 3) -> Series:
@@ -66,6 +80,7 @@ class Evaluator:
         if order > MAX_LENGTH:
             raise UnableError(f"order {order} exceeds the limit {MAX_LENGTH}")
         self._cache.clear()
+        self._terms = 0
         work = order
         result = self._as_series(self.value(node, {}, work))
         for _ in range(retries):
@@ -74,9 +89,12 @@ class Evaluator:
                 break
             deficit = order - p
             work += int(deficit) + (0 if Fraction(deficit).denominator == 1 else 1)
-            if work > MAX_LENGTH:
-                break
-            result = self._as_series(self.value(node, {}, work))
+            if work > MAX_LENGTH or work > RETRY_FACTOR * order + RETRY_SLACK:
+                break   # report the precision reached rather than compute far beyond order
+            again = self._as_series(self.value(node, {}, work))
+            if again.precision is not None and again.precision <= p:
+                break   # an explicit O(q^e), or a loss that grows with the order
+            result = again
         return result.truncate(order) if result.offset == 0 else _truncate_abs(result, order)
 
     def value(self, node: Node, env: dict[str, int], order: int) -> Value:
@@ -141,10 +159,19 @@ class Evaluator:
             return -v
         if isinstance(node, BinOp):
             if node.op in "+-":
-                a = self.value(node.left, env, order)
-                b = self.value(node.right, env, order)
-                r = a + b if node.op == "+" else a - b
-                return r.truncate(order) if isinstance(r, Series) else r
+                # a long sum of terms is a deep left spine: walk it without recursion
+                spine: list[tuple[str, Node]] = []
+                left: Node = node
+                while isinstance(left, BinOp) and left.op in "+-":
+                    spine.append((left.op, left.right))
+                    left = left.left
+                acc = self.value(left, env, order)
+                for op, right in reversed(spine):
+                    b = self.value(right, env, order)
+                    acc = acc + b if op == "+" else acc - b
+                    if isinstance(acc, Series):
+                        acc = acc.truncate(order)
+                return acc
             if node.op in "*/":
                 return self._chain(_factors(node), env, order)
             return self._power(node, env, order)
@@ -155,12 +182,18 @@ class Evaluator:
                 return self._sum(node, env, order)
             return self._prod(node, env, order)
         if isinstance(node, Call):
-            args = tuple(self.value(a, env, order) if self.has_q(a) else self.scalar(a, env)
-                         for a in node.args)
+            args = tuple((self._exact_monomial(a, env) or self.value(a, env, order))
+                         if self.has_q(a) else self.scalar(a, env) for a in node.args)
             return FUNCTIONS[node.name].build(args, self.ring, order)
         if isinstance(node, BigO):
-            m = self.integer(node.exponent, env, "the exponent in O(q^e)")
-            return Series.zero(self.ring, m)
+            e = self.scalar(node.exponent, env)
+            if abs(e) > MAX_INTEGER:
+                raise UnableError(f"O(q^{short_number_text(e)}) is beyond the limit")
+            n = _floor(e)
+            frac = e - n
+            if frac == 0:
+                return Series.zero(self.ring, n)
+            return Series(self.ring, self.ring.zero(), n, frac, n)
         raise TypeError(f"not a syntax-tree node: {node!r}")
 
     def _power(self, node: BinOp, env: dict[str, int], order: int) -> Value:
@@ -257,7 +290,7 @@ class Evaluator:
             return coeff
         if coeff == 0 and rest == []:
             return Series.zero(self.ring)
-        inner = order - _ceil(shift)
+        inner = max(order - _ceil(shift), 1)
         acc = self._apply(Series.constant(1, self.ring), rest, env, inner)
         if coeff != 1:
             acc = acc * coeff
@@ -360,31 +393,50 @@ class Evaluator:
     # -- sums and products ------------------------------------------------------------------
     def _range(self, node: BigOp, env: dict[str, int], order: int,
                deviation: bool) -> list[int]:
-        """The values of the bound variable whose terms can matter modulo q^order."""
+        """The values of the bound variable whose terms can matter modulo q^order: infinite
+        directions (and finite ones longer than SPLIT_RANGE) end where the valuation analysis
+        shows that every further term vanishes modulo q^order."""
         lo = None if node.lower is None else self.integer(node.lower, env, "a lower limit")
         hi = None if node.upper is None else self.integer(node.upper, env, "an upper limit")
-        label = _label(node)
         if lo is not None and hi is not None:
             if hi < lo:
                 return []
-            if hi - lo + 1 <= MAX_TERMS:
+            if hi - lo + 1 <= SPLIT_RANGE:
                 return list(range(lo, hi + 1))
-            # a long finite range: cut it where the terms vanish modulo q^order
-            up = self._cutoff(node, env, order, +1, lo, deviation)
-            return list(range(lo, min(hi, up - 1) + 1))
-        ks: list[int] = []
-        if hi is None:
-            start = lo if lo is not None else 0
-            stop = self._cutoff(node, env, order, +1, start, deviation)
-            ks = list(range(start, stop))
-        if lo is None:
-            start = hi if hi is not None else -1
-            stop = self._cutoff(node, env, order, -1, -start, deviation)  # in m = -k
-            ks = list(range(-stop + 1, start + 1)) + ks
-        if len(ks) > MAX_TERMS:
-            raise UnableError(f"{label} needs {len(ks)} terms at this order; the limit is "
-                              f"{MAX_TERMS}")
-        return ks
+            try:
+                return self._cut_range(node, env, order, deviation, lo, hi)
+            except UnableError:
+                if hi - lo + 1 <= MAX_TERMS:
+                    return list(range(lo, hi + 1))
+                raise
+        return self._cut_range(node, env, order, deviation, lo, hi)
+
+    def _cut_range(self, node: BigOp, env: dict[str, int], order: int, deviation: bool,
+                   lo: int | None, hi: int | None) -> list[int]:
+        pieces: list[tuple[int, int]] = []      # inclusive ranges, in increasing order
+        if lo is None or lo < 0:                # the part k <= -1, as m = -k >= 1
+            top = -1 if hi is None else min(hi, -1)
+            if lo is None or top - lo + 1 > SPLIT_RANGE:
+                stop_m = self._cutoff(node, env, order, -1, -top, deviation)
+                first = -(stop_m - 1) if lo is None else max(lo, -(stop_m - 1))
+            else:
+                first = lo
+            if first <= top:
+                pieces.append((first, top))
+        if hi is None or hi >= 0:               # the part k >= 0
+            start = 0 if lo is None else max(lo, 0)
+            if hi is None or hi - start + 1 > SPLIT_RANGE:
+                stop = self._cutoff(node, env, order, +1, start, deviation)
+                last = stop - 1 if hi is None else min(hi, stop - 1)
+            else:
+                last = hi
+            if start <= last:
+                pieces.append((start, last))
+        count = sum(b - a + 1 for a, b in pieces)
+        if count > MAX_TERMS:
+            raise UnableError(f"{_label(node)} needs {count} terms at this order; the limit "
+                              f"is {MAX_TERMS}")
+        return [k for a, b in pieces for k in range(a, b + 1)]
 
     def _cutoff(self, node: BigOp, env: dict[str, int], order: int, sign: int, start: int,
                 deviation: bool) -> int:
@@ -443,8 +495,17 @@ class Evaluator:
         ks = self._range(node, env, order, deviation=False)
         return self._sum_terms(node, ks, env, order)
 
+    def _count_terms(self, node: BigOp, n: int) -> None:
+        self._terms += n
+        if self._terms > MAX_TOTAL_TERMS:
+            raise UnableError(f"the sums and products need more than {MAX_TOTAL_TERMS} terms "
+                              f"together at this order (at {_label(node)})")
+
     def _sum_terms(self, node: BigOp, ks: list[int], env: dict[str, int], order: int) -> Series:
         var = node.var
+        self._count_terms(node, len(ks))
+        if not ks:
+            return Series.zero(self.ring)
         sign, factors = _signed_factors(node.body)
         const_f = [(f, p) for f, p in factors if var not in self.free(f)]
         moving = [(f, p) for f, p in factors if var in self.free(f)]
@@ -578,7 +639,9 @@ class Evaluator:
                 lo, hi = sorted((ns[i - 1], ns[i]))
                 times = p if ns[i] > ns[i - 1] else -p
                 for c, e in params:
-                    for j in range(lo, hi):
+                    # factors 1 - c q^x with x >= w are 1 modulo q^w
+                    top = hi if e < 0 else min(hi, max(lo, -((e - w) // t)))
+                    for j in range(lo, top):
                         x = e + t * j
                         if x < 0:
                             return None
@@ -638,6 +701,10 @@ class Evaluator:
         for param in f.params:
             a = self._param(param, env, keep)
             mono = monomial_parts(a)
+            va = a.valuation
+            if va is not None and va >= 0:
+                # factors 1 - a q^(tj) with val(a) + tj >= keep are 1 modulo q^keep
+                hi = min(hi, max(lo, -((va - keep) // t)))
             for j in range(lo, hi):
                 # (a;q^t)_{j+1} = (a;q^t)_j (1 - a q^(tj))
                 times = p if grow else -p
@@ -648,6 +715,7 @@ class Evaluator:
         if not self.has_q(node.body):
             return self._numbers(node, env)
         ks = self._range(node, env, order, deviation=True)
+        self._count_terms(node, len(ks))
         sign, factors = _signed_factors(node.body)
         acc = Series.constant(1, self.ring)
         for k in ks:
@@ -793,7 +861,8 @@ def _rational_power(base: Fraction, e: Fraction) -> Fraction:
         raise DomainError("division by zero (0 to a negative power)")
     bits = max(abs(base.numerator).bit_length(), abs(base.denominator).bit_length())
     if bits > 1 and abs(n) * bits > MAX_BITS:
-        raise UnableError(f"the number {base}^{n} is too large")
+        raise UnableError(f"the number {short_number_text(base)}^{short_number_text(n)} is "
+                          f"too large")
     return base ** n
 
 

@@ -57,6 +57,7 @@ NOTATION_FORMS = [
     ("O(q^N)", "an unknown remainder of order N"),
 ]
 
+_DIGITS = frozenset("0123456789")
 _SYMBOLS = ["**", ">=", "<=", "+", "-", "*", "/", "^", "(", ")", "{", "}", ",", ";", "_", "=",
             "∞", "<", ">", "[", "]"]
 
@@ -84,9 +85,9 @@ def tokenize(text: str) -> list[Token]:
         if ch.isspace():
             i += 1
             continue
-        if ch.isdigit():
+        if ch in _DIGITS:
             j = i
-            while j < n and text[j].isdigit():
+            while j < n and text[j] in _DIGITS:
                 j += 1
             if j < n and text[j] == "." and j + 1 < n and text[j + 1].isdigit():
                 raise ParseError("decimal numbers are not accepted; write a fraction such as 3/2",

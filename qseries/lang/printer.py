@@ -76,7 +76,14 @@ def _bare(node: Node) -> str:
         return "-" + _fmt(node.operand, 3, True)
     if isinstance(node, BinOp):
         if node.op in "+-":
-            return f"{_fmt(node.left, 1, True)} {node.op} {_fmt(node.right, 2, True)}"
+            spine: list[tuple[str, Node]] = []     # iterative over long sums of terms
+            left: Node = node
+            while isinstance(left, BinOp) and left.op in "+-":
+                spine.append((left.op, left.right))
+                left = left.left
+            parts = [_fmt(left, 1, True)]
+            parts += [f"{op} {_fmt(right, 2, True)}" for op, right in reversed(spine)]
+            return " ".join(parts)
         if node.op in "*/":
             return f"{_fmt(node.left, 2, False)} {node.op} {_fmt(node.right, 3, True)}"
         right = node.right

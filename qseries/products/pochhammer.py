@@ -149,8 +149,12 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         raise UnableError("the base of a q-Pochhammer symbol must be q^t with t >= 1")
     ring = ring or a.ring
     mono = monomial_parts(a)
-    if mono is not None and mono[0] == 1 and mono[1] == t and n is None and ring == a.ring:
-        return euler_product(t, ring, order)
+    if mono is not None and mono[1] == t and n is None and ring == a.ring:
+        if mono[0] == 1:
+            return euler_product(t, ring, order)
+        if mono[0] == -1:       # (-q^t;q^t)_inf = (q^2t;q^2t)_inf / (q^t;q^t)_inf
+            return (euler_product(2 * t, ring, order)
+                    * euler_product(t, ring, order).inverse()).truncate(order)
     acc = _one(a.ring)
     if n is None:
         va = a.valuation
@@ -176,9 +180,11 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
             work = None
         count = n
         va = a.valuation
-        if work is not None and va is not None and va > 0 and a.prec is None:
-            # factors 1 - a q^(tj) with val(a) + tj >= order are 1 modulo q^order
-            count = min(n, max(0, -((va - order) // t)))
+        if work is not None and va is not None:
+            # factors 1 - a q^(tj) with val(a) + tj >= order - v are 1 modulo q^(order - v),
+            # where v <= 0 is the valuation the factors with negative exponents give
+            v = sum(va + t * i for i in range(min(n, int(-va // t) + 1)) if va + t * i < 0)
+            count = min(n, max(1, -((va - (order - v)) // t)))
         for j in range(count):
             acc = _checked(acc, a, mono, t * j, False, work)
     else:

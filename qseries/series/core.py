@@ -33,6 +33,8 @@ from ..errors import DomainError, IncompatibleRingError, UnableError
 Number = int | Fraction
 Exponent = int | Fraction
 
+#: Largest coefficient size (in bits) a power may produce.
+MAX_COEFFICIENT_BITS = 50_000_000
 #: Largest absolute precision (and largest exact polynomial degree) a series may reach.
 MAX_LENGTH = 10_000_000
 
@@ -90,7 +92,7 @@ class Series:
             raise ValueError("offset must lie in [0, 1)")
         # normalise: drop coefficients at or beyond the precision, then leading zeros
         if prec is not None:
-            if prec - start > MAX_LENGTH or prec > MAX_LENGTH:
+            if prec - start > MAX_LENGTH:
                 raise UnableError(f"precision O(q^{prec}) exceeds the limit {MAX_LENGTH}")
             poly = ring.truncate(poly, prec - start)
         v = ring.valuation(poly)
@@ -301,9 +303,11 @@ class Series:
         if top - s > MAX_LENGTH:
             raise UnableError(f"the sum spans {top - s} coefficients, beyond the limit "
                               f"{MAX_LENGTH}")
-        pa = R.shift_up(a.poly, a.start - s)
-        pb = R.shift_up(b.poly, b.start - s)
-        return Series(R, pa + pb, s, a.offset, prec)
+        polys = []
+        for x in (a, b):
+            px = x.poly if prec is None else R.truncate(x.poly, prec - x.start)
+            polys.append(R.shift_up(px, x.start - s) if R.length(px) else px)
+        return Series(R, polys[0] + polys[1], s, a.offset, prec)
 
     __radd__ = __add__
 
@@ -475,9 +479,7 @@ class Series:
         if e < 0:
             return self.inverse(order).power(-e, order)
         if e == 0:
-            if self.is_zero() and self.prec is None:
-                raise DomainError("0^0 is undefined")
-            return Series(self.ring, self.ring.poly([1]), 0)
+            return Series(self.ring, self.ring.poly([1]), 0)  # the empty product, as 0^0 = 1
         if e == 1:
             return self if order is None else self.truncate(order)
         v = self._val_int()
@@ -486,10 +488,14 @@ class Series:
         if v is None:
             if self.prec is None:
                 return Series.zero(R)
-            # (O(q^p))^e = O(q^(e p)) for p >= 0; p < 0 gives no information below
-            p = self.prec * e if self.prec >= 0 else self.prec
+            # (O(q^p))^e = O(q^(e p)): every product of e unknown series of valuation >= p
+            p = self.prec * e
             return Series.zero(R, p + n_off if order is None else min(p + n_off, order))
         start = v * e + n_off
+        bits = R.coefficient_bits(self.poly)
+        if bits and e * (bits + R.length(self.poly).bit_length()) > MAX_COEFFICIENT_BITS:
+            raise UnableError(f"the coefficients of this power would have about "
+                              f"{e * bits} bits, beyond the limit {MAX_COEFFICIENT_BITS}")
         if self.prec is None:
             if order is None:
                 if (R.length(self.poly) - 1) * e > MAX_LENGTH:

@@ -8,6 +8,7 @@
 
 from __future__ import annotations
 
+import sys
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
@@ -15,6 +16,32 @@ if TYPE_CHECKING:
     from .core import Series
 
 Exponent = int | Fraction
+
+
+def number_text(x: int | Fraction) -> str:
+    """str() of an int or Fraction of any size (Python refuses more than 4300 digits by
+    default; the limit is lifted only for this conversion).
+
+    >>> len(number_text(10**5000))
+    5001
+    """
+    try:
+        return str(x)
+    except ValueError:
+        old = sys.get_int_max_str_digits()
+        sys.set_int_max_str_digits(0)
+        try:
+            return str(x)
+        finally:
+            sys.set_int_max_str_digits(old)
+
+
+def short_number_text(x: int | Fraction, digits: int = 60) -> str:
+    """The number, or a description of it when it is very long (for error messages)."""
+    n = abs(Fraction(x).numerator).bit_length() + Fraction(x).denominator.bit_length()
+    if n * 0.302 > digits * 2:
+        return f"a number of about {int(n * 0.30103)} digits"
+    return number_text(x)
 
 
 def format_exponent(e: Exponent) -> str:
@@ -43,14 +70,15 @@ def format_term(e: Exponent, c: int | Fraction, first: bool) -> str:
     sign = "-" if c < 0 else "+"
     a = abs(c)
     mono = format_exponent(e)
+    text = number_text(a)
     if mono == "1":
-        body = str(a)
+        body = text
     elif a == 1:
         body = mono
     elif a.denominator == 1:
-        body = f"{a}{mono}"
+        body = f"{text}{mono}"
     else:
-        body = f"({a}){mono}"
+        body = f"({text}){mono}"
     if first:
         return body if sign == "+" else f"-{body}"
     return f"{sign} {body}"
@@ -74,6 +102,6 @@ def format_series(s: Series, max_terms: int | None = None) -> str:
     else:
         parts = [format_term(e, c, i == 0) for i, (e, c) in enumerate(terms)]
     if s.precision is not None:
-        big_o = f"O({format_exponent(s.precision)})" if s.precision != 0 else "O(1)"
+        big_o = f"O({format_exponent(s.precision)})" if s.precision != 0 else "O(q^0)"
         parts.append(f"+ {big_o}" if parts else big_o)
     return " ".join(parts) if parts else "0"

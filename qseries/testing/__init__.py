@@ -18,13 +18,15 @@ from __future__ import annotations
 from ..analysis import CheckResult, check
 from ..lang import Node
 from ..series import ZZ, Ring
+from ..series.formatting import number_text
 
 
 def mismatch_report(r: CheckResult, radius: int = 2) -> str:
     """The verdict and a table of coefficients around the first mismatch."""
     lines = [r.verdict]
     rows = [("exponent", "left", "right", "difference")] + [
-        (str(e), str(a), str(b), str(a - b)) for e, a, b in r.neighbours(radius)]
+        (str(e), number_text(a), number_text(b), number_text(a - b))
+        for e, a, b in r.neighbours(radius)]
     if len(rows) > 1:
         widths = [max(len(row[i]) for row in rows) for i in range(4)]
         lines += ["  " + "  ".join(c.rjust(w) for c, w in zip(row, widths, strict=True))

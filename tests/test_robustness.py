@@ -1,0 +1,88 @@
+"""Regression tests for inputs found by fuzzing: each gives a right answer or a clear
+QSeriesError quickly -- never a wrong answer, a traceback, a process abort or a hang."""
+
+import subprocess
+import sys
+from fractions import Fraction
+
+import pytest
+
+from qseries import check, evaluate
+from qseries.errors import QSeriesError
+
+
+@pytest.mark.parametrize("text", [
+    "gaussian(10^12, 5)", "O(q^(-10^12)) + q", "gaussian(2^64, 5)",
+    "sum_{j=-10^30}^{61} q^j", "O(q^-53612899506967378093) - 2",
+    "2^2^2^2^2^2", "(q;q)_(-((10^2000)^3))", "O(q^((10^2000)^3))",
+    "sum_{k=-10^12}^{10^12} q^(k^2)", "sum_{n>=0} q^(n-10^12)", "sum_{n>=0} q^(n-10^9)",
+    "gaussian(10^9, 2)", "(q+10^100)^(10^6)",
+])
+def test_huge_inputs_are_refused_or_answered(text):
+    try:
+        s = evaluate(text, 50)
+    except QSeriesError:
+        return
+    assert s.precision is None or s.precision <= 50
+
+
+@pytest.mark.parametrize("text, order", [
+    ("(-1;q)_(10^6)", 50), ("(2;q)_(10^6)", 50), ("(1;q)_(10^7)", 50),
+    ("sum_{k=0}^{4000000} q^(k^2)", 50), ("sum_{k=-10^7}^{0} q^(k^2)", 50),
+    ("sum_{k>=0} q^(k^2)/(q;q)_(10^6 k)", 50), ("gaussian(10^7, 77)", 50),
+])
+def test_large_but_cheap_inputs_are_fast(text, order):
+    s = evaluate(text, order)
+    assert s.precision is None or s.precision >= order
+
+
+def test_large_finite_sums_are_cut_correctly():
+    # sum_{k=-10^7}^{0} q^(k^2) = 1 + q + q^4 + ... (k <= 0 only)
+    s = evaluate("sum_{k=-10^7}^{0} q^(k^2)", 50)
+    assert [e for e, _ in s.terms()] == [k * k for k in range(8)]
+    assert evaluate("(-1;q)_(10^6)", 30) == evaluate("2 (-q;q)_inf", 30)
+
+
+def test_theta_and_eta_of_high_powers_of_q():
+    assert evaluate("theta3(q^60)", 50).coefficient_list(50) == [1] + [0] * 49
+    # eta(60 tau) = q^(5/2) (q^60;q^60)_inf: only its first term lies below q^50
+    assert list(evaluate("eta(q^60)", 50).terms()) == [(Fraction(5, 2), 1)]
+
+
+def test_powers_of_q_beyond_the_order_in_quotients():
+    assert check("q^10/(1-q)", "sum_{k>=10} q^k", order=10).holds
+    assert check("q^50/(1-q)", "0", order=50).holds
+    assert evaluate("q^(10^24)/(1+q^-1)", 20).is_zero()
+
+
+def test_unknown_remainders():
+    assert evaluate("O(q^-5)^2", 10).precision == -10
+    assert evaluate("O(q^(1201/24))", 100).precision == Fraction(1201, 24)
+    r = check("O(q^-100000) + (-q;q)_inf", "(-q;q)_inf", order=50)
+    assert r.order_verified == -100000
+
+
+def test_empty_sum_is_exactly_zero_and_powers_zero():
+    assert evaluate("sum_{k=3}^{2} q^k", 50).is_exact
+    assert evaluate("(q-q)^0", 5) == evaluate("0^0", 5)
+
+
+def test_long_sums_of_terms_round_trip():
+    s = evaluate("1/(1-q)", 1500)
+    text = str(s).split(" + O(")[0]
+    assert evaluate(text, 1500).coefficient_list(1500) == [1] * 1500
+
+
+def test_huge_coefficients_print():
+    from typer.testing import CliRunner
+
+    from qseries.cli.main import app
+    r = CliRunner().invoke(app, ["expand", "1/(1-2q)", "-n", "15000", "--json"])
+    assert r.exit_code == 0 and len(r.stdout) > 15000 * 100
+
+
+@pytest.mark.parametrize("text", ["q²", "①", "q^²"])
+def test_non_ascii_digits_are_parse_errors(text):
+    r = subprocess.run([sys.executable, "-m", "qseries", "expand", text], capture_output=True,
+                       text=True)
+    assert r.returncode == 2 and "Traceback" not in r.stderr
