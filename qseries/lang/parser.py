@@ -307,6 +307,11 @@ class _Parser:
     def subscript(self, what: str) -> Node | None:
         """After ``_``: None for infinity, else the length expression."""
         self.expect("_", f" after {what}")
+        return self.short_operand(f"a subscript after '_' in {what}")
+
+    def short_operand(self, what: str) -> Node | None:
+        """A subscript or an upper limit: inf (None), a number, a bound variable, or an
+        expression in parentheses or braces."""
         t = self.tok
         if self.at("inf", "∞"):
             self.take()
@@ -329,8 +334,8 @@ class _Parser:
             return node
         if t.kind == "name":
             raise self.error(_unknown_name_message(t.text, self.bound))
-        raise self.error(f"expected a subscript (a number, a bound variable, inf, or "
-                         f"an expression in parentheses) after '_' in {what}")
+        raise self.error(f"expected {what}: a number, a bound variable, inf, or an "
+                         f"expression in parentheses")
 
     def bigop(self) -> Node:
         t = self.take()
@@ -389,27 +394,7 @@ class _Parser:
         return self.expr()
 
     def upper_bound(self) -> Node | None:
-        t = self.tok
-        if self.at("inf", "∞"):
-            self.take()
-            return None
-        if self.at("{", "("):
-            close = "}" if t.text == "{" else ")"
-            self.take()
-            if self.at("inf", "∞"):
-                self.take()
-                self.expect(close)
-                return None
-            node = self.expr()
-            self.expect(close)
-            return node
-        if t.kind == "num":
-            self.take()
-            return Num(Fraction(int(t.text)), t.pos)
-        if t.kind == "name" and t.text in self.bound:
-            self.take()
-            return Name(t.text, t.pos)
-        raise self.error("expected an upper limit: a number, a variable, inf, or {...}")
+        return self.short_operand("an upper limit")
 
 
 def _unknown_name_message(name: str, bound: list[str]) -> str:
