@@ -837,11 +837,6 @@ def _times_binomial(acc: Series, a: Series, mono: tuple | None, shift: int, time
     return acc
 
 
-def _vint(s: Series) -> int:
-    v = s.valuation
-    return _floor(v) if v is not None else 0
-
-
 def _floor(x: Fraction | int) -> int:
     x = Fraction(x)
     return x.numerator // x.denominator
