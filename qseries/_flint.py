@@ -27,7 +27,8 @@ from .errors import DomainError, IncompatibleRingError, UnableError
 
 Number = int | Fraction
 
-__all__ = ["ZZ", "QQ", "GF", "Ring", "is_prime", "join_rings", "partitions_p", "FLINT_VERSION"]
+__all__ = ["ZZ", "QQ", "GF", "Ring", "int_to_decimal", "is_prime", "join_rings", "partitions_p",
+           "FLINT_VERSION"]
 
 FLINT_VERSION: str = flint.__version__
 
@@ -353,6 +354,15 @@ class _ModularRing(Ring):
 
 ZZ: Ring = _IntegerRing()
 QQ: Ring = _RationalRing()
+
+
+def int_to_decimal(n: int) -> str:
+    """Decimal text of an integer of any size, by GMP (fast for huge numbers).
+
+    >>> int_to_decimal(-12345678901234567890)
+    '-12345678901234567890'
+    """
+    return flint.fmpz(n).str()
 
 
 def is_prime(n: int) -> bool:

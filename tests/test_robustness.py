@@ -86,3 +86,23 @@ def test_non_ascii_digits_are_parse_errors(text):
     r = subprocess.run([sys.executable, "-m", "qseries", "expand", text], capture_output=True,
                        text=True)
     assert r.returncode == 2 and "Traceback" not in r.stderr
+
+
+@pytest.mark.parametrize("text", [
+    "(q,-q^(10^18);q)_(10^12)", "sum_{k=0}^{3000} sum_{n=0}^{3000} q^(k+n)",
+    "sum_{k>=0} q^((k-10^6)^2)", "sum_{k>=0} q^(k^2 - 10^6 k)", "(q + 2)^(10^7)",
+])
+def test_more_large_inputs_end_quickly(text):
+    try:
+        s = evaluate(text, 50)
+    except QSeriesError:
+        return
+    assert s.precision is None or s.precision <= 50
+
+
+def test_large_coefficients_print_quickly():
+    from qseries.series.formatting import number_text
+    s = evaluate("(q + 2)^(10^6)", 5)
+    first = str(s).split(" ")[0]
+    assert s.coefficient(0) == 2 ** 10**6
+    assert first == number_text(2 ** 10**6) and len(first) == 301030

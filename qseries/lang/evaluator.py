@@ -33,11 +33,11 @@ Value = Fraction | Series
 RETRY_FACTOR = 4
 RETRY_SLACK = 2000
 #: most terms (or factors) a single sum (or product) may evaluate
-MAX_TERMS = 2_000_000
+MAX_TERMS = 1_000_000
 #: most terms all the sums and products of one evaluation may evaluate together
-MAX_TOTAL_TERMS = 4_000_000
+MAX_TOTAL_TERMS = 1_000_000
 #: finite ranges longer than this are cut by the valuation analysis where it applies
-SPLIT_RANGE = 10_000
+SPLIT_RANGE = 256
 #: largest integer accepted as an exponent of q, a limit of a sum or a subscript
 MAX_INTEGER = 10**18
 #: largest bit size of a rational constant built by powers
@@ -236,7 +236,7 @@ class Evaluator:
             return Series.monomial(1, self.ring, c)
         if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Q):
             e = self.scalar(node.right, env)
-            if abs(e) <= MAX_LENGTH:
+            if abs(e) <= MAX_INTEGER:
                 return Series.monomial(e, self.ring, c)
         return None
 

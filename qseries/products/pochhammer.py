@@ -173,6 +173,14 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         return acc.truncate(order)
     if n < -MAX_FACTORS:
         raise UnableError(f"a q-Pochhammer symbol with {abs(n)} factors is too large")
+    if a.is_zero() and n != 0:
+        # a = O(q^p) with p >= 1: every factor, and so the product, is 1 + O(q^p)
+        if a.prec is None:
+            return acc
+        if a.prec < 1:
+            raise UnableError(f"a q-Pochhammer parameter known only to O(q^{a.prec}) gives "
+                              f"no information")
+        return acc.truncate(a.prec)
     if n >= 0:
         # a short product of binomials stays an exact polynomial
         work: int | None = order

@@ -34,7 +34,7 @@ Number = int | Fraction
 Exponent = int | Fraction
 
 #: Largest coefficient size (in bits) a power may produce.
-MAX_COEFFICIENT_BITS = 50_000_000
+MAX_COEFFICIENT_BITS = 10_000_000
 #: Largest absolute precision (and largest exact polynomial degree) a series may reach.
 MAX_LENGTH = 10_000_000
 

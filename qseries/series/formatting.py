@@ -8,9 +8,10 @@
 
 from __future__ import annotations
 
-import sys
 from fractions import Fraction
 from typing import TYPE_CHECKING
+
+from .._flint import int_to_decimal
 
 if TYPE_CHECKING:
     from .core import Series
@@ -25,15 +26,12 @@ def number_text(x: int | Fraction) -> str:
     >>> len(number_text(10**5000))
     5001
     """
-    try:
-        return str(x)
-    except ValueError:
-        old = sys.get_int_max_str_digits()
-        sys.set_int_max_str_digits(0)
-        try:
-            return str(x)
-        finally:
-            sys.set_int_max_str_digits(old)
+    if isinstance(x, Fraction) and x.denominator != 1:
+        return f"{number_text(x.numerator)}/{number_text(x.denominator)}"
+    n = int(x)
+    if n.bit_length() < 10_000:
+        return str(n)
+    return int_to_decimal(n)   # GMP: Python's own conversion is quadratic and capped
 
 
 def short_number_text(x: int | Fraction, digits: int = 60) -> str:
