@@ -106,3 +106,12 @@ def test_large_coefficients_print_quickly():
     first = str(s).split(" ")[0]
     assert s.coefficient(0) == 2 ** 10**6
     assert first == number_text(2 ** 10**6) and len(first) == 301030
+
+
+@pytest.mark.parametrize("text", [
+    "((q^-209723806412945781;q)_inf*((2;q^5)_inf))^2",
+    "(sum_{k=-0}^{205948} (-q;q^2)_(-k))^5",
+])
+def test_inputs_from_random_fuzzing_end_quickly(text):
+    with pytest.raises(QSeriesError):
+        evaluate(text, 50)

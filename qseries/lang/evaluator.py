@@ -38,6 +38,8 @@ MAX_TERMS = 1_000_000
 MAX_TOTAL_TERMS = 1_000_000
 #: finite ranges longer than this are cut by the valuation analysis where it applies
 SPLIT_RANGE = 256
+#: a finite range the analysis cannot cut is evaluated in full only up to this length
+FALLBACK_RANGE = 20_000
 #: largest integer accepted as an exponent of q, a limit of a sum or a subscript
 MAX_INTEGER = 10**18
 #: largest bit size of a rational constant built by powers
@@ -405,10 +407,12 @@ class Evaluator:
                 return list(range(lo, hi + 1))
             try:
                 return self._cut_range(node, env, order, deviation, lo, hi)
-            except UnableError:
-                if hi - lo + 1 <= MAX_TERMS:
+            except UnableError as why:
+                if hi - lo + 1 <= FALLBACK_RANGE:
                     return list(range(lo, hi + 1))
-                raise
+                raise UnableError(f"{_label(node)} has {hi - lo + 1} terms, more than "
+                                  f"{FALLBACK_RANGE} that can be evaluated one by one, and the "
+                                  f"valuation analysis cannot cut the range: {why}") from None
         return self._cut_range(node, env, order, deviation, lo, hi)
 
     def _cut_range(self, node: BigOp, env: dict[str, int], order: int, deviation: bool,

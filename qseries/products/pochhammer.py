@@ -163,7 +163,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         # factors 1 - a q^(tj) with negative valuation give the product valuation v < 0; the
         # factors left out are 1 + O(q^e), which only leave the product exact below
         # q^(e + v): so go on to e >= order - v
-        v = sum(va + t * i for i in range(int(-va // t) + 1) if va + t * i < 0)
+        v = _negative_valuation(va, t, None)
         j = 0
         while va + t * j < order - v:
             acc = _checked(acc, a, mono, t * j, False, order - v)
@@ -191,7 +191,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         if work is not None and va is not None:
             # factors 1 - a q^(tj) with val(a) + tj >= order - v are 1 modulo q^(order - v),
             # where v <= 0 is the valuation the factors with negative exponents give
-            v = sum(va + t * i for i in range(min(n, int(-va // t) + 1)) if va + t * i < 0)
+            v = _negative_valuation(va, t, n)
             count = min(n, max(1, -((va - (order - v)) // t)))
         for j in range(count):
             acc = _checked(acc, a, mono, t * j, False, work)
@@ -199,6 +199,21 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         for j in range(n, 0):
             acc = _checked(acc, a, mono, t * j, True, order)
     return acc.truncate(order)
+
+
+def _negative_valuation(va: int | Fraction, t: int, n: int | None) -> Fraction:
+    """Sum of va + t*i over the factors i (i < n when n is given) where it is negative: the
+    valuation those factors 1 - a q^(ti) give the product."""
+    va = Fraction(va)
+    if va >= 0:
+        return Fraction(0)
+    k = -((va) // t)          # i < k  <=>  va + t i < 0  (ceil(-va / t))
+    if n is not None:
+        k = min(k, n)
+    if k > MAX_FACTORS:
+        raise UnableError(f"a q-Pochhammer symbol with {k} factors of negative valuation is "
+                          f"too large")
+    return k * va + t * k * (k - 1) // 2
 
 
 def _checked(acc: Series, a: Series, mono: tuple | None, shift: int, invert: bool,
