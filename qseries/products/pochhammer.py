@@ -149,12 +149,20 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         raise UnableError("the base of a q-Pochhammer symbol must be q^t with t >= 1")
     ring = ring or a.ring
     mono = monomial_parts(a)
-    if mono is not None and mono[1] == t and n is None and ring == a.ring:
+    if mono is not None and n is None and ring == a.ring and mono[0] in (1, -1) and \
+            mono[1].denominator == 1 and mono[1] >= t and mono[1] % t == 0:
+        # (+-q^(kt);q^t)_inf = (+-q^t;q^t)_inf / (+-q^t;q^t)_(k-1): Euler's product, and
+        # (-q^t;q^t)_inf = (q^2t;q^2t)_inf / (q^t;q^t)_inf, then k-1 binomial divisions
         if mono[0] == 1:
-            return euler_product(t, ring, order)
-        if mono[0] == -1:       # (-q^t;q^t)_inf = (q^2t;q^2t)_inf / (q^t;q^t)_inf
-            return (euler_product(2 * t, ring, order)
-                    * euler_product(t, ring, order).inverse()).truncate(order)
+            acc = euler_product(t, ring, order)
+        else:
+            acc = (euler_product(2 * t, ring, order)
+                   * euler_product(t, ring, order).inverse()).truncate(order)
+        for i in range(1, int(mono[1]) // t):
+            if t * i >= order:
+                break
+            acc = acc.div_binomial(mono[0], t * i, order)
+        return acc
     acc = _one(a.ring)
     if n is None:
         va = a.valuation

@@ -1,0 +1,56 @@
+"""q-Pochhammer builders: every fast path against the factor-by-factor product."""
+
+import pytest
+
+from qseries.products import euler_product, pochhammer, theta_pair_power, triple_product_sum
+from qseries.series import GF, QQ, ZZ, Series
+
+N = 90
+
+
+def slow_infinite(c: int, e: int, t: int, ring=ZZ) -> Series:
+    """prod_{j>=0} (1 - c q^(e+tj)) modulo q^N, one binomial at a time."""
+    acc = Series.constant(1, ring)
+    j = 0
+    while e + t * j < N:
+        acc = acc.mul_binomial(c, e + t * j, N)
+        j += 1
+    return acc.truncate(N)
+
+
+@pytest.mark.parametrize("c, e, t", [(1, 1, 1), (1, 3, 1), (1, 6, 3), (-1, 2, 2), (-1, 5, 1),
+                                     (1, 4, 2), (-1, 9, 3)])
+def test_euler_based_fast_paths(c, e, t):
+    fast = pochhammer(Series.monomial(e, c=c), t, None, N)
+    assert fast == slow_infinite(c, e, t)
+
+
+@pytest.mark.parametrize("a, m", [(1, 2), (1, 5), (2, 5), (3, 7), (1, 8)])
+def test_triple_product_pairs(a, m):
+    # Jacobi's triple product (Andrews, The Theory of Partitions, 1976, Thm. 2.8)
+    full = (slow_infinite(1, a, m) * slow_infinite(1, m - a, m) * slow_infinite(1, m, m))
+    assert triple_product_sum(a, m, ZZ, N) == full.truncate(N)
+    pair = (slow_infinite(1, a, m) * slow_infinite(1, m - a, m)).truncate(N)
+    assert theta_pair_power(a, m, 1, ZZ, N) == pair
+    assert theta_pair_power(a, m, -2, ZZ, N) == pair.power(-2, N)
+
+
+def test_euler_product_in_every_ring():
+    for ring in (ZZ, QQ, GF(101)):
+        assert euler_product(2, ring, N).coefficient_list(N) == \
+            slow_infinite(1, 2, 2, ring).coefficient_list(N)
+
+
+def test_finite_products_and_negative_subscripts():
+    q = Series.monomial(1)
+    assert pochhammer(q, 1, 4, N) == slow_finite(q, 4)
+    # (a;q)_(-n) = 1/(a q^(-n);q)_n
+    assert pochhammer(Series.monomial(5), 1, -2, N) == \
+        slow_finite(Series.monomial(3), 2).inverse(order=N)
+
+
+def slow_finite(a: Series, n: int) -> Series:
+    acc = Series.constant(1)
+    for j in range(n):
+        acc = acc * (Series.constant(1) - a.shift(j))
+    return acc
