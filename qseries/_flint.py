@@ -145,9 +145,6 @@ class Ring:
             return a.truncate(0)
         return a.mul_low(b, n)
 
-    def scale(self, p: Any, c: Number) -> Any:
-        return p * self.coerce(c)
-
     @staticmethod
     def pow_low(p: Any, e: int, n: int) -> Any:
         if n <= 0:
@@ -324,9 +321,6 @@ class _ModularRing(Ring):
         if p.length() == 0 or not self.is_unit(p[0]):
             raise DomainError(f"constant term is not invertible modulo {self.p}")
         return p.inverse_series_trunc(n)
-
-    def scale(self, p: Any, c: Number) -> Any:
-        return p * int(self.coerce(c))
 
     def _multiplier(self, c: Number) -> Any:
         return int(self.coerce(c))

@@ -17,6 +17,8 @@ from qseries.errors import QSeriesError
     "2^2^2^2^2^2", "(q;q)_(-((10^2000)^3))", "O(q^((10^2000)^3))",
     "sum_{k=-10^12}^{10^12} q^(k^2)", "sum_{n>=0} q^(n-10^12)", "sum_{n>=0} q^(n-10^9)",
     "gaussian(10^9, 2)", "(q+10^100)^(10^6)",
+    "(q,-q^(10^18);q)_(10^12)", "sum_{k=0}^{3000} sum_{n=0}^{3000} q^(k+n)",
+    "sum_{k>=0} q^((k-10^6)^2)", "sum_{k>=0} q^(k^2 - 10^6 k)", "(q + 2)^(10^7)",
 ])
 def test_huge_inputs_are_refused_or_answered(text):
     try:
@@ -86,18 +88,6 @@ def test_non_ascii_digits_are_parse_errors(text):
     r = subprocess.run([sys.executable, "-m", "qseries", "expand", text], capture_output=True,
                        text=True)
     assert r.returncode == 2 and "Traceback" not in r.stderr
-
-
-@pytest.mark.parametrize("text", [
-    "(q,-q^(10^18);q)_(10^12)", "sum_{k=0}^{3000} sum_{n=0}^{3000} q^(k+n)",
-    "sum_{k>=0} q^((k-10^6)^2)", "sum_{k>=0} q^(k^2 - 10^6 k)", "(q + 2)^(10^7)",
-])
-def test_more_large_inputs_end_quickly(text):
-    try:
-        s = evaluate(text, 50)
-    except QSeriesError:
-        return
-    assert s.precision is None or s.precision <= 50
 
 
 def test_large_coefficients_print_quickly():

@@ -386,8 +386,6 @@ class Evaluator:
             acc = (acc * den.inverse(order=order - shift_num)).truncate(order)
         for c, j, p in binoms:
             if p < 0:
-                if c == 1 and j == 0:
-                    raise DomainError("division by zero")
                 for _ in range(-p):
                     acc = acc.div_binomial(c, j, order)
         return acc.truncate(order)
