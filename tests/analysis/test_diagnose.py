@@ -49,3 +49,13 @@ def test_swapped_rogers_ramanujan_sides_show_the_ratio():
     (hint,) = diagnose(r)
     assert hint.kind == "product-factor"
     assert "(q^2, q^3;q^5)_inf (q, q^4;q^5)_inf^-1" in hint.message
+
+
+def test_hints_after_a_modular_check_claim_only_what_was_computed():
+    # regression: after a modular check the two sides are recomputed exactly only just past
+    # the mismatch, so a hint must not speak of the whole order (p(100) from memory:
+    # 190569292, also FLINT's partitions_p)
+    r = check("1/(q;q)_inf", "1/(q;q)_inf + q^100", order=6000, method="modular", seed=1)
+    assert r.first_mismatch.lhs == 190569292
+    for hint in diagnose(r):
+        assert "6000" not in hint.message
