@@ -27,7 +27,8 @@ from .errors import DomainError, IncompatibleRingError, UnableError
 
 Number = int | Fraction
 
-__all__ = ["ZZ", "QQ", "GF", "Ring", "int_to_decimal", "is_prime", "join_rings", "partitions_p",
+__all__ = ["ZZ", "QQ", "GF", "Ring", "LaurentPoly", "laurent_ring", "laurent_text",
+           "int_to_decimal", "is_prime", "join_rings", "partitions_p",
            "FLINT_VERSION"]
 
 FLINT_VERSION: str = flint.__version__
@@ -54,6 +55,11 @@ class Ring:
 
     name: str = "?"
     exact: bool = True
+
+    @property
+    def fractions(self) -> Ring:
+        """The ring with the same variables over QQ (itself when it is a field)."""
+        return QQ if self is ZZ else self
 
     # -- construction and conversion -------------------------------------------------
     def coerce(self, c: Number) -> Any:  # pragma: no cover - abstract
@@ -346,6 +352,410 @@ class _ModularRing(Ring):
         return self.name
 
 
+class LaurentPoly:
+    """A polynomial in q whose coefficients are Laurent polynomials in the extra variables:
+    ``x^shift * m`` with ``m`` a FLINT polynomial in (q, x1, ..., xk).  Kept normalised
+    (``shift`` is the least exponent of each extra variable in use), so equal elements have
+    equal parts.  Scalars of a Laurent ring are the elements free of q.
+
+    >>> R = laurent_ring(("z",))
+    >>> z = R.gen("z")
+    >>> (z + z**-1) ** 2
+    z^2 + 2 + z^-2
+    """
+
+    __slots__ = ("ring", "m", "shift")
+
+    def __init__(self, ring: _LaurentRing, m: Any, shift: tuple[int, ...]) -> None:
+        if m.is_zero():
+            shift = ring._no_shift
+        else:
+            lows = tuple(int(x) for x in m.term_content().degrees()[1:])
+            if any(lows):
+                m = m / ring._monomial(0, lows)
+                shift = tuple(s + lo for s, lo in zip(shift, lows, strict=True))
+        self.ring = ring
+        self.m = m
+        self.shift = shift
+
+    # -- arithmetic ----------------------------------------------------------------------
+    def _lift(self, other: Any) -> LaurentPoly:
+        if isinstance(other, LaurentPoly):
+            if other.ring is not self.ring:
+                other = self.ring.coerce(other)
+            return other
+        return self.ring.coerce(other)
+
+    def _aligned(self, other: LaurentPoly) -> tuple[Any, Any, tuple[int, ...]]:
+        if self.shift == other.shift:
+            return self.m, other.m, self.shift
+        low = tuple(min(a, b) for a, b in zip(self.shift, other.shift, strict=True))
+        R = self.ring
+        a = self.m * R._monomial(0, [s - lo for s, lo in zip(self.shift, low, strict=True)])
+        b = other.m * R._monomial(0, [s - lo for s, lo in zip(other.shift, low, strict=True)])
+        return a, b, low
+
+    def __add__(self, other: Any) -> LaurentPoly:
+        other = self._lift(other)
+        a, b, s = self._aligned(other)
+        return LaurentPoly(self.ring, a + b, s)
+
+    __radd__ = __add__
+
+    def __neg__(self) -> LaurentPoly:
+        return LaurentPoly(self.ring, -self.m, self.shift)
+
+    def __sub__(self, other: Any) -> LaurentPoly:
+        return self + (-self._lift(other))
+
+    def __rsub__(self, other: Any) -> LaurentPoly:
+        return self._lift(other) + (-self)
+
+    def __mul__(self, other: Any) -> LaurentPoly:
+        other = self._lift(other)
+        return LaurentPoly(self.ring, self.m * other.m,
+                           tuple(a + b for a, b in zip(self.shift, other.shift, strict=True)))
+
+    __rmul__ = __mul__
+
+    def __pow__(self, e: int) -> LaurentPoly:
+        if e < 0:
+            return self.ring._unit_inverse(self) ** (-e)
+        return LaurentPoly(self.ring, self.m ** e, tuple(s * e for s in self.shift))
+
+    def __eq__(self, other: object) -> bool:
+        if isinstance(other, (int, Fraction)) or isinstance(other, (flint.fmpz, flint.fmpq)):
+            other = self.ring.coerce(other)
+        if not isinstance(other, LaurentPoly):
+            return NotImplemented
+        return self.shift == other.shift and self.m == other.m
+
+    def __hash__(self) -> int:
+        return hash((self.shift, str(self.m)))
+
+    def __bool__(self) -> bool:
+        return not self.m.is_zero()
+
+    # -- text ------------------------------------------------------------------------------
+    def terms(self) -> list[tuple[tuple[int, ...], Number]]:
+        """(exponents of q and the extra variables, coefficient), highest first."""
+        out = []
+        for exps, c in self.m.to_dict().items():
+            shifted = (int(e) + s for e, s in zip(exps[1:], self.shift, strict=True))
+            out.append(((int(exps[0]), *shifted), _number(c)))
+        out.sort(key=lambda t: (sum(t[0][1:]), t[0][1:]), reverse=True)
+        return out
+
+    def __repr__(self) -> str:
+        return laurent_text(self)
+
+
+def _number(c: Any) -> Number:
+    if isinstance(c, flint.fmpq):
+        f = Fraction(int(c.p), int(c.q))
+        return f.numerator if f.denominator == 1 else f
+    return int(c)
+
+
+def laurent_text(c: LaurentPoly) -> str:
+    """ASCII text of a scalar of a Laurent ring: ``z^2 - z``, ``3*a*z^-1``, ``(1/2)*z``.
+
+    >>> R = laurent_ring(("a", "z"))
+    >>> a, z = R.gen("a"), R.gen("z")
+    >>> laurent_text(2 * a * z**-1 - a**2 + 1)
+    '-a^2 + 2*a*z^-1 + 1'
+    """
+    names = c.ring.names
+    parts: list[str] = []
+    for exps, coef in c.terms():
+        factors = []
+        for name, e in zip(names, exps[1:], strict=True):
+            if e:
+                factors.append(name if e == 1 else f"{name}^{e}")
+        if exps[0]:
+            factors.append("q" if exps[0] == 1 else f"q^{exps[0]}")
+        mono = "*".join(factors)
+        neg = coef < 0
+        a = -coef if neg else coef
+        num = str(a) if isinstance(a, int) else f"({a})"
+        body = num if not mono else (mono if a == 1 else f"{num}*{mono}")
+        if not parts:
+            parts.append(f"-{body}" if neg else body)
+        else:
+            parts.append(f"- {body}" if neg else f"+ {body}")
+    return " ".join(parts) if parts else "0"
+
+
+class _LaurentRing(Ring):
+    """Polynomials (truncated series) in q with coefficients Laurent polynomials in named
+    extra variables, over ZZ or QQ (FLINT's fmpz_mpoly / fmpq_mpoly, q first)."""
+
+    def __init__(self, names: tuple[str, ...], rational: bool) -> None:
+        self.names = names
+        self.rational = rational
+        base = "QQ" if rational else "ZZ"
+        self.name = f"{base}[{', '.join(names)} and inverses]"
+        kind = flint.fmpq_mpoly_ctx if rational else flint.fmpz_mpoly_ctx
+        self.ctx = kind.get(("q", *names), "lex")
+        self._q = self.ctx.gen(0)
+        self._no_shift = (0,) * len(names)
+        self._qpowers: dict[int, Any] = {}
+
+    # -- helpers -------------------------------------------------------------------------
+    def _monomial(self, qexp: int, exps: Any) -> Any:
+        return self.ctx.term(exp_vec=(qexp, *exps))
+
+    def _qpow(self, n: int) -> Any:
+        v = self._qpowers.get(n)
+        if v is None:
+            v = self._q ** n
+            if len(self._qpowers) < 64:
+                self._qpowers[n] = v
+        return v
+
+    def _wrap(self, m: Any, shift: tuple[int, ...] | None = None) -> LaurentPoly:
+        return LaurentPoly(self, m, self._no_shift if shift is None else shift)
+
+    def gen(self, name: str) -> LaurentPoly:
+        """The extra variable ``name`` as a scalar."""
+        i = self.names.index(name)
+        return self._wrap(self.ctx.gen(i + 1))
+
+    @property
+    def fractions(self) -> Ring:
+        return laurent_ring(self.names, rational=True)
+
+    # -- construction and conversion -------------------------------------------------
+    def coerce(self, c: Any) -> LaurentPoly:
+        if isinstance(c, LaurentPoly):
+            if c.ring is self:
+                return c
+            if c.ring.names != self.names:
+                raise IncompatibleRingError(f"cannot combine {c.ring.name} and {self.name}")
+            if not self.rational and c.ring.rational:
+                raise IncompatibleRingError(f"{c} has non-integer coefficients")
+            return self._wrap(self.ctx.from_dict(c.m.to_dict()), c.shift)
+        if isinstance(c, bool):
+            raise TypeError("booleans are not coefficients")
+        if isinstance(c, Fraction):
+            if c.denominator != 1:
+                if not self.rational:
+                    raise IncompatibleRingError(f"{c} is not an integer")
+                return self._wrap(self.ctx.constant(flint.fmpq(c.numerator, c.denominator)))
+            c = c.numerator
+        if isinstance(c, flint.fmpq):
+            if not self.rational and c.q != 1:
+                raise IncompatibleRingError(f"{c} is not an integer")
+            return self._wrap(self.ctx.constant(c if self.rational else flint.fmpz(c.p)))
+        return self._wrap(self.ctx.constant(int(c)))
+
+    def poly(self, coeffs: list) -> LaurentPoly:
+        acc = self.zero()
+        for i, c in enumerate(coeffs):
+            if c:
+                acc = acc + self.coerce(c) * self._wrap(self._qpow(i))
+        return acc
+
+    def zero(self) -> LaurentPoly:
+        return self._wrap(self.ctx.constant(0))
+
+    def poly_from_ints(self, coeffs: list[int]) -> LaurentPoly:
+        k = len(self.names)
+        return self._wrap(self.ctx.from_dict({(i, *([0] * k)): c
+                                              for i, c in enumerate(coeffs) if c}))
+
+    def convert(self, p: Any) -> LaurentPoly:
+        if isinstance(p, LaurentPoly):
+            return self.coerce(p)
+        if isinstance(p, (flint.fmpz_poly, flint.fmpq_poly)):
+            k = len(self.names)
+            d = {}
+            for i, c in enumerate(p.coeffs()):
+                if c != 0:
+                    d[(i, *([0] * k))] = c if self.rational or isinstance(c, flint.fmpz) \
+                        else _integral(c)
+            return self._wrap(self.ctx.from_dict(d))
+        raise IncompatibleRingError(f"cannot bring a polynomial over another ring into "
+                                    f"{self.name}")
+
+    def to_number(self, c: Any) -> Any:
+        """A number when the scalar is constant, else the scalar itself."""
+        if isinstance(c, LaurentPoly):
+            if c.shift == self._no_shift and c.m.is_constant():
+                return _number(c.m.coeffs()[0]) if not c.m.is_zero() else 0
+            return c
+        return _number(c)
+
+    def coefficients(self, p: LaurentPoly) -> list[Any]:
+        n = self.length(p)
+        buckets: list[dict] = [{} for _ in range(n)]
+        k = len(self.names)
+        for exps, c in p.m.to_dict().items():
+            buckets[int(exps[0])][(0, *exps[1:])] = c
+        out = []
+        for b in buckets:
+            if not b:
+                out.append(0)
+            else:
+                out.append(self.to_number(self._wrap(self.ctx.from_dict(b), p.shift)))
+        del k
+        return out
+
+    # -- queries ---------------------------------------------------------------------
+    def length(self, p: LaurentPoly) -> int:  # type: ignore[override]
+        return 0 if p.m.is_zero() else int(p.m.degrees()[0]) + 1
+
+    def coeff(self, p: LaurentPoly, i: int) -> LaurentPoly:  # type: ignore[override]
+        part = (p.m % self._qpow(i + 1)) - (p.m % self._qpow(i)) if i else p.m % self._q
+        return self._wrap(part / self._qpow(i) if i else part, p.shift)
+
+    def valuation(self, p: LaurentPoly) -> int | None:  # type: ignore[override]
+        if p.m.is_zero():
+            return None
+        return int(p.m.term_content().degrees()[0])
+
+    def is_unit(self, c: Any) -> bool:
+        if not isinstance(c, LaurentPoly):
+            c = self.coerce(c)
+        if len(c.m.coeffs()) != 1:
+            return False
+        v = c.m.coeffs()[0]
+        return self.rational or v == 1 or v == -1
+
+    def _unit_inverse(self, c: LaurentPoly) -> LaurentPoly:
+        if not self.is_unit(c):
+            raise DomainError(f"{laurent_text(c)} is not invertible among Laurent polynomials "
+                              f"in {', '.join(self.names)}")
+        v = c.m.coeffs()[0]
+        exps = [int(x) for x in c.m.monoms()[0]]
+        inv = self.ctx.constant(1 / v if self.rational else v)
+        return self._wrap(inv, tuple(-(e + s) for e, s in zip(exps[1:], c.shift, strict=True)))
+
+    # -- arithmetic ------------------------------------------------------------------
+    def coefficient_bits(self, p: LaurentPoly) -> int:  # type: ignore[override]
+        best = 0
+        for c in p.m.coeffs():
+            if self.rational:
+                best = max(best, int(c.p).bit_length() + int(c.q).bit_length())
+            else:
+                best = max(best, int(c).bit_length())
+        return best
+
+    def truncate(self, p: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
+        if n <= 0:
+            return self.zero()
+        if p.m.is_zero() or int(p.m.degrees()[0]) < n:
+            return p
+        return self._wrap(p.m % self._qpow(n), p.shift)
+
+    def shift_up(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
+        if not k or p.m.is_zero():
+            return p
+        if k + self.length(p) > MAX_SHIFT:
+            raise UnableError(f"a polynomial of degree {k + self.length(p) - 1} exceeds the "
+                              f"limit")
+        return self._wrap(p.m * self._qpow(k), p.shift)
+
+    def shift_down(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
+        return self._wrap(p.m / self._qpow(k), p.shift) if k else p
+
+    def mul_low(self, a: LaurentPoly, b: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
+        if n <= 0:
+            return self.zero()
+        return self.truncate(self.truncate(a, n) * self.truncate(b, n), n)
+
+    def pow_low(self, p: LaurentPoly, e: int, n: int) -> LaurentPoly:  # type: ignore[override]
+        result = self.coerce(1)
+        base = self.truncate(p, n)
+        while e:
+            if e & 1:
+                result = self.mul_low(result, base, n)
+            e >>= 1
+            if e:
+                base = self.mul_low(base, base, n)
+        return result
+
+    def inflate(self, p: LaurentPoly, d: int) -> LaurentPoly:
+        if d == 1:
+            return p
+        return self._wrap(self.ctx.from_dict({(e[0] * d, *e[1:]): c
+                                              for e, c in p.m.to_dict().items()}), p.shift)
+
+    def inv_series(self, p: LaurentPoly, n: int) -> LaurentPoly:
+        if n <= 0:
+            return self.zero()
+        c0 = self.coeff(p, 0)
+        if not self.is_unit(c0):
+            text = laurent_text(c0) if c0 else "0"
+            raise DomainError(f"the constant term {text} is not invertible among Laurent "
+                              f"polynomials in {', '.join(self.names)} (give the variable a "
+                              f"weight, so that it is expanded as a power series)")
+        g = self._unit_inverse(c0)
+        m = 1
+        while m < n:
+            m = min(2 * m, n)
+            e = 2 - self.mul_low(p, g, m)
+            g = self.mul_low(g, e, m)
+        return g
+
+    def binomial_mul(self, p: LaurentPoly, c: Any, j: int, n: int | None) -> LaurentPoly:
+        if n is not None:
+            if j >= n:
+                return self.truncate(p, n)
+            p = self.truncate(p, n)
+            shifted = self.shift_up(self.truncate(p, n - j), j)
+        else:
+            shifted = self.shift_up(p, j)
+        return p - shifted * self.coerce(c)
+
+    def binomial_div(self, p: LaurentPoly, c: Any, j: int, n: int) -> LaurentPoly:
+        p = self.truncate(p, n)
+        cc = self.coerce(c)
+        step = j
+        while step < n and cc:
+            p = p + self.shift_up(self.truncate(p, n - step), step) * cc
+            step *= 2
+            cc = cc * cc
+        return p
+
+    def __eq__(self, other: object) -> bool:
+        return isinstance(other, _LaurentRing) and other.names == self.names and \
+            other.rational == self.rational
+
+    def __hash__(self) -> int:
+        return hash(("L", self.names, self.rational))
+
+    def __repr__(self) -> str:
+        return self.name
+
+
+def _integral(c: Any) -> Any:
+    if c.q != 1:
+        raise IncompatibleRingError(f"{c} is not an integer")
+    return flint.fmpz(c.p)
+
+
+_LAURENT: dict[tuple[tuple[str, ...], bool], _LaurentRing] = {}
+
+
+def laurent_ring(names: tuple[str, ...], rational: bool = False) -> Ring:
+    """Series in q whose coefficients are Laurent polynomials in the extra variables
+    ``names`` (over QQ when ``rational``); one ring object per set of names.
+
+    >>> R = laurent_ring(("z",))
+    >>> R.coefficients(R.inv_series(R.poly([1, -R.gen("z")]), 3))
+    [1, z, z^2]
+    """
+    key = (tuple(names), rational)
+    ring = _LAURENT.get(key)
+    if ring is None:
+        if not names or len(set(names)) != len(names) or "q" in names:
+            raise DomainError(f"bad names for extra variables: {names!r}")
+        ring = _LaurentRing(tuple(names), rational)
+        _LAURENT[key] = ring
+    return ring
+
+
 ZZ: Ring = _IntegerRing()
 QQ: Ring = _RationalRing()
 
@@ -388,4 +798,12 @@ def join_rings(a: Ring, b: Ring) -> Ring:
         return a
     if {a, b} == {ZZ, QQ}:
         return QQ
+    la, lb = isinstance(a, _LaurentRing), isinstance(b, _LaurentRing)
+    if la or lb:
+        names = a.names if la else b.names  # type: ignore[attr-defined]
+        if (la and lb and a.names != b.names) or any(  # type: ignore[attr-defined]
+                isinstance(r, _ModularRing) for r in (a, b)):
+            raise IncompatibleRingError(f"cannot combine series over {a.name} and {b.name}")
+        rational = any(r == QQ or getattr(r, "rational", False) for r in (a, b))
+        return laurent_ring(names, rational)
     raise IncompatibleRingError(f"cannot combine series over {a.name} and {b.name}")

@@ -22,8 +22,9 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 
 from ..errors import DomainError, QSeriesError
-from ..lang import Node, evaluate, parse
-from ..series import GF, QQ, ZZ, Ring, Series, is_prime
+from ..lang import Evaluator, Node, evaluate, parse
+from ..lang.ast import extra_variables
+from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring
 from ..series.formatting import number_text
 
 Exponent = int | Fraction
@@ -62,6 +63,14 @@ class CheckResult:
     #: "exact", or "modular" (both sides compared modulo ``primes``)
     method: str = "exact"
     primes: tuple[int, ...] = ()
+    #: extra variables (sorted) and their weights: z stands for z*q^w, so with weights the
+    #: coefficient of q^e is the part of weighted degree e (n + w*j for q^n z^j)
+    variables: tuple[str, ...] = ()
+    weights: tuple[int, ...] = ()
+
+    @property
+    def weighted(self) -> bool:
+        return any(self.weights)
 
     @property
     def verdict(self) -> str:
@@ -70,20 +79,62 @@ class CheckResult:
         >>> print(check("(q;q)_inf", "1 - q - q^2", order=5).verdict)
         the two sides agree to O(q^5) (every coefficient below q^5 compared; evidence, not a proof)
         """
+        order = _text(self.order_verified)
+        scope = f"every coefficient below q^{order}"
+        if self.weighted:
+            pairs = zip(self.variables, self.weights, strict=True)
+            grade = " + ".join(["n"] + [f"{w}*e_{v}" if w != 1 else f"e_{v}"
+                                        for v, w in pairs if w])
+            scope = (f"every coefficient of q^n {'*'.join(f'{v}^e_{v}' for v in self.variables)}"
+                     f" with {grade} < {order} (the weighted extra variables are expanded as "
+                     f"power series)")
         if self.first_mismatch is None and self.method == "modular":
             k = len(self.primes)
+            if self.variables:
+                return (f"the two sides agree at random values of {', '.join(self.variables)} "
+                        f"modulo the primes {', '.join(map(str, self.primes))}, at {scope} "
+                        f"(Schwartz-Zippel: a nonzero coefficient difference of B bits and "
+                        f"degree d in the extra variables escapes each prime with probability "
+                        f"at most B/(61*{PRIME_COUNT:.2e}) + d/2^61, so all {k} with "
+                        f"probability below {escape_bound(10**6, k, 10**6):.0e} for B, d <= "
+                        f"10^6; evidence, not a proof)")
             return (f"the two sides agree modulo the primes {', '.join(map(str, self.primes))} "
-                    f"at every coefficient below q^{_text(self.order_verified)} (a nonzero "
-                    f"coefficient difference of B bits escapes all {k} with probability at "
-                    f"most (B/(61*{PRIME_COUNT:.2e}))^{k}, below {escape_bound(10**6, k):.0e} "
-                    f"for B = 10^6; evidence, not a proof)")
+                    f"at {scope} (a nonzero coefficient difference of B bits escapes all {k} "
+                    f"with probability at most (B/(61*{PRIME_COUNT:.2e}))^{k}, below "
+                    f"{escape_bound(10**6, k):.0e} for B = 10^6; evidence, not a proof)")
         if self.first_mismatch is None:
-            return (f"the two sides agree to O(q^{_text(self.order_verified)}) (every "
-                    f"coefficient below q^{_text(self.order_verified)} compared; evidence, "
+            return (f"the two sides agree to O(q^{order}) ({scope} compared; evidence, "
                     f"not a proof)")
         m = self.first_mismatch
-        return (f"the two sides differ: first at q^{_text(m.exponent)}, where the left side "
-                f"has {_text(m.lhs)} and the right side {_text(m.rhs)}")
+        where = f"q^{_text(m.exponent)}"
+        lhs, rhs = _text(m.lhs), _text(m.rhs)
+        if self.weighted:
+            where = f"weighted degree {_text(m.exponent)}"
+            lhs = self.unweighted_text(m.lhs, m.exponent)
+            rhs = self.unweighted_text(m.rhs, m.exponent)
+        return (f"the two sides differ: first at {where}, where the left side "
+                f"has {lhs} and the right side {rhs}")
+
+    def unweighted_text(self, c: Number | LaurentPoly, e: Exponent) -> str:
+        """The part of weighted degree e with coefficient c, written back in q and the
+        extra variables (z*q^w -> z): ``z*q^2 + 3*z^2*q``."""
+        if not isinstance(c, LaurentPoly):
+            return _text(c)
+        w = dict(zip(self.variables, self.weights, strict=True))
+        parts = []
+        for exps, coef in c.terms():
+            powers = list(zip(c.ring.names, exps[1:], strict=True))
+            qe = Fraction(e) - sum(w.get(v, 0) * x for v, x in powers)
+            factors = [v if x == 1 else f"{v}^{x}" for v, x in powers if x]
+            if qe:
+                factors.append("q" if qe == 1 else f"q^{_text(qe)}")
+            mono = "*".join(factors)
+            a = abs(coef)
+            body = (_text(a) if not mono else mono if a == 1 else f"{_text(a)}*{mono}")
+            sign = "-" if coef < 0 else "+"
+            parts.append((sign, body))
+        text = " ".join(f"{s} {b}" for s, b in parts)
+        return text[2:] if text.startswith("+ ") else "-" + text[2:]
 
     def neighbours(self, radius: int = 2) -> list[tuple[Exponent, Number, Number]]:
         """Coefficients of both sides at the exponents around the first mismatch."""
@@ -107,7 +158,9 @@ def _low(s: Series) -> Fraction:
     return Fraction(v) if v is not None else Fraction(0)
 
 
-def _text(x: Exponent | Number) -> str:
+def _text(x: Exponent | Number | LaurentPoly) -> str:
+    if isinstance(x, LaurentPoly):
+        return str(x)
     return number_text(x)
 
 
@@ -147,14 +200,17 @@ AUTO_MODULAR_ORDER = 3000
 PRIME_COUNT = 2**61 / (62 * 0.6931471805599453)
 
 
-def escape_bound(bits: int, k: int) -> float:
-    """Upper bound on the chance that a nonzero integer of ``bits`` bits is divisible by k
-    primes drawn at random from [2^61, 2^62): it has at most bits/61 such prime factors.
+def escape_bound(bits: int, k: int, degree: int = 0) -> float:
+    """Upper bound on the chance that a nonzero coefficient difference escapes k primes drawn
+    at random from [2^61, 2^62): an integer of ``bits`` bits has at most bits/61 such prime
+    factors; with extra variables set to random nonzero residues, a nonzero Laurent
+    polynomial of degree spread ``degree`` vanishes with probability at most degree/(p-1)
+    (Schwartz-Zippel).
 
     >>> escape_bound(10**6, 3) < 1e-30
     True
     """
-    return (bits / 61 / PRIME_COUNT) ** k
+    return (bits / 61 / PRIME_COUNT + degree / 2**61) ** k
 
 
 def random_primes(k: int, seed: int | None = None) -> tuple[int, ...]:
@@ -176,17 +232,26 @@ def random_primes(k: int, seed: int | None = None) -> tuple[int, ...]:
 
 def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
           method: str = "exact", primes: int = 3, seed: int | None = None,
-          progress: Callable[[str], None] | None = None) -> CheckResult:
+          progress: Callable[[str], None] | None = None,
+          weights: dict[str, int] | None = None) -> CheckResult:
     """Evaluate both sides modulo q^order and compare every coefficient below q^order.
 
     ``method="modular"`` compares modulo ``primes`` random primes near 2^62 (much faster at
     high order) and recomputes the two coefficients exactly at a mismatch; ``"auto"`` uses
     it above order 3000.  ``progress`` (if given) is called with a short text at each stage.
 
+    Extra variables (z, a, ...) make the coefficients Laurent polynomials in them; the
+    modular method then also sets them to random residues (Schwartz-Zippel).  ``weights``
+    maps a variable z to w >= 0 (z stands for z*q^w, which expands 1/(1-z) as a power
+    series); by default the weights are 0, and 1 for every variable when weight 0 fails.
+
     >>> check("(-q;q)_inf", "1/(q;q^2)_inf", order=200).holds      # Euler
     True
     >>> check("(-q;q)_inf", "1/(q;q^2)_inf", order=200, method="modular", seed=7).method
     'modular'
+    >>> r = check("sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", order=30)   # Euler, in z
+    >>> r.holds, r.weights
+    (True, (1,))
     """
     if isinstance(order, bool) or not isinstance(order, int) or order < 1:
         raise QSeriesError(f"the order must be a positive integer, not {order!r}")
@@ -194,43 +259,82 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
         raise QSeriesError(f"unknown method {method!r}: use exact, modular or auto")
     if method == "auto":
         method = "modular" if order > AUTO_MODULAR_ORDER and ring in (ZZ, QQ) else "exact"
+    lnode = parse(lhs) if isinstance(lhs, str) else lhs
+    rnode = parse(rhs) if isinstance(rhs, str) else rhs
+    names = tuple(sorted(extra_variables(lnode) | extra_variables(rnode)))
+    if weights is not None:
+        unknown = sorted(set(weights) - set(names))
+        if unknown:
+            raise QSeriesError(f"a weight is given for {unknown[0]!r}, which is not an extra "
+                               f"variable of either side")
+        if any(not isinstance(w, int) or isinstance(w, bool) or w < 0 for w in weights.values()):
+            raise QSeriesError("weights must be non-negative integers")
+    tries = [dict(weights or {})]
+    if weights is None and names:
+        tries.append({v: 1 for v in names})
     t0 = time.perf_counter()
     say = progress or (lambda _text: None)
-    if method == "modular":
-        return _check_modular(lhs, rhs, order, primes, seed, t0, say)
+    first_error: QSeriesError | None = None
+    for w in tries:
+        try:
+            if method == "modular":
+                return _check_modular(lnode, rnode, order, primes, seed, t0, say, names, w)
+            return _check_exact(lnode, rnode, order, ring, t0, say, names, w)
+        except QSeriesError as err:
+            first_error = first_error or err
+            say("retrying with the extra variables weighted (z -> z*q)")
+    assert first_error is not None
+    raise first_error
+
+
+def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
+                 say: Callable[[str], None], names: tuple[str, ...], weights: dict[str, int]
+                 ) -> CheckResult:
+    if names:
+        ring = laurent_ring(names, rational=ring == QQ)
     say("evaluating the left side")
-    left = evaluate(lhs, order, ring)
+    left = evaluate(lnode, order, ring, weights)
     say("evaluating the right side")
-    right = evaluate(rhs, order, ring)
+    right = evaluate(rnode, order, ring, weights)
     verified, mismatch = compare_series(left, right, order)
     return CheckResult(mismatch is None, order, verified, mismatch,
-                       time.perf_counter() - t0, left, right)
+                       time.perf_counter() - t0, left, right, variables=names,
+                       weights=tuple(weights.get(v, 0) for v in names))
 
 
 #: from this order on, the modular method spreads its primes over worker processes
 PARALLEL_ORDER = 50_000
 
 
-def _modular_sides(lnode: Node, rnode: Node, order: int, p: int) -> tuple[Series, Series]:
+def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[str, ...] = (),
+                   weights: dict[str, int] | None = None) -> tuple[Series, Series]:
+    # the extra variables get random nonzero residues, drawn from the prime itself (so the
+    # draw is reproducible and differs between primes)
+    rng = random.Random(p)
+    values = {v: rng.randrange(1, p) for v in names}
+    ring = GF(p)
     try:
-        return evaluate(lnode, order, GF(p)), evaluate(rnode, order, GF(p))
+        return (Evaluator(ring, values=values, weights=weights).evaluate(lnode, order),
+                Evaluator(ring, values=values, weights=weights).evaluate(rnode, order))
     except DomainError as err:
         raise DomainError(f"{err} (modulo the prime {p}; try --method exact)") from None
 
 
-def _modular_compare(lnode: Node, rnode: Node, order: int, p: int
+def _modular_compare(lnode: Node, rnode: Node, order: int, p: int,
+                     names: tuple[str, ...] = (), weights: dict[str, int] | None = None
                      ) -> tuple[Exponent, Mismatch | None]:
-    left, right = _modular_sides(lnode, rnode, order, p)
+    left, right = _modular_sides(lnode, rnode, order, p, names, weights)
     return compare_series(left, right, order)
 
 
-def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: int | None,
-                   t0: float, say: Callable[[str], None]) -> CheckResult:
+def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | None,
+                   t0: float, say: Callable[[str], None], names: tuple[str, ...] = (),
+                   weights: dict[str, int] | None = None) -> CheckResult:
     if k < 1:
         raise QSeriesError("the modular method needs at least one prime")
     ps = random_primes(k, seed)
-    lnode = parse(lhs) if isinstance(lhs, str) else lhs
-    rnode = parse(rhs) if isinstance(rhs, str) else rhs
+    weights = weights or {}
+    wt = tuple(weights.get(v, 0) for v in names)
     verified: Exponent = order
     first: Exponent | None = None
     # at high order the other primes run in worker processes while this one computes the first
@@ -238,17 +342,17 @@ def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: i
     pool = ProcessPoolExecutor(max_workers=min(len(ps) - 1, os.cpu_count() or 1)) \
         if parallel else None
     try:
-        futures = [pool.submit(_modular_compare, lnode, rnode, order, p) for p in ps[1:]] \
-            if pool else []
+        futures = [pool.submit(_modular_compare, lnode, rnode, order, p, names, weights)
+                   for p in ps[1:]] if pool else []
         say(f"comparing modulo {len(ps)} primes" + (" in parallel" if pool else ""))
-        left, right = _modular_sides(lnode, rnode, order, ps[0])
+        left, right = _modular_sides(lnode, rnode, order, ps[0], names, weights)
         outcomes = [compare_series(left, right, order)]
         if pool:
             outcomes += [f.result() for f in futures]
         else:
             for i, p in enumerate(ps[1:], start=2):
                 say(f"comparing modulo prime {i} of {len(ps)}")
-                outcomes.append(_modular_compare(lnode, rnode, order, p))
+                outcomes.append(_modular_compare(lnode, rnode, order, p, names, weights))
     finally:
         if pool:
             pool.shutdown(cancel_futures=True)
@@ -258,11 +362,11 @@ def _check_modular(lhs: str | Node, rhs: str | Node, order: int, k: int, seed: i
             first = m.exponent
     if first is None:
         return CheckResult(True, order, verified, None, time.perf_counter() - t0, left, right,
-                           "modular", ps)
+                           "modular", ps, names, wt)
     # recompute both sides exactly just past the first mismatch, and report them
     say("recomputing the first mismatch exactly")
     upto = int(Fraction(first)) + 3
-    exact_l, exact_r = evaluate(lnode, upto), evaluate(rnode, upto)
+    exact_l, exact_r = evaluate(lnode, upto, None, weights), evaluate(rnode, upto, None, weights)
     _, mismatch = compare_series(exact_l, exact_r, upto)
     return CheckResult(False, order, verified, mismatch, time.perf_counter() - t0,
-                       exact_l, exact_r, "modular", ps)
+                       exact_l, exact_r, "modular", ps, names, wt)

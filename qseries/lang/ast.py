@@ -42,6 +42,15 @@ class Name(Node):
 
 
 @dataclass(frozen=True)
+class Var(Node):
+    """An extra variable (z, a, b, x1, ...): a letter that no sum or product binds.  Its
+    value is a series whose coefficients are Laurent polynomials in the extra variables."""
+
+    name: str
+    pos: int = field(default=0, compare=False)
+
+
+@dataclass(frozen=True)
 class Neg(Node):
     """Unary minus."""
 
@@ -149,7 +158,8 @@ def free_names(node: Node) -> frozenset[str]:
 
 
 def mentions_q(node: Node) -> bool:
-    """True when the node depends on q (so its value is a series, not a number).
+    """True when the node depends on q or an extra variable (so its value is a series, not
+    a number).
 
     >>> from qseries.lang.parser import parse
     >>> mentions_q(parse("(-1)^k 2/3", bound={"k"})), mentions_q(parse("(q;q)_2"))
@@ -158,7 +168,24 @@ def mentions_q(node: Node) -> bool:
     stack = [node]
     while stack:
         c = stack.pop()
-        if isinstance(c, (Q, Poch, Call, BigO)):
+        if isinstance(c, (Q, Var, Poch, Call, BigO)):
             return True
         stack.extend([c.body] if isinstance(c, BigOp) else children(c))
     return False
+
+
+def extra_variables(node: Node) -> frozenset[str]:
+    """Names of the extra variables (letters no sum or product binds) in ``node``.
+
+    >>> from qseries.lang.parser import parse
+    >>> sorted(extra_variables(parse("sum_{k>=0} z^k a q^k/(q;q)_k")))
+    ['a', 'z']
+    """
+    out: set[str] = set()
+    stack = [node]
+    while stack:
+        c = stack.pop()
+        if isinstance(c, Var):
+            out.add(c.name)
+        stack.extend([c.body] if isinstance(c, BigOp) else children(c))
+    return frozenset(out)

@@ -16,13 +16,29 @@ qseries.errors.DomainError: sum_{k>=0} does not converge as a formal power serie
 from __future__ import annotations
 
 from fractions import Fraction
+from typing import Any
 
 from ..errors import DomainError, QSeriesError, UnableError
 from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
-from ..series import MAX_LENGTH, ZZ, Ring, Series
+from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
 from ..series.formatting import short_number_text
 from . import symbolic as sym
-from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, free_names, mentions_q
+from .ast import (
+    BigO,
+    BigOp,
+    BinOp,
+    Call,
+    Name,
+    Neg,
+    Node,
+    Num,
+    Poch,
+    Q,
+    Var,
+    extra_variables,
+    free_names,
+    mentions_q,
+)
 from .parser import parse
 from .termination import NoBound, TermBounds
 
@@ -63,8 +79,15 @@ class Evaluator:
     1 - q - q^2 + q^5 + O(q^6)
     """
 
-    def __init__(self, ring: Ring = ZZ, stepping: bool = True) -> None:
+    def __init__(self, ring: Ring = ZZ, stepping: bool = True,
+                 values: dict[str, Any] | None = None,
+                 weights: dict[str, int] | None = None) -> None:
         self.ring = ring
+        #: the value of each extra variable (default: the ring's generator of that name)
+        #: and its weight w: the variable z stands for z*q^w, so that with w >= 1 a
+        #: coefficient that is a power series in z (such as 1/(1-z)) is expanded in q too
+        self.values = dict(values or {})
+        self.weights = dict(weights or {})
         #: use the ratio of consecutive terms for q-Pochhammer factors of sums (the fast
         #: path); False evaluates every term from scratch (the reference path for tests)
         self.stepping = stepping
@@ -134,11 +157,24 @@ class Evaluator:
             return v
         return Series.constant(v, self.ring if self.ring is not ZZ or v.denominator == 1 else None)
 
+    def _extra(self, node: Var) -> Series:
+        w = self.weights.get(node.name, 0)
+        if node.name in self.values:
+            c = self.values[node.name]
+        elif node.name in getattr(self.ring, "names", ()):
+            c = self.ring.gen(node.name)  # type: ignore[attr-defined]
+        else:
+            raise DomainError(f"the extra variable {node.name!r} at column {node.pos + 1} has "
+                              f"no value over {self.ring.name}")
+        return Series.monomial(w, self.ring, c)
+
     def scalar(self, node: Node, env: dict[str, int]) -> Fraction:
         """The value of a node that must not involve q (an exponent, a bound, a subscript)."""
         if self.has_q(node):
+            names = sorted(extra_variables(node))
+            what = "q" if not names else f"the extra variable {names[0]}"
             raise DomainError(f"the expression at column {getattr(node, 'pos', 0) + 1} must be "
-                              f"a number here, but it involves q")
+                              f"a number here, but it involves {what}")
         v = self.value(node, env, 0)
         assert isinstance(v, Fraction)
         return v
@@ -156,6 +192,8 @@ class Evaluator:
             if node.name not in env:
                 raise DomainError(f"the variable {node.name!r} has no value here")
             return Fraction(env[node.name])
+        if isinstance(node, Var):
+            return self._extra(node)
         if isinstance(node, Neg):
             v = self.value(node.operand, env, order)
             return -v
@@ -199,8 +237,6 @@ class Evaluator:
         raise TypeError(f"not a syntax-tree node: {node!r}")
 
     def _power(self, node: BinOp, env: dict[str, int], order: int) -> Value:
-        if self.has_q(node.right):
-            raise DomainError("an exponent must not involve q")
         e = self.scalar(node.right, env)
         if not self.has_q(node.left):
             base = self.scalar(node.left, env)
@@ -219,6 +255,8 @@ class Evaluator:
             raise UnableError(f"the power {n} is too large")
         if mono is not None:
             c, s = mono
+            if isinstance(c, LaurentPoly):
+                return Series.monomial(s * n, base_s.ring, _scalar_power(c, n))
             return Series.monomial(s * n, base_s.ring, _rational_power(Fraction(c), e))
         return base_s.power(n, order)
 
@@ -648,7 +686,7 @@ class Evaluator:
                         if x < 0:
                             return None
                         if x == 0:
-                            if c == 1:
+                            if c == 1 or isinstance(c, LaurentPoly):
                                 return None
                             pn = pn * _rational_power(Fraction(1 - Fraction(c)), Fraction(times))
                             continue
@@ -863,21 +901,39 @@ def _rational_power(base: Fraction, e: Fraction) -> Fraction:
     return base ** n
 
 
+def _scalar_power(c: LaurentPoly, n: int) -> LaurentPoly:
+    """c^n for a coefficient in extra variables; negative n only for monomials."""
+    if n < 0 and not c.ring.is_unit(c):
+        raise DomainError(f"{c} is not a monomial, so its negative powers are not Laurent "
+                          f"polynomials (give the extra variables a weight to expand them)")
+    if abs(n) * max(c.ring.coefficient_bits(c), 1) > MAX_BITS or abs(n) > MAX_LENGTH:
+        raise UnableError(f"the power ({c})^{n} is too large")
+    return c ** n
+
+
 def _truncate_abs(s: Series, order: int) -> Series:
     """Keep exponents below ``order`` for a series with a fractional offset."""
     k = order - s.offset  # keep offset + i < order  <=>  i < order - offset
     return s.truncate(_ceil(k))
 
 
-def evaluate(expr: str | Node, order: int, ring: Ring = ZZ) -> Series:
-    """Parse (if needed) and evaluate an expression modulo q^order over ``ring``.
+def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
+             weights: dict[str, int] | None = None) -> Series:
+    """Parse (if needed) and evaluate an expression modulo q^order over ``ring`` (default:
+    ZZ, or Laurent polynomials in the extra variables when there are any).  ``weights``
+    maps extra variables z to w >= 0: z stands for z*q^w (see :class:`Evaluator`).
 
     >>> evaluate("(q;q)_inf^3", 11)
     1 - 3q + 5q^3 - 7q^6 + 9q^10 + O(q^11)
     >>> evaluate("eta(q)", 3)
     q^(1/24) - q^(25/24) - q^(49/24) + O(q^(73/24))
+    >>> evaluate("(z*q;q)_inf", 4)
+    1 - z*q - z*q^2 + (z^2 - z)*q^3 + O(q^4)
     """
     if isinstance(order, bool) or not isinstance(order, int) or order < 0:
         raise QSeriesError(f"the order must be a non-negative integer, not {order!r}")
     node = parse(expr) if isinstance(expr, str) else expr
-    return Evaluator(ring).evaluate(node, order)
+    if ring is None:
+        names = extra_variables(node)
+        ring = laurent_ring(tuple(sorted(names))) if names else ZZ
+    return Evaluator(ring, weights=weights).evaluate(node, order)

@@ -35,7 +35,7 @@ from fractions import Fraction
 
 from ..errors import ParseError
 from ..products import FUNCTIONS
-from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q
+from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var
 
 #: longest accepted input, in characters
 MAX_TEXT = 100_000
@@ -268,6 +268,9 @@ class _Parser:
             return Name(name, t.pos)
         if name == "inf":
             raise self.error("'inf' may only stand as a subscript or a bound of a sum or product")
+        if is_extra_variable(name):
+            self.take()
+            return Var(name, t.pos)
         raise self.error(_unknown_name_message(name, self.bound))
 
     def call(self) -> Node:
@@ -332,6 +335,9 @@ class _Parser:
             node = self.expr()
             self.expect(close)
             return node
+        if t.kind == "name" and is_extra_variable(t.text):
+            raise self.error(f"{what} must be a number, a bound variable or inf; {t.text!r} is "
+                             f"not bound by an enclosing sum or product")
         if t.kind == "name":
             raise self.error(_unknown_name_message(t.text, self.bound))
         raise self.error(f"expected {what}: a number, a bound variable, inf, or an "
@@ -397,13 +403,24 @@ class _Parser:
         return self.short_operand("an upper limit")
 
 
+def is_extra_variable(name: str) -> bool:
+    """True for the names an extra variable may have: one ASCII letter other than q and O,
+    optionally followed by digits (z, a, b, x1).
+
+    >>> is_extra_variable("z"), is_extra_variable("x2"), is_extra_variable("zq")
+    (True, True, False)
+    """
+    if not name or not name[0].isascii() or not name[0].isalpha() or name[0] in "qO":
+        return False
+    rest = name[1:]
+    return rest == "" or (rest.isascii() and rest.isdigit())
+
+
 def _unknown_name_message(name: str, bound: list[str]) -> str:
     hint = ""
-    if len(name) > 1 and all(c in "q" + "".join(bound) for c in name):
-        hint = f" (write the product with spaces or '*', e.g. {' '.join(name)})"
-    elif len(name) == 1:
-        hint = (" (only q and the variables of enclosing sums and products are known; "
-                "other variables are not supported yet)")
+    if len(name) > 1 and name.isalpha():
+        hint = (f" (extra variables are single letters, optionally followed by digits; "
+                f"write a product with spaces or '*', e.g. {' '.join(name)})")
     return f"unknown name {name!r}{hint}"
 
 

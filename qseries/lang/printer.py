@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q
+from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var
 
 # precedence levels: 1 sums, 2 products, 3 signed, 4 powers, 5 atoms
 _LEVEL = {"+": 1, "-": 1, "*": 2, "/": 2, "^": 4}
@@ -70,7 +70,7 @@ def _bare(node: Node) -> str:
         return _num(node.value)
     if isinstance(node, Q):
         return "q"
-    if isinstance(node, Name):
+    if isinstance(node, (Name, Var)):
         return node.name
     if isinstance(node, Neg):
         return "-" + _fmt(node.operand, 3, True)

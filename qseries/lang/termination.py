@@ -184,10 +184,21 @@ class TermBounds:
                 if self._symbolic(p, syms) or self.ev.scalar(p, env) == 1:
                     raise NoBound("a q-Pochhammer symbol (c;q)_n with c = 1 or varying")
                 continue
+            if not self._symbolic(p, syms) and self._unit_start(p, env, order):
+                continue
             b = self.lower(p, main, syms, env, order)
             start = self._eventually(b.poly, 1, main, max(start, b.start),
                                      "a q-Pochhammer parameter without positive valuation")
         return start
+
+    def _unit_start(self, p: Node, env: dict[str, int], order: int) -> bool:
+        """True when the parameter is exactly c + O(q) with c a constant other than 1 (such
+        as a or c/b in extra variables): then every factor 1 - p q^(tj) has valuation 0 and
+        the first one has constant term 1 - c != 0, so the symbol has valuation exactly 0."""
+        v = self.ev._as_series(self.ev.value(p, env, order))
+        if v.valuation != 0 or (v.precision is not None and v.precision < 1):
+            return False
+        return v.coefficient(0) != 1
 
     def _eventually(self, p: sym.MPoly, target: int, main: str, start: int, why: str) -> int:
         """m from which p >= target: for a polynomial in ``main`` alone, from its growth; for

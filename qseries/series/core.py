@@ -27,7 +27,7 @@ from collections.abc import Iterator
 from fractions import Fraction
 from typing import Any
 
-from .._flint import QQ, ZZ, Ring, join_rings
+from .._flint import QQ, ZZ, LaurentPoly, Ring, join_rings
 from ..errors import DomainError, IncompatibleRingError, UnableError
 
 Number = int | Fraction
@@ -46,6 +46,8 @@ def _as_number(x: Any) -> Number:
         return x
     if isinstance(x, Fraction):
         return x.numerator if x.denominator == 1 else x
+    if isinstance(x, LaurentPoly):   # a coefficient involving extra variables
+        return x
     raise TypeError(f"cannot use {type(x).__name__} as a coefficient")
 
 
@@ -258,11 +260,13 @@ class Series:
     def _coerce(self, other: Any) -> Series:
         if isinstance(other, Series):
             return other
-        if isinstance(other, (int, Fraction)) and not isinstance(other, bool):
+        if isinstance(other, (int, Fraction, LaurentPoly)) and not isinstance(other, bool):
             c = _as_number(other)
             ring = self.ring
-            if isinstance(c, Fraction) and ring == ZZ:
-                ring = QQ
+            if isinstance(c, Fraction) and c.denominator != 1:
+                ring = ring.fractions
+            if isinstance(c, LaurentPoly):
+                ring = join_rings(ring, c.ring)
             return Series(ring, ring.poly([c]), 0)
         raise TypeError(f"cannot combine a series with {type(other).__name__}")
 
@@ -424,10 +428,16 @@ class Series:
         v, u, r = self._unit_part()
         R = self.ring
         if not R.is_unit(R.coeff(u, 0)):
-            if R == ZZ:
-                return self.change_ring(QQ).inverse(order)
-            raise DomainError(f"leading coefficient {R.to_number(R.coeff(u, 0))} is not "
-                              f"invertible over {R.name}")
+            if R.fractions != R:
+                return self.change_ring(R.fractions).inverse(order)
+            c0 = R.to_number(R.coeff(u, 0))
+            if isinstance(c0, LaurentPoly):
+                raise DomainError(
+                    f"cannot divide by a series with leading coefficient {c0}: its inverse is "
+                    f"not a Laurent polynomial in {', '.join(c0.ring.names)}; give the extra "
+                    f"variables a weight (z stands for z*q^w) so that it is expanded as a "
+                    f"power series")
+            raise DomainError(f"leading coefficient {c0} is not invertible over {R.name}")
         neg_off = Fraction(0) if self.offset == 0 else 1 - self.offset
         carry = 1 if self.offset else 0
         if r is None and R.length(u) == 1:
@@ -521,8 +531,10 @@ class Series:
             raise UnableError("mul_binomial needs j >= 1")
         R = self.ring
         c = _as_number(c)
-        if isinstance(c, Fraction) and R == ZZ:
-            return self.change_ring(QQ).mul_binomial(c, j, order)
+        if isinstance(c, Fraction) and R.fractions != R:
+            return self.change_ring(R.fractions).mul_binomial(c, j, order)
+        if isinstance(c, LaurentPoly) and c.ring != R:
+            return self.change_ring(join_rings(R, c.ring)).mul_binomial(c, j, order)
         prec = _min_prec(self.prec, order)
         if self.prec is None and prec is not None and \
                 self.start + R.length(self.poly) + j <= prec:
@@ -538,8 +550,10 @@ class Series:
         """
         R = self.ring
         c = _as_number(c)
-        if isinstance(c, Fraction) and R == ZZ:
-            return self.change_ring(QQ).div_binomial(c, j, order)
+        if isinstance(c, Fraction) and R.fractions != R:
+            return self.change_ring(R.fractions).div_binomial(c, j, order)
+        if isinstance(c, LaurentPoly) and c.ring != R:
+            return self.change_ring(join_rings(R, c.ring)).div_binomial(c, j, order)
         if j < 1:
             raise UnableError("div_binomial needs j >= 1")
         prec = _min_prec(self.prec, order)

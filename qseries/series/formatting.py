@@ -11,7 +11,7 @@ from __future__ import annotations
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
-from .._flint import int_to_decimal
+from .._flint import LaurentPoly, int_to_decimal, laurent_text
 
 if TYPE_CHECKING:
     from .core import Series
@@ -64,6 +64,8 @@ def format_term(e: Exponent, c: int | Fraction, first: bool) -> str:
     >>> format_term(3, -2, False)
     '- 2q^3'
     """
+    if isinstance(c, LaurentPoly):
+        return _format_poly_term(e, c, first)
     c = Fraction(c)
     sign = "-" if c < 0 else "+"
     a = abs(c)
@@ -77,6 +79,24 @@ def format_term(e: Exponent, c: int | Fraction, first: bool) -> str:
         body = f"{text}{mono}"
     else:
         body = f"({text}){mono}"
+    if first:
+        return body if sign == "+" else f"-{body}"
+    return f"{sign} {body}"
+
+
+def _format_poly_term(e: Exponent, c: LaurentPoly, first: bool) -> str:
+    """A term whose coefficient is a Laurent polynomial in extra variables: ``z*q^2``,
+    ``- a*z*q``, ``(z^2 - z)*q^3``."""
+    mono = format_exponent(e)
+    terms = c.terms()
+    text = laurent_text(c)
+    sign = "+"
+    if len(terms) == 1:
+        if terms[0][1] < 0:
+            sign, text = "-", text[1:]
+        body = text if mono == "1" else f"{text}*{mono}"
+    else:
+        body = text if mono == "1" else f"({text})*{mono}"
     if first:
         return body if sign == "+" else f"-{body}"
     return f"{sign} {body}"
