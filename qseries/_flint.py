@@ -386,6 +386,16 @@ class LaurentPoly:
             return other
         return self.ring.coerce(other)
 
+    def _pair(self, other: Any) -> tuple[LaurentPoly, LaurentPoly]:
+        """Both operands over one ring (over QQ when either needs it)."""
+        needs_q = (isinstance(other, Fraction) and other.denominator != 1) or \
+            (isinstance(other, flint.fmpq) and other.q != 1) or \
+            (isinstance(other, LaurentPoly) and other.ring.rational)
+        if needs_q and not self.ring.rational:
+            R = self.ring.fractions
+            return R.coerce(self), R.coerce(other)   # type: ignore[attr-defined]
+        return self, self._lift(other)
+
     def _aligned(self, other: LaurentPoly) -> tuple[Any, Any, tuple[int, ...]]:
         if self.shift == other.shift:
             return self.m, other.m, self.shift
@@ -396,9 +406,9 @@ class LaurentPoly:
         return a, b, low
 
     def __add__(self, other: Any) -> LaurentPoly:
-        other = self._lift(other)
-        a, b, s = self._aligned(other)
-        return LaurentPoly(self.ring, a + b, s)
+        x, other = self._pair(other)
+        a, b, s = x._aligned(other)
+        return LaurentPoly(x.ring, a + b, s)
 
     __radd__ = __add__
 
@@ -406,15 +416,17 @@ class LaurentPoly:
         return LaurentPoly(self.ring, -self.m, self.shift)
 
     def __sub__(self, other: Any) -> LaurentPoly:
-        return self + (-self._lift(other))
+        x, other = self._pair(other)
+        return x + (-other)
 
     def __rsub__(self, other: Any) -> LaurentPoly:
-        return self._lift(other) + (-self)
+        x, other = self._pair(other)
+        return other + (-x)
 
     def __mul__(self, other: Any) -> LaurentPoly:
-        other = self._lift(other)
-        return LaurentPoly(self.ring, self.m * other.m,
-                           tuple(a + b for a, b in zip(self.shift, other.shift, strict=True)))
+        x, other = self._pair(other)
+        return LaurentPoly(x.ring, x.m * other.m,
+                           tuple(a + b for a, b in zip(x.shift, other.shift, strict=True)))
 
     __rmul__ = __mul__
 

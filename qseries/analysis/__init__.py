@@ -9,6 +9,7 @@ True
 from .compare import CheckResult, Mismatch, check, compare_series
 from .diagnose import Hint, diagnose
 from .product_form import ProductForm, product_form
+from .statistic import Distribution, distributions, normal_moment
 
-__all__ = ["CheckResult", "Hint", "Mismatch", "ProductForm", "check", "compare_series",
-           "diagnose", "product_form"]
+__all__ = ["CheckResult", "Distribution", "Hint", "Mismatch", "ProductForm", "check",
+           "compare_series", "diagnose", "distributions", "normal_moment", "product_form"]

@@ -181,6 +181,9 @@ def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
     integers ("no product form of this kind to this order").
     """
     f = expr if isinstance(expr, Series) else evaluate(expr, order)
+    if getattr(f.ring, "names", ()):
+        raise DomainError("product forms are recovered for series in q alone; this one has "
+                          f"coefficients in {', '.join(f.ring.names)}")  # type: ignore[attr-defined]
     v = f.valuation
     if v is None:
         raise DomainError("the series vanishes to this order; it has no product form")

@@ -15,14 +15,14 @@ from typing import Annotated, Any
 
 import typer
 
-from ..analysis import diagnose, product_form
+from ..analysis import Distribution, diagnose, distributions, normal_moment, product_form
 from ..analysis.compare import CheckResult, check
 from ..catalogue import SHIPPED, EntryResult, load_entries, select, verify_entries
 from ..errors import QSeriesError
 from ..lang import evaluate
-from ..lang.parser import NOTATION_FORMS
+from ..lang.parser import NOTATION_FORMS, is_extra_variable
 from ..products import FUNCTIONS
-from ..series import MAX_LENGTH, Series
+from ..series import MAX_LENGTH, LaurentPoly, Series
 from ..series.formatting import format_series, number_text
 from .demo import DEMO_CASES
 
@@ -55,8 +55,36 @@ def _exp_json(e: int | Fraction) -> int | str:
     return e.numerator if e.denominator == 1 else str(e)
 
 
-def _num_text(c: int | Fraction) -> str:
+def _num_text(c: Any) -> str:
+    """A coefficient as text: a number, or a Laurent polynomial such as ``z^2 - z``."""
+    if isinstance(c, LaurentPoly):
+        return str(c)
     return number_text(c)
+
+
+WeightOption = Annotated[list[str] | None, typer.Option(
+    "--weight", "-w", metavar="VAR=W",
+    help="Let the extra variable VAR stand for VAR*q^W (W >= 0), so that coefficients "
+         "which are power series in it, such as 1/(1-z), are expanded too; repeat for "
+         "several variables.  check tries W = 1 for every variable by itself when weight 0 "
+         "fails.")]
+
+
+def _weights(items: list[str] | None) -> dict[str, int] | None:
+    if not items:
+        return None
+    out: dict[str, int] = {}
+    for item in items:
+        name, sep, value = item.partition("=")
+        name, value = name.strip(), value.strip()
+        if not sep or not is_extra_variable(name) or not value.isascii() or \
+                not value.isdigit() or len(value) > 6:
+            _fail(f"--weight {item!r}: write VAR=W with VAR an extra variable (such as z) and "
+                  f"W a non-negative integer")
+        if name in out:
+            _fail(f"--weight gives {name!r} twice")
+        out[name] = int(value)
+    return out
 
 
 def _fail(message: str) -> None:
@@ -83,13 +111,17 @@ def _guarded(fn: Any, *args: Any) -> Any:
 def expand(
     expr: Annotated[str, typer.Argument(help="The expression, e.g. \"1/(q;q)_inf\".")],
     order: OrderOption = 100,
+    weight: WeightOption = None,
     as_json: JsonOption = False,
 ) -> None:
-    """Expand EXPR modulo q^N and print its coefficients.
+    """Expand EXPR modulo q^N and print its coefficients.  Letters other than q that no sum
+    binds are extra variables: coefficients are then Laurent polynomials in them, printed
+    as "z^2 - z" (strings in --json too).
 
     Example: qseries expand "sum_{k>=0} q^(k^2)/(q;q)_k" --order 20
     """
-    s: Series = _guarded(evaluate, expr, order)
+    weights = _weights(weight)
+    s: Series = _guarded(evaluate, expr, order, None, weights)
     known = s.precision if s.precision is not None else order
     known = min(known, order)
     if as_json:
@@ -108,10 +140,12 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
         typer.echo(f"AGREES  {r.verdict}")
     else:
         m = r.first_mismatch
-        typer.echo(f"DIFFERS  {r.verdict} (difference {number_text(m.difference)})")
-        typer.echo(f"  coefficients below q^{m.exponent} agree")
-        rows = [("exponent", "left", "right", "difference")] + [
-            (str(e), number_text(a), number_text(b), number_text(a - b))
+        typer.echo(f"DIFFERS  {r.verdict} (difference {_num_text(m.difference)})")
+        below = f"weighted degree {m.exponent}" if r.weighted else f"q^{m.exponent}"
+        typer.echo(f"  coefficients below {below} agree")
+        head = "weighted degree" if r.weighted else "exponent"
+        rows = [(head, "left", "right", "difference")] + [
+            (str(e), _num_text(a), _num_text(b), _num_text(a - b))
             for e, a, b in r.neighbours()]
         widths = [max(len(row[i]) for row in rows) for i in range(4)]
         for row in rows:
@@ -152,14 +186,17 @@ def check_cmd(
              "mismatch); auto: exact up to order 3000, modular above.")] = Method.auto,
     primes: Annotated[int, typer.Option(
         "--primes", min=1, max=20, help="How many primes the modular method uses.")] = 3,
+    weight: WeightOption = None,
     as_json: JsonOption = False,
 ) -> None:
     """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch.
 
     Example: qseries check "sum_{k>=0} q^(k^2)/(q;q)_k" "1/((q;q^5)_inf (q^4;q^5)_inf)" -n 500
     """
+    weights = _weights(weight)
     r: CheckResult = _guarded(lambda: _with_status(
-        lambda say: check(lhs, rhs, order, method=method.value, primes=primes, progress=say),
+        lambda say: check(lhs, rhs, order, method=method.value, primes=primes, progress=say,
+                          weights=weights),
         show=order >= STATUS_ORDER and not as_json))
     if as_json:
         m = r.first_mismatch
@@ -167,11 +204,14 @@ def check_cmd(
             "holds": r.holds,
             "order": _exp_json(r.order_verified),
             "first_mismatch": None if m is None else {
-                "index": _exp_json(m.exponent), "lhs": _num_text(m.lhs),
-                "rhs": _num_text(m.rhs)},
+                "index": _exp_json(m.exponent),
+                "lhs": r.unweighted_text(m.lhs, m.exponent) if r.weighted else _num_text(m.lhs),
+                "rhs": r.unweighted_text(m.rhs, m.exponent) if r.weighted else _num_text(m.rhs)},
             "seconds": round(r.seconds, 6),
             "method": r.method,
             "primes": list(r.primes),
+            "variables": list(r.variables),
+            "weights": list(r.weights),
             "hints": [{"kind": h.kind, "message": h.message} for h in diagnose(r)],
         }))
     else:
@@ -218,6 +258,104 @@ def product(
         typer.echo("  no period in the exponents below the order; the product is finite")
     if pf.eta:
         typer.echo(f"  as an eta quotient: {pf.eta}")
+
+
+class ExportFormat(StrEnum):
+    """Format of the mean/variance table of ``distribution``."""
+
+    csv = "csv"
+    json = "json"
+
+
+def _decimal(x: Fraction, digits: int = 10) -> str:
+    return f"{float(x):.{digits}g}" if abs(x) < 10**300 else number_text(round(x))
+
+
+@app.command()
+def distribution(
+    expr: Annotated[str, typer.Argument(
+        help="A generating function in q and one extra variable that marks a statistic, "
+             "e.g. the Durfee square: \"sum_{k>=0} z^k q^(k^2)/(q;q)_k^2\".")],
+    var: Annotated[str, typer.Option("--var", help="The variable that marks the statistic.")
+                   ] = "z",
+    at: Annotated[list[int] | None, typer.Option(
+        "--at", min=0, help="A size n whose distribution to show (repeatable).")] = None,
+    moments: Annotated[int, typer.Option(
+        "--moments", min=2, max=12, help="Standardised moments 1..R to compare with the "
+                                         "normal distribution.")] = 6,
+    trend_upto: Annotated[int | None, typer.Option(
+        "--trend-upto", min=1, max=100_000,
+        help="Also export the mean and variance for every n = 1 .. N.")] = None,
+    fmt: Annotated[ExportFormat, typer.Option(
+        "--format", help="Format of the --trend-upto table.")] = ExportFormat.csv,
+    out: Annotated[Path | None, typer.Option(
+        "--out", help="Write the --trend-upto table to this file (default: standard output).")
+                   ] = None,
+    as_json: JsonOption = False,
+) -> None:
+    """The distribution of the statistic marked by VAR among the objects of size n (the
+    coefficient of q^n), with its mean, variance and standardised moments next to those of
+    the normal distribution (0, 1, 0, 3, 0, 15, ...).
+
+    Example: qseries distribution "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2" --at 100 --at 400
+    """
+    if not at and trend_upto is None:
+        _fail("give a size with --at N, or --trend-upto N for the mean/variance table")
+    sizes = list(at or [])
+    trend = list(range(1, trend_upto + 1)) if trend_upto else []
+    dists = _guarded(distributions, expr, var, sorted(set(sizes + trend)))
+    by_n = {d.n: d for d in dists}
+    if sizes and as_json:
+        typer.echo(json.dumps({"variable": var, "sizes": [{
+            "n": n, "total": by_n[n].total,
+            "counts": {str(j): c for j, c in by_n[n].counts.items()},
+            "mean": str(by_n[n].mean), "variance": str(by_n[n].variance),
+            "standardised_moments": [_finite(by_n[n].standardised_moment(r))
+                                     for r in range(1, moments + 1)],
+            "normal_moments": [normal_moment(r) for r in range(1, moments + 1)],
+        } for n in sizes]}))
+    elif sizes:
+        for n in sizes:
+            _print_distribution(by_n[n], var, moments)
+    if trend:
+        rows = [(n, by_n[n].total, by_n[n].mean, by_n[n].variance) for n in trend]
+        if fmt == ExportFormat.csv:
+            text = "n,total,mean,variance,mean_decimal,variance_decimal\n" + "".join(
+                f"{n},{t},{m},{v},{_decimal(m)},{_decimal(v)}\n" for n, t, m, v in rows)
+        else:
+            text = json.dumps([{"n": n, "total": t, "mean": str(m), "variance": str(v),
+                                "mean_decimal": float(m), "variance_decimal": float(v)}
+                               for n, t, m, v in rows]) + "\n"
+        if out is None:
+            typer.echo(text, nl=False)
+        else:
+            try:
+                out.write_text(text)
+            except OSError as err:
+                _fail(f"cannot write {out}: {err.strerror}")
+            typer.echo(f"wrote the mean and variance for n = 1 .. {trend_upto} to {out}",
+                       err=True)
+
+
+def _finite(x: float) -> float | None:
+    return None if x != x else x
+
+
+def _print_distribution(d: Distribution, var: str, moments: int) -> None:
+    typer.echo(f"n = {d.n}: {d.total} objects")
+    counts = list(d.counts.items())
+    shown = counts if len(counts) <= 12 else counts[:6] + [None] + counts[-5:]
+    for item in shown:
+        if item is None:
+            typer.echo("    ...")
+            continue
+        j, c = item
+        typer.echo(f"  {var} = {j:>4}: {number_text(c)}  ({float(Fraction(c, d.total)):.6f})")
+    typer.echo(f"  mean      {d.mean}  = {_decimal(d.mean)}")
+    typer.echo(f"  variance  {d.variance}  = {_decimal(d.variance)}")
+    typer.echo("  standardised moments (normal distribution in brackets):")
+    typer.echo("   " + "  ".join(f"{r}: {d.standardised_moment(r):.4f} [{normal_moment(r)}]"
+                                  for r in range(1, moments + 1)))
 
 
 @app.command()

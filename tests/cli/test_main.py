@@ -54,7 +54,7 @@ def test_check_json_shape():
     assert r.exit_code == 1
     data = json.loads(r.stdout)
     assert set(data) == {"holds", "order", "first_mismatch", "seconds", "hints", "method",
-                         "primes"}
+                         "primes", "variables", "weights"}
     assert data["method"] == "exact" and data["primes"] == []
     assert data["holds"] is False and data["order"] == 151
     fm = data["first_mismatch"]
@@ -189,3 +189,51 @@ def test_check_modular_method_json():
     data = json.loads(r.stdout)
     assert data["method"] == "modular" and len(data["primes"]) == 2
     assert run("check", "q", "q", "--method", "bogus").exit_code == 2
+
+
+def test_expand_prints_polynomial_coefficients():
+    r = run("expand", "(z q, q/z, q;q)_inf", "-n", "4", "--json")
+    assert r.exit_code == 0
+    assert json.loads(r.stdout)["terms"] == [[0, "1"], [1, "-z - 1 - z^-1"],
+                                             [3, "z^2 + z + 1 + z^-1 + z^-2"]]
+    r = run("expand", "1/(1-z)", "-n", "3", "--weight", "z=1")
+    assert r.stdout.strip() == "1 + z*q + z^2*q^2 + O(q^3)"
+
+
+def test_check_with_extra_variables_reports_variables_and_weights():
+    r = run("check", "sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", "-n", "30", "--json")
+    data = json.loads(r.stdout)
+    assert r.exit_code == 0 and data["variables"] == ["z"] and data["weights"] == [1]
+    r = run("check", "sum_{k>=0} z^k/(q;q)_k", "1/(z q;q)_inf", "-n", "30", "--json")
+    data = json.loads(r.stdout)
+    assert r.exit_code == 1 and data["first_mismatch"] == {"index": 1, "lhs": "z", "rhs": "0"}
+    r = run("check", "sum_{k>=0} z^k/(q;q)_k", "1/(z q;q)_inf", "-n", "30")
+    assert r.exit_code == 1 and "weighted degree 1" in r.stdout
+
+
+@pytest.mark.parametrize("weight", ["z", "z=-1", "q=1", "zz=1", "z=1x", "a=1"])
+def test_bad_weights_exit_2(weight):
+    r = run("check", "z", "z", "--weight", weight)
+    assert r.exit_code == 2 and "Traceback" not in r.output
+
+
+def test_distribution_command(tmp_path):
+    durfee = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"
+    r = run("distribution", durfee, "--at", "4")
+    assert r.exit_code == 0
+    assert "n = 4: 5 objects" in r.stdout and "mean      6/5" in r.stdout
+    r = run("distribution", durfee, "--at", "4", "--json")
+    data = json.loads(r.stdout)["sizes"][0]
+    assert data["counts"] == {"1": 4, "2": 1} and data["normal_moments"][3] == 3
+    out = tmp_path / "trend.csv"
+    r = run("distribution", durfee, "--trend-upto", "5", "--out", str(out))
+    assert r.exit_code == 0
+    lines = out.read_text().splitlines()
+    assert lines[0].startswith("n,total,mean,variance") and lines[4].startswith("4,5,6/5,4/25")
+    r = run("distribution", durfee, "--trend-upto", "2", "--format", "json")
+    assert json.loads(r.stdout)[1] == {"n": 2, "total": 2, "mean": "1", "variance": "0",
+                                       "mean_decimal": 1.0, "variance_decimal": 0.0}
+    for bad in (["distribution", durfee], ["distribution", "1/(q;q)_inf", "--at", "3"],
+                ["distribution", durfee, "--var", "a", "--at", "3"]):
+        r = run(*bad)
+        assert r.exit_code == 2 and "Traceback" not in r.output

@@ -106,3 +106,12 @@ def test_limits():
         parse("(" * (MAX_DEPTH + 5) + "q" + ")" * (MAX_DEPTH + 5))
     with pytest.raises(ParseError, match="digits"):
         parse("1" * 5000)
+
+
+def test_extra_variables_are_single_letters_not_bound():
+    from qseries.lang.ast import Var, extra_variables
+    node = parse("sum_{k>=0} z^k x1 q^k/(a;q)_k")
+    assert extra_variables(node) == {"z", "x1", "a"}
+    assert parse("z") == Var("z")
+    # a bound letter is not an extra variable
+    assert extra_variables(parse("sum_{z>=0} q^z")) == frozenset()

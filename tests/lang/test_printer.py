@@ -66,3 +66,9 @@ def _has_bigop(node) -> bool:
 def test_random_trees_round_trip(tree):
     text = show(tree)
     assert parse(text) == tree, text
+
+
+def test_extra_variables_round_trip():
+    for text in ["sum_{n=-inf}^{inf} z^n q^(n^2)", "(a z, q/z; q)_inf", "x1^-2 + b"]:
+        node = parse(text)
+        assert parse(show(node)) == node

@@ -1,0 +1,132 @@
+"""The distribution of a statistic from a two-variable generating function.
+
+When F(z, q) = sum_n P_n(z) q^n and P_n(1) counts the objects of size n, the coefficient
+P_n(z) / P_n(1) is the probability generating function of the statistic that z marks.  From
+it come the mean, the variance and the central moments (exact rationals) and the
+standardised moments E[(X - mean)^r] / sd^r, to be compared with those of the normal
+distribution: 0, 1, 0, 3, 0, 15, 0, 105, ...  (see the contributor guide's methods notes).
+
+>>> d = distributions("sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "z", [10])[0]   # Durfee squares
+>>> d.counts, d.total, d.mean
+({1: 10, 2: 30, 3: 2}, 42, Fraction(38, 21))
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from fractions import Fraction
+
+from ..errors import DomainError, QSeriesError, UnableError
+from ..lang import Evaluator, Node, parse
+from ..lang.ast import extra_variables
+from ..series import LaurentPoly, laurent_ring
+
+#: largest size n for which distributions are computed
+MAX_SIZE = 100_000
+
+
+@dataclass(frozen=True)
+class Distribution:
+    """The statistic's distribution over the objects of size n: ``counts[j]`` objects have
+    statistic j (the coefficient of z^j q^n)."""
+
+    n: int
+    counts: dict[int, int]
+
+    @property
+    def total(self) -> int:
+        return sum(self.counts.values())
+
+    @property
+    def mean(self) -> Fraction:
+        return Fraction(sum(j * c for j, c in self.counts.items()), self.total)
+
+    def central_moment(self, r: int) -> Fraction:
+        """E[(X - mean)^r], exactly.
+
+        >>> Distribution(3, {0: 1, 2: 1}).central_moment(2)
+        Fraction(1, 1)
+        """
+        m = self.mean
+        return sum((Fraction(j) - m) ** r * c for j, c in self.counts.items()) / self.total
+
+    @property
+    def variance(self) -> Fraction:
+        return self.central_moment(2)
+
+    def standardised_moment(self, r: int) -> float:
+        """E[(X - mean)^r] / sd^r (a float; nan when the variance is 0).
+
+        >>> Distribution(3, {0: 1, 2: 1}).standardised_moment(4)
+        1.0
+        """
+        v = self.variance
+        if v == 0:
+            return math.nan
+        if r % 2 == 0:
+            return float(self.central_moment(r) / v ** (r // 2))
+        return float(self.central_moment(r) / v ** (r // 2)) / math.sqrt(v)
+
+
+def normal_moment(r: int) -> int:
+    """E[Y^r] for a standard normal Y: 0 for odd r, (r-1)!! for even r.
+
+    >>> [normal_moment(r) for r in range(1, 9)]
+    [0, 1, 0, 3, 0, 15, 0, 105]
+    """
+    if r % 2:
+        return 0
+    out = 1
+    for k in range(r - 1, 0, -2):
+        out *= k
+    return out
+
+
+def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribution]:
+    """The distribution of the statistic marked by ``var`` at each size n in ``sizes``.
+
+    The coefficient of q^n must be a Laurent polynomial in ``var`` with non-negative integer
+    coefficients (they count objects); other extra variables are refused.
+
+    >>> [d.total for d in distributions("1/(z*q;q)_inf", "z", [5, 6])]   # p(5), p(6)
+    [7, 11]
+    """
+    node = parse(expr) if isinstance(expr, str) else expr
+    names = extra_variables(node)
+    if var not in names:
+        raise QSeriesError(f"the expression does not mention the variable {var!r} that should "
+                           f"mark the statistic")
+    others = sorted(names - {var})
+    if others:
+        raise QSeriesError(f"the expression has other extra variables ({', '.join(others)}); "
+                           f"only {var!r} may remain")
+    if not sizes:
+        raise QSeriesError("give at least one size n")
+    if min(sizes) < 0 or max(sizes) > MAX_SIZE:
+        raise QSeriesError(f"sizes must lie in 0 .. {MAX_SIZE}")
+    order = max(sizes) + 1
+    ring = laurent_ring((var,))
+    s = Evaluator(ring).evaluate(node, order)
+    if s.offset != 0:
+        raise DomainError("the series has fractional exponents; multiply by a power of q")
+    if s.precision is not None and s.precision < order:
+        raise UnableError(f"only the coefficients below q^{s.precision} are known")
+    out = []
+    for n in sizes:
+        c = s.coefficient(n)
+        counts: dict[int, int] = {}
+        if isinstance(c, LaurentPoly):
+            for exps, coef in c.terms():
+                counts[exps[1]] = coef
+        elif c:
+            counts[0] = c
+        for j, k in counts.items():
+            if not isinstance(k, int) or k < 0:
+                raise DomainError(f"the coefficient of {var}^{j} q^{n} is {k}, not a count "
+                                  f"(a non-negative integer)")
+        if not counts:
+            raise DomainError(f"there are no objects of size {n} (the coefficient of q^{n} "
+                              f"is 0)")
+        out.append(Distribution(n, dict(sorted(counts.items()))))
+    return out

@@ -1,0 +1,119 @@
+"""Identities in extra variables (z, a, b, c) checked against their published statements.
+
+Each check names its source; "from memory" marks statements recalled rather than copied.
+Broken variants must be caught at the coefficient where they first differ.
+"""
+
+import pytest
+
+from qseries.analysis import check
+from qseries.lang import evaluate
+from qseries.series import laurent_ring
+
+# (name, left, right, order, source)
+PUBLISHED = [
+    ("Jacobi triple product, product of three Pochhammers",
+     "sum_{n=-inf}^{inf} (-1)^n q^(n(n-1)/2) z^n", "(z, q/z, q; q)_inf", 80,
+     "G. E. Andrews, The Theory of Partitions (1976), Thm. 2.8 (from memory)"),
+    ("Jacobi triple product, Gauss's form",
+     "sum_{n=-inf}^{inf} z^n q^(n^2)", "(q^2;q^2)_inf (-z q, -q/z; q^2)_inf", 80,
+     "Andrews 1976, Thm. 2.8, eq. (2.2.10) (from memory)"),
+    ("Watson's quintuple product",
+     "sum_{n=-inf}^{inf} q^(n(3n+1)/2) (z^(3n) - z^(-3n-1))",
+     "(q, q z, 1/z; q)_inf (q z^2, q/z^2; q^2)_inf", 60,
+     "G. N. Watson, J. London Math. Soc. 4 (1929), 39-48; the product "
+     "prod (1-s^n)(1-s^n t)(1-s^(n-1)/t)(1-s^(2n-1) t^2)(1-s^(2n-1)/t^2) (from memory)"),
+    ("q-binomial theorem (Cauchy)",
+     "sum_{k>=0} (a;q)_k z^k/(q;q)_k", "(a z;q)_inf/(z;q)_inf", 40,
+     "G. Gasper, M. Rahman, Basic Hypergeometric Series, 2nd ed. (2004), eq. (1.3.2); "
+     "Andrews 1976, Thm. 2.1 (from memory)"),
+    ("Euler, first z-identity",
+     "sum_{k>=0} z^k q^(k(k-1)/2)/(q;q)_k", "(-z;q)_inf", 60,
+     "Andrews 1976, Cor. 2.2, eq. (2.2.6) (from memory)"),
+    ("Euler, second z-identity",
+     "sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", 60,
+     "Andrews 1976, Cor. 2.2, eq. (2.2.5) (from memory)"),
+    ("Cauchy: partitions by Durfee square and number of parts",
+     "sum_{k>=0} z^k q^(k^2)/((q;q)_k (z q;q)_k)", "1/(z q;q)_inf", 80,
+     "Andrews 1976, eq. (2.2.8) (from memory); the Durfee square of side k with z marking "
+     "the number of parts"),
+    ("Heine's transformation of 2phi1",
+     "sum_{k>=0} (a;q)_k (b;q)_k z^k/((c;q)_k (q;q)_k)",
+     "(b, a z;q)_inf/(c, z;q)_inf sum_{k>=0} (c/b;q)_k (z;q)_k b^k/((a z;q)_k (q;q)_k)", 14,
+     "Gasper-Rahman 2004, eq. (1.4.1) (from memory)"),
+]
+
+
+@pytest.mark.parametrize("name, left, right, order, source", PUBLISHED,
+                         ids=[p[0] for p in PUBLISHED])
+def test_published_identity_in_extra_variables(name, left, right, order, source):
+    r = check(left, right, order)
+    assert r.holds, f"{name} ({source}): {r.verdict}"
+    assert r.order_verified == order
+
+
+@pytest.mark.parametrize("name, left, right, order, source", PUBLISHED,
+                         ids=[p[0] for p in PUBLISHED])
+def test_published_identity_modular_schwartz_zippel(name, left, right, order, source):
+    r = check(left, right, order, method="modular", seed=11)
+    assert r.holds and r.method == "modular"
+    assert "random values" in r.verdict and "Schwartz-Zippel" in r.verdict
+
+
+def test_laurent_coefficients_are_exact_polynomials():
+    # (z, q/z, q; q)_inf: the coefficient of q is -(z + 1 + z^-1) + ... read off by hand
+    s = evaluate("(z q, q/z, q; q)_inf", 3)
+    z = laurent_ring(("z",)).gen("z")
+    assert s.coefficient(0) == 1
+    assert s.coefficient(1) == -(z + 1 + z**-1)
+
+
+def test_power_series_in_z_need_a_weight_and_get_one_automatically():
+    r = check("sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", 30)
+    assert r.weights == (1,) and r.weighted
+    assert "n + e_z < 30" in r.verdict
+    with pytest.raises(Exception, match="does not converge"):
+        check("sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", 30, weights={"z": 0})
+
+
+@pytest.mark.parametrize("method", ["exact", "modular"])
+def test_broken_triple_product_caught_at_q1(method):
+    # q/z replaced by q^3/z: the factor 1 - q/z is missing, whose term -q/z times the
+    # constant term 1 - z of (z;q)_inf is -(1 - z)/z * q = (1 - z^-1) q
+    r = check("sum_{n=-inf}^{inf} (-1)^n q^(n(n-1)/2) z^n", "(z, q^3/z, q; q)_inf", 40,
+              method=method, seed=3)
+    assert not r.holds
+    assert r.first_mismatch.exponent == 1
+    assert str(r.first_mismatch.difference) == "1 - z^-1"
+
+
+@pytest.mark.parametrize("method", ["exact", "modular"])
+def test_broken_q_binomial_caught_at_weighted_degree_2(method):
+    # (a z;q)_inf replaced by (a z^2;q)_inf: the term -a*z (weighted degree 2) is lost
+    r = check("sum_{k>=0} (a;q)_k z^k/(q;q)_k", "(a z^2;q)_inf/(z;q)_inf", 20,
+              method=method, seed=3)
+    assert not r.holds and r.weighted
+    assert r.first_mismatch.exponent == 2
+    assert str(r.first_mismatch.difference) == "-a*z"
+    assert "weighted degree 2" in r.verdict
+
+
+def test_broken_refined_durfee_caught():
+    # (z q;q)_k replaced by (q;q)_k on the left: z no longer marks the parts below the square
+    r = check("sum_{k>=0} z^k q^(k^2)/((q;q)_k (q;q)_k)", "1/(z q;q)_inf", 30)
+    assert not r.holds and r.first_mismatch.exponent == 2
+    z = laurent_ring(("z",)).gen("z")
+    assert r.first_mismatch.lhs == 2 * z and r.first_mismatch.rhs == z**2 + z
+
+
+def test_non_laurent_coefficient_is_refused_clearly_without_weight():
+    with pytest.raises(Exception, match="weight"):
+        evaluate("1/(1 - z)", 5)
+    # with a weight it is the geometric series in z*q
+    assert str(evaluate("1/(1 - z)", 4, weights={"z": 1})) == \
+        "1 + z*q + z^2*q^2 + z^3*q^3 + O(q^4)"
+
+
+def test_extra_variable_in_exponent_is_refused():
+    with pytest.raises(Exception, match="extra variable z"):
+        evaluate("q^z", 5)
