@@ -117,8 +117,9 @@ class CheckResult:
 
     def unweighted_text(self, c: Number | LaurentPoly, e: Exponent) -> str:
         """The part of weighted degree e with coefficient c, written back in q and the
-        extra variables (z*q^w -> z): ``z*q^2 + 3*z^2*q``."""
-        if not isinstance(c, LaurentPoly):
+        extra variables (z*q^w -> z): ``z*q^2 + 3*z^2*q``; without weights, the coefficient
+        c as text."""
+        if not isinstance(c, LaurentPoly) or not self.weighted:
             return _text(c)
         w = dict(zip(self.variables, self.weights, strict=True))
         parts = []

@@ -16,6 +16,8 @@ expect      "holds" (default) or "fails": a printed form known to be wrong
 fails_at    with expect = "fails": the exponent of the first mismatch
 note        free text (what the misprint is, who corrected it)
 corrects    the key of the misprinted entry that this entry corrects
+weights     weights of extra variables, ``{c = 2, z = 1}``: z stands for z*q^w (see
+            ``qseries check --weight``); by default 0, or 1 for all when 0 fails
 =========== ==========================================================================
 
 >>> import tempfile, pathlib
@@ -42,10 +44,12 @@ from pathlib import Path
 
 from ..errors import ParseError, QSeriesError
 from ..lang import parse
+from ..lang.ast import extra_variables
+from ..lang.parser import is_extra_variable
 from .templates import TemplateError, expand_template, integer_expression
 
 REQUIRED = ("key", "title", "left", "right", "order", "source")
-OPTIONAL = ("tags", "params", "expect", "fails_at", "note", "corrects")
+OPTIONAL = ("tags", "params", "expect", "fails_at", "note", "corrects", "weights")
 MAX_MEMBERS = 500
 MAX_ORDER = 100_000
 _KEY = re.compile(r"^[a-z0-9][a-z0-9-]*$")
@@ -74,6 +78,7 @@ class Entry:
     note: str = ""
     corrects: str = ""
     family: str = field(default="")
+    weights: tuple[tuple[str, int], ...] | None = None
 
     @property
     def ident(self) -> str:
@@ -183,6 +188,7 @@ def load_file(path: Path) -> list[Entry]:
         for name in ("note", "corrects"):
             if not isinstance(table.get(name, ""), str):
                 raise IdentityFileError(f"{at(name)}: {name} must be a string")
+        weights = _weights(table.get("weights"), at("weights"))
         params = table.get("params")
         if params is not None and not isinstance(params, dict):
             raise IdentityFileError(f"{at('params')}: params must be a table of ranges")
@@ -202,8 +208,26 @@ def load_file(path: Path) -> list[Entry]:
                 order=order, source=table["source"], path=str(path), line=header,
                 tags=tuple(tags), params=tuple(values.items()), expect=expect,
                 fails_at=fails_at, note=table.get("note", ""),
-                corrects=table.get("corrects", ""), family=table["key"] if params else ""))
+                corrects=table.get("corrects", ""), family=table["key"] if params else "",
+                weights=weights))
+            if weights is not None:
+                names = extra_variables(parse(sides[0])) | extra_variables(parse(sides[1]))
+                stray = sorted(dict(weights).keys() - names)
+                if stray:
+                    raise IdentityFileError(f"{at('weights')}: {stray[0]!r} is not an extra "
+                                            f"variable of either side")
     return entries
+
+
+def _weights(value: object, where: str) -> tuple[tuple[str, int], ...] | None:
+    if value is None:
+        return None
+    if not isinstance(value, dict) or not all(
+            isinstance(k, str) and is_extra_variable(k) and isinstance(v, int)
+            and not isinstance(v, bool) and 0 <= v <= 1000 for k, v in value.items()):
+        raise IdentityFileError(f"{where}: weights must be a table of extra variables and "
+                                f"integers from 0 to 1000, such as {{c = 2, z = 1}}")
+    return tuple(sorted(value.items()))
 
 
 def identity_files(paths: list[Path]) -> list[Path]:

@@ -21,7 +21,6 @@ from fractions import Fraction
 
 from ..analysis import check
 from ..errors import QSeriesError
-from ..series.formatting import number_text
 from .files import Entry
 
 
@@ -48,13 +47,15 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
     n = order or entry.order
     t0 = time.perf_counter()
     try:
-        r = check(entry.left, entry.right, order=n)
+        r = check(entry.left, entry.right, order=n,
+                  weights=None if entry.weights is None else dict(entry.weights))
     except QSeriesError as err:
         return EntryResult(entry.ident, False, False, 0, None, time.perf_counter() - t0,
                            str(err))
     m = r.first_mismatch
     mismatch = None if m is None else {"index": _json_exp(m.exponent),
-                                       "lhs": number_text(m.lhs), "rhs": number_text(m.rhs)}
+                                       "lhs": r.unweighted_text(m.lhs, m.exponent),
+                                       "rhs": r.unweighted_text(m.rhs, m.exponent)}
     if entry.expect == "holds":
         ok = r.holds and r.order_verified == n
     else:

@@ -55,6 +55,8 @@ NOTATION_FORMS = [
     ("sum_{k=-inf}^{inf} T", "bilateral sum"),
     ("prod_{n>=1} T   prod_{n=1}^{inf} T", "products"),
     ("O(q^N)", "an unknown remainder of order N"),
+    ("z, a, b, x1  (z q;q)_inf  z^-1", "extra variables: letters other than q that no sum "
+                                      "binds; coefficients become Laurent polynomials in them"),
 ]
 
 _DIGITS = frozenset("0123456789")
