@@ -10,10 +10,21 @@ compare.  Agreement to O(q^N) is evidence, not a proof.
 >>> r = qseries.check("(q;q)_inf^3", "sum_{n>=0} (-1)^n (2n+1) q^(n(n+1)/2)", order=200)
 >>> r.holds, r.order_verified
 (True, 200)
+>>> qseries.evaluate("(z q;q)_inf", order=3)       # z is an extra variable
+1 - z*q - z*q^2 + O(q^3)
 """
 
-from ._flint import GF, QQ, ZZ
-from .analysis import CheckResult, Mismatch, ProductForm, check, diagnose, product_form
+from ._flint import GF, QQ, ZZ, laurent_ring
+from .analysis import (
+                       CheckResult,
+                       Distribution,
+                       Mismatch,
+                       ProductForm,
+                       check,
+                       diagnose,
+                       distributions,
+                       product_form,
+)
 from .errors import DomainError, IncompatibleRingError, ParseError, QSeriesError, UnableError
 from .lang import evaluate, parse, show
 from .series import Series
@@ -21,7 +32,7 @@ from .series import Series
 __version__ = "0.1.0"
 
 __all__ = [
-    "CheckResult", "DomainError", "GF", "IncompatibleRingError", "Mismatch", "ParseError",
-    "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose",
-    "evaluate", "parse", "product_form", "show",
+    "CheckResult", "Distribution", "DomainError", "GF", "IncompatibleRingError", "Mismatch",
+    "ParseError", "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check",
+    "diagnose", "distributions", "evaluate", "laurent_ring", "parse", "product_form", "show",
 ]
