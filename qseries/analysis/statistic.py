@@ -42,6 +42,14 @@ class Distribution:
     def mean(self) -> Fraction:
         return Fraction(sum(j * c for j, c in self.counts.items()), self.total)
 
+    @property
+    def variance(self) -> Fraction:
+        """E[X^2] - E[X]^2, from integer power sums."""
+        s0 = self.total
+        s1 = sum(j * c for j, c in self.counts.items())
+        s2 = sum(j * j * c for j, c in self.counts.items())
+        return Fraction(s2 * s0 - s1 * s1, s0 * s0)
+
     def central_moment(self, r: int) -> Fraction:
         """E[(X - mean)^r], exactly.
 
@@ -50,10 +58,6 @@ class Distribution:
         """
         m = self.mean
         return sum((Fraction(j) - m) ** r * c for j, c in self.counts.items()) / self.total
-
-    @property
-    def variance(self) -> Fraction:
-        return self.central_moment(2)
 
     def standardised_moment(self, r: int) -> float:
         """E[(X - mean)^r] / sd^r (a float; nan when the variance is 0).
@@ -112,9 +116,12 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
         raise DomainError("the series has fractional exponents; multiply by a power of q")
     if s.precision is not None and s.precision < order:
         raise UnableError(f"only the coefficients below q^{s.precision} are known")
+    # all coefficients in one pass over the series (not one extraction per size)
+    coeffs = s.ring.coefficients(s.poly)
     out = []
     for n in sizes:
-        c = s.coefficient(n)
+        i = n - s.start
+        c = coeffs[i] if 0 <= i < len(coeffs) else 0
         counts: dict[int, int] = {}
         if isinstance(c, LaurentPoly):
             for exps, coef in c.terms():
