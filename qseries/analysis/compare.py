@@ -17,7 +17,6 @@ import os
 import random
 import time
 from collections.abc import Callable
-from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, field
 from fractions import Fraction
 
@@ -340,8 +339,11 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
     first: Exponent | None = None
     # at high order the other primes run in worker processes while this one computes the first
     parallel = order >= PARALLEL_ORDER and len(ps) > 1 and (os.cpu_count() or 1) > 1
-    pool = ProcessPoolExecutor(max_workers=min(len(ps) - 1, os.cpu_count() or 1)) \
-        if parallel else None
+    pool = None
+    if parallel:
+        # imported here: multiprocessing costs start-up time that most checks do not need
+        from concurrent.futures import ProcessPoolExecutor
+        pool = ProcessPoolExecutor(max_workers=min(len(ps) - 1, os.cpu_count() or 1))
     try:
         futures = [pool.submit(_modular_compare, lnode, rnode, order, p, names, weights)
                    for p in ps[1:]] if pool else []

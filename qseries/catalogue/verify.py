@@ -15,7 +15,6 @@ from __future__ import annotations
 import os
 import time
 from collections.abc import Callable, Iterator
-from concurrent.futures import ProcessPoolExecutor, as_completed
 from dataclasses import dataclass
 from fractions import Fraction
 
@@ -91,6 +90,8 @@ def _run(entries: list[Entry], order: int | None, jobs: int
         for i, e in enumerate(entries):
             yield i, verify_entry(e, order)
         return
+    from concurrent.futures import ProcessPoolExecutor, as_completed  # only when needed
+
     with ProcessPoolExecutor(max_workers=jobs) as pool:
         futures = {pool.submit(_work, (e, order)): i for i, e in enumerate(entries)}
         for fut in as_completed(futures):

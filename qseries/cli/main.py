@@ -11,13 +11,12 @@ import sys
 from enum import StrEnum
 from fractions import Fraction
 from pathlib import Path
-from typing import Annotated, Any
+from typing import TYPE_CHECKING, Annotated, Any
 
 import typer
 
 from ..analysis import Distribution, diagnose, distributions, normal_moment, product_form
 from ..analysis.compare import CheckResult, check
-from ..catalogue import SHIPPED, EntryResult, load_entries, select, verify_entries
 from ..errors import QSeriesError
 from ..lang import evaluate
 from ..lang.parser import NOTATION_FORMS, is_extra_variable
@@ -25,6 +24,9 @@ from ..products import FUNCTIONS
 from ..series import MAX_LENGTH, LaurentPoly, Series
 from ..series.formatting import format_series, number_text
 from .demo import DEMO_CASES
+
+if TYPE_CHECKING:
+    from ..catalogue import EntryResult
 
 app = typer.Typer(
     name="qseries",
@@ -165,10 +167,12 @@ STATUS_ORDER = 20_000
 def _with_status(run: Any, show: bool) -> Any:
     """Run ``run(say)``; on a terminal (and when ``show``) display what it says as a live
     status line, on a pipe nothing."""
-    from rich.console import Console
+    if not (show and sys.stderr.isatty()):
+        return run(lambda _text: None)
+    from rich.console import Console  # only for a live status line on a terminal
 
     console = Console(stderr=True)
-    if not (show and console.is_terminal):
+    if not console.is_terminal:
         return run(lambda _text: None)
     with console.status("checking") as status:
         return run(lambda text: status.update(text))
@@ -389,6 +393,8 @@ PathsArgument = Annotated[list[Path] | None, typer.Argument(
 
 
 def _load(paths: list[Path] | None, only: list[str]) -> list:
+    from ..catalogue import SHIPPED, load_entries, select  # imported when a command needs it
+
     entries = _guarded(load_entries, paths or [SHIPPED])
     chosen = select(entries, only)
     if not chosen:
@@ -419,6 +425,8 @@ def verify(
     from rich.console import Console
     from rich.progress import Progress
     from rich.table import Table
+
+    from ..catalogue import verify_entries
 
     entries = _load(paths, only or [])
     t0 = time.perf_counter()

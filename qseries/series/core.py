@@ -378,6 +378,11 @@ class Series:
         start = va + vb
         if start + R.length(a.poly) + R.length(b.poly) - 1 <= order:
             return Series(R, a.poly * b.poly, start, 0, None)
+        for x, y in ((a, b), (b, a)):
+            if R.length(x.poly) == 1:   # a monomial: a scalar multiple, no multiplication
+                c = R.coeff(x.poly, 0)
+                poly = R.truncate(y.poly, order - start)
+                return Series(R, poly if c == 1 else poly * c, start, 0, order)
         return Series(R, R.mul_low(a.poly, b.poly, order - start), start, 0, order)
 
     def shift(self, e: Exponent) -> Series:
