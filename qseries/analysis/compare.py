@@ -24,7 +24,7 @@ from ..errors import DomainError, QSeriesError
 from ..lang import Evaluator, Node, evaluate, parse
 from ..lang.ast import extra_variables
 from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring
-from ..series.formatting import number_text
+from ..series.formatting import coefficient_text
 
 Exponent = int | Fraction
 Number = int | Fraction
@@ -153,15 +153,26 @@ class CheckResult:
         return out
 
 
+    def table(self, radius: int = 2) -> list[str]:
+        """Lines of a right-aligned table of both sides' coefficients around the first
+        mismatch (empty when the sides agree)."""
+        head = "weighted degree" if self.weighted else "exponent"
+        rows = [(head, "left", "right", "difference")] + [
+            (_text(e), _text(a), _text(b), _text(a - b)) for e, a, b in self.neighbours(radius)]
+        if len(rows) == 1:
+            return []
+        widths = [max(len(row[i]) for row in rows) for i in range(4)]
+        return ["  " + "  ".join(c.rjust(w) for c, w in zip(row, widths, strict=True))
+                for row in rows]
+
+
 def _low(s: Series) -> Fraction:
     v = s.valuation
     return Fraction(v) if v is not None else Fraction(0)
 
 
 def _text(x: Exponent | Number | LaurentPoly) -> str:
-    if isinstance(x, LaurentPoly):
-        return str(x)
-    return number_text(x)
+    return coefficient_text(x)
 
 
 def _known_to(s: Series, order: int) -> Exponent:

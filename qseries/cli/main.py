@@ -21,8 +21,8 @@ from ..errors import QSeriesError
 from ..lang import evaluate
 from ..lang.parser import NOTATION_FORMS, is_extra_variable
 from ..products import FUNCTIONS
-from ..series import MAX_LENGTH, LaurentPoly, Series
-from ..series.formatting import format_series, number_text
+from ..series import MAX_LENGTH, Series
+from ..series.formatting import coefficient_text, format_series, number_text
 from .demo import DEMO_CASES
 
 if TYPE_CHECKING:
@@ -57,11 +57,7 @@ def _exp_json(e: int | Fraction) -> int | str:
     return e.numerator if e.denominator == 1 else str(e)
 
 
-def _num_text(c: Any) -> str:
-    """A coefficient as text: a number, or a Laurent polynomial such as ``z^2 - z``."""
-    if isinstance(c, LaurentPoly):
-        return str(c)
-    return number_text(c)
+_num_text = coefficient_text
 
 
 WeightOption = Annotated[list[str] | None, typer.Option(
@@ -145,13 +141,8 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
         typer.echo(f"DIFFERS  {r.verdict} (difference {_num_text(m.difference)})")
         below = f"weighted degree {m.exponent}" if r.weighted else f"q^{m.exponent}"
         typer.echo(f"  coefficients below {below} agree")
-        head = "weighted degree" if r.weighted else "exponent"
-        rows = [(head, "left", "right", "difference")] + [
-            (str(e), _num_text(a), _num_text(b), _num_text(a - b))
-            for e, a, b in r.neighbours()]
-        widths = [max(len(row[i]) for row in rows) for i in range(4)]
-        for row in rows:
-            typer.echo("  " + "  ".join(cell.rjust(w) for cell, w in zip(row, widths, strict=True)))
+        for line in r.table():
+            typer.echo(line)
     for hint in diagnose(r):
         typer.echo(f"  hint ({hint.kind}): {hint.message}")
     if r.order_verified != r.order_requested:
@@ -235,8 +226,12 @@ def product(
 
     Example: qseries product "sum_{k>=0} q^(k^2)/(q;q)_k" --order 200
     """
+    series: Series = _guarded(evaluate, expr, order)
+    if getattr(series.ring, "names", ()):
+        _fail("product forms are recovered for series in q alone; this expression has the "
+              f"extra variables {', '.join(series.ring.names)}")  # type: ignore[attr-defined]
     try:
-        pf = product_form(_guarded(evaluate, expr, order), order)
+        pf = product_form(series, order)
     except QSeriesError as err:
         if as_json:
             typer.echo(json.dumps({"order": order, "product_form": False, "reason": str(err)}))

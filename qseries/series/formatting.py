@@ -34,6 +34,18 @@ def number_text(x: int | Fraction) -> str:
     return int_to_decimal(n)   # GMP: Python's own conversion is quadratic and capped
 
 
+def coefficient_text(c: object) -> str:
+    """A coefficient as text: a number of any size, or a Laurent polynomial in extra
+    variables (``z^2 - z``).
+
+    >>> coefficient_text(Fraction(-3, 4))
+    '-3/4'
+    """
+    if isinstance(c, LaurentPoly):
+        return laurent_text(c)
+    return number_text(c)  # type: ignore[arg-type]
+
+
 def short_number_text(x: int | Fraction, digits: int = 60) -> str:
     """The number, or a description of it when it is very long (for error messages)."""
     n = abs(Fraction(x).numerator).bit_length() + Fraction(x).denominator.bit_length()

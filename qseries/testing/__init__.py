@@ -18,29 +18,25 @@ from __future__ import annotations
 from ..analysis import CheckResult, check
 from ..lang import Node
 from ..series import ZZ, Ring
-from ..series.formatting import number_text
 
 
 def mismatch_report(r: CheckResult, radius: int = 2) -> str:
     """The verdict and a table of coefficients around the first mismatch."""
-    lines = [r.verdict]
-    rows = [("exponent", "left", "right", "difference")] + [
-        (str(e), number_text(a), number_text(b), number_text(a - b))
-        for e, a, b in r.neighbours(radius)]
-    if len(rows) > 1:
-        widths = [max(len(row[i]) for row in rows) for i in range(4)]
-        lines += ["  " + "  ".join(c.rjust(w) for c, w in zip(row, widths, strict=True))
-                  for row in rows]
+    lines = [r.verdict] + r.table(radius)
     if r.order_verified != r.order_requested:
         lines.append(f"  (only the coefficients below q^{r.order_verified} were known)")
     return "\n".join(lines)
 
 
 def assert_identity(lhs: str | Node, rhs: str | Node, order: int = 100,
-                    ring: Ring = ZZ) -> CheckResult:
+                    ring: Ring = ZZ, weights: dict[str, int] | None = None) -> CheckResult:
     """Assert that both sides agree to O(q^order), with the order really verified; on failure
-    the message shows the first mismatch and its neighbouring coefficients."""
-    r = check(lhs, rhs, order=order, ring=ring)
+    the message shows the first mismatch and its neighbouring coefficients.  ``weights`` is
+    passed to :func:`qseries.check` (for extra variables).
+
+    >>> _ = assert_identity("sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", order=20)
+    """
+    r = check(lhs, rhs, order=order, ring=ring, weights=weights)
     if not r.holds or r.order_verified != order:
         raise AssertionError(mismatch_report(r))
     return r

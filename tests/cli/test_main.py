@@ -77,6 +77,7 @@ def test_check_reports_the_order_really_verified():
     ["expand", "xy"],
     ["expand", "q^z"],
     ["expand", "1/(1-z)"],
+    ["product", "1/(z q;q)_inf"],
     ["expand", "q", "--order", "0"],
     ["expand", "q", "--order", "-5"],
     ["expand", "q", "--order", "abc"],
