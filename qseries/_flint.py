@@ -18,6 +18,10 @@ explicit: ``mul_low(a, b, n)`` keeps the coefficients of ``q^0 .. q^(n-1)``.
 
 from __future__ import annotations
 
+import contextlib
+import contextvars
+import time
+from collections.abc import Iterator
 from fractions import Fraction
 from typing import Any
 
@@ -352,6 +356,64 @@ class _ModularRing(Ring):
         return self.name
 
 
+#: most terms a polynomial with coefficients in extra variables may have (about 100 bytes a
+#: term before the integers themselves); beyond it the modular method is the way
+MAX_LAURENT_TERMS = 3_000_000
+#: longest time (seconds) one evaluation may spend on such polynomials (their size grows
+#: fast with the order); checked only inside ``laurent_budget``
+LAURENT_SECONDS = 60.0
+#: most terms the product of two such polynomials may have by the bound checked before
+#: multiplying (FLINT aborts the process when an allocation fails)
+MAX_LAURENT_PRODUCT = 30_000_000
+
+_deadline: contextvars.ContextVar[tuple[float, float] | None] = contextvars.ContextVar(
+    "laurent_deadline", default=None)
+
+
+@contextlib.contextmanager
+def laurent_budget(seconds: float = LAURENT_SECONDS) -> Iterator[None]:
+    """Within this block, arithmetic on polynomials with coefficients in extra variables
+    stops with an UnableError once it has run for ``seconds`` (an exact evaluation that
+    would run for many minutes ends with a clear message instead).
+
+    >>> R = laurent_ring(("z",))
+    >>> with laurent_budget(0):  # doctest: +ELLIPSIS
+    ...     (R.gen("z") + 1) ** 2 * (R.gen("z") + 1) ** 3
+    Traceback (most recent call last):
+    ...
+    qseries.errors.UnableError: this exact computation with coefficients in z has run for ...
+    """
+    token = _deadline.set((time.monotonic() + seconds, seconds))
+    try:
+        yield
+    finally:
+        _deadline.reset(token)
+
+
+def _guard_product(a: Any, b: Any, names: tuple[str, ...]) -> None:
+    """Refuse a product whose size bound (the smaller of len(a)*len(b) and the box of
+    exponents it can reach) exceeds MAX_LAURENT_PRODUCT, before FLINT tries to allocate it."""
+    bound = len(a) * len(b)
+    if bound <= MAX_LAURENT_PRODUCT:
+        return
+    box = 1
+    for da, db in zip(a.degrees(), b.degrees(), strict=True):
+        box *= int(da) + int(db) + 1
+    if min(bound, box) > MAX_LAURENT_PRODUCT:
+        raise UnableError(f"a product of polynomials in q and {', '.join(names)} could have "
+                          f"{min(bound, box)} terms, beyond the limit {MAX_LAURENT_PRODUCT}; "
+                          f"compare at random values of the variables instead (check --method "
+                          f"modular), or lower the order")
+
+
+def _tick(names: tuple[str, ...]) -> None:
+    d = _deadline.get()
+    if d is not None and time.monotonic() > d[0]:
+        raise UnableError(f"this exact computation with coefficients in {', '.join(names)} has "
+                          f"run for more than {d[1]:g} s; compare at random values of the "
+                          f"variables instead (check --method modular), or lower the order")
+
+
 class LaurentPoly:
     """A polynomial in q whose coefficients are Laurent polynomials in the extra variables:
     ``x^shift * m`` with ``m`` a FLINT polynomial in (q, x1, ..., xk).  Kept normalised
@@ -367,6 +429,11 @@ class LaurentPoly:
     __slots__ = ("ring", "m", "shift")
 
     def __init__(self, ring: _LaurentRing, m: Any, shift: tuple[int, ...]) -> None:
+        if len(m) > MAX_LAURENT_TERMS:
+            raise UnableError(f"a series with coefficients in {', '.join(ring.names)} has "
+                              f"{len(m)} terms, beyond the limit {MAX_LAURENT_TERMS}; compare "
+                              f"at random values of the variables instead (check --method "
+                              f"modular), or lower the order")
         if m.is_zero():
             shift = ring._no_shift
         else:
@@ -407,6 +474,7 @@ class LaurentPoly:
 
     def __add__(self, other: Any) -> LaurentPoly:
         x, other = self._pair(other)
+        _tick(x.ring.names)
         a, b, s = x._aligned(other)
         return LaurentPoly(x.ring, a + b, s)
 
@@ -425,7 +493,10 @@ class LaurentPoly:
 
     def __mul__(self, other: Any) -> LaurentPoly:
         x, other = self._pair(other)
-        return LaurentPoly(x.ring, x.m * other.m,
+        _tick(x.ring.names)
+        _guard_product(x.m, other.m, x.ring.names)
+        m = x.m * other.m
+        return LaurentPoly(x.ring, m,
                            tuple(a + b for a, b in zip(x.shift, other.shift, strict=True)))
 
     __rmul__ = __mul__
@@ -433,6 +504,13 @@ class LaurentPoly:
     def __pow__(self, e: int) -> LaurentPoly:
         if e < 0:
             return self.ring._unit_inverse(self) ** (-e)
+        if e > 1 and len(self.m) > 1:
+            box = 1
+            for d in self.m.degrees():
+                box *= int(d) * e + 1
+            if box > MAX_LAURENT_PRODUCT:
+                raise UnableError(f"the power ({laurent_text(self)[:40]}...)^{e} could have "
+                                  f"{box} terms, beyond the limit {MAX_LAURENT_PRODUCT}")
         return LaurentPoly(self.ring, self.m ** e, tuple(s * e for s in self.shift))
 
     def __eq__(self, other: object) -> bool:

@@ -117,3 +117,29 @@ def test_non_laurent_coefficient_is_refused_clearly_without_weight():
 def test_extra_variable_in_exponent_is_refused():
     with pytest.raises(Exception, match="extra variable z"):
         evaluate("q^z", 5)
+
+
+def test_auto_method_goes_modular_early_with_extra_variables():
+    r = check("sum_{n=-inf}^{inf} z^n q^(n^2)", "(q^2;q^2)_inf (-z q, -q/z; q^2)_inf", 1000,
+              method="auto")
+    assert r.holds and r.method == "modular"
+    assert check("(z q;q)_inf", "(z q;q)_inf", 400, method="auto").method == "exact"
+
+
+def test_huge_exact_polynomials_are_refused_not_attempted():
+    import time
+
+    from qseries._flint import laurent_budget
+    # the coefficient of q^n is (z + 1/z + a)^n: the product bound is checked before FLINT
+    # allocates (it would abort the process)
+    t0 = time.perf_counter()
+    with pytest.raises(Exception, match="beyond the limit"):
+        evaluate("1/(1 - (z + 1/z + a) q)", 3000)
+    with pytest.raises(Exception, match="beyond the limit"):
+        evaluate("(1 + z + a)^100000", 5)
+    # a long exact computation ends at the time limit
+    with laurent_budget(0.5), pytest.raises(Exception, match="has run for more than"):
+        from qseries.lang import Evaluator, parse
+        from qseries.series import laurent_ring
+        Evaluator(laurent_ring(("z",))).value(parse("1/(z q;q)_inf"), {}, 3000)
+    assert time.perf_counter() - t0 < 30

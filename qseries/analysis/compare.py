@@ -207,6 +207,8 @@ def compare_series(lhs: Series, rhs: Series, order: int) -> tuple[Exponent, Mism
 
 #: orders above this use the modular method under ``method="auto"``
 AUTO_MODULAR_ORDER = 3000
+#: the same with extra variables, whose exact coefficients grow much faster
+AUTO_MODULAR_ORDER_EXTRA = 400
 #: the modular method draws primes from [2^61, 2^62); there are about this many
 PRIME_COUNT = 2**61 / (62 * 0.6931471805599453)
 
@@ -249,7 +251,8 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
 
     ``method="modular"`` compares modulo ``primes`` random primes near 2^62 (much faster at
     high order) and recomputes the two coefficients exactly at a mismatch; ``"auto"`` uses
-    it above order 3000.  ``progress`` (if given) is called with a short text at each stage.
+    it above order 3000 (above 400 with extra variables).  ``progress`` (if given) is called
+    with a short text at each stage.
 
     Extra variables (z, a, ...) make the coefficients Laurent polynomials in them; the
     modular method then also sets them to random residues (Schwartz-Zippel).  ``weights``
@@ -268,11 +271,12 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
         raise QSeriesError(f"the order must be a positive integer, not {order!r}")
     if method not in ("exact", "modular", "auto"):
         raise QSeriesError(f"unknown method {method!r}: use exact, modular or auto")
-    if method == "auto":
-        method = "modular" if order > AUTO_MODULAR_ORDER and ring in (ZZ, QQ) else "exact"
     lnode = parse(lhs) if isinstance(lhs, str) else lhs
     rnode = parse(rhs) if isinstance(rhs, str) else rhs
     names = tuple(sorted(extra_variables(lnode) | extra_variables(rnode)))
+    if method == "auto":
+        limit = AUTO_MODULAR_ORDER_EXTRA if names else AUTO_MODULAR_ORDER
+        method = "modular" if order > limit and ring in (ZZ, QQ) else "exact"
     if weights is not None:
         unknown = sorted(set(weights) - set(names))
         if unknown:

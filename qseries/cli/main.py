@@ -178,7 +178,8 @@ def check_cmd(
         "--method", "-m",
         help="exact: integer/rational arithmetic; modular: compare modulo random primes near "
              "2^62 (fast at high order; the exact coefficients are recomputed at a "
-             "mismatch); auto: exact up to order 3000, modular above.")] = Method.auto,
+             "mismatch); auto: exact up to order 3000 (400 with extra variables), modular "
+             "above.")] = Method.auto,
     primes: Annotated[int, typer.Option(
         "--primes", min=1, max=20, help="How many primes the modular method uses.")] = 3,
     weight: WeightOption = None,

@@ -18,6 +18,7 @@ from __future__ import annotations
 from fractions import Fraction
 from typing import Any
 
+from .._flint import laurent_budget
 from ..errors import DomainError, QSeriesError, UnableError
 from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
@@ -104,6 +105,10 @@ class Evaluator:
         result's ``precision`` says what is really known."""
         if order > MAX_LENGTH:
             raise UnableError(f"order {order} exceeds the limit {MAX_LENGTH}")
+        with laurent_budget():
+            return self._evaluate(node, order, retries)
+
+    def _evaluate(self, node: Node, order: int, retries: int) -> Series:
         self._cache.clear()
         self._terms = 0
         work = order
