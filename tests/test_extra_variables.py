@@ -21,8 +21,11 @@ PUBLISHED = [
     ("Watson's quintuple product",
      "sum_{n=-inf}^{inf} q^(n(3n+1)/2) (z^(3n) - z^(-3n-1))",
      "(q, q z, 1/z; q)_inf (q z^2, q/z^2; q^2)_inf", 60,
-     "G. N. Watson, J. London Math. Soc. 4 (1929), 39-48; the product "
-     "prod (1-s^n)(1-s^n t)(1-s^(n-1)/t)(1-s^(2n-1) t^2)(1-s^(2n-1)/t^2) (from memory)"),
+     "G. N. Watson (1929); D. Foata, G.-N. Han, Sem. Lothar. Combin. 42 (1999) B42o, "
+     "eq. (1.3)"),
+    ("MacMahon's finite triple product, n = 3, m = 2",
+     "(1/z;q)_3 (z q;q)_2", "sum_{j=-3}^{2} gaussian(5, j+3) (-z)^j q^(j(j+1)/2)", 40,
+     "Foata-Han 1999, eq. (1.4), after MacMahon, Combinatory Analysis (1916), sec. 323"),
     ("q-binomial theorem (Cauchy)",
      "sum_{k>=0} (a;q)_k z^k/(q;q)_k", "(a z;q)_inf/(z;q)_inf", 40,
      "G. Gasper, M. Rahman, Basic Hypergeometric Series, 2nd ed. (2004), eq. (1.3.2); "
