@@ -105,3 +105,44 @@ def test_large_coefficients_print_quickly():
 def test_inputs_from_random_fuzzing_end_quickly(text):
     with pytest.raises(QSeriesError):
         evaluate(text, 50)
+
+
+# -- found by the review of extra variables (regression tests first) ----------------------
+@pytest.mark.parametrize("expr, order, exponent, expected", [
+    # (-q;q^2)_3 = (1+q)(1+q^3)(1+q^5); divided by q(1-q): q^2 has 1 + 1 + 1 = 3
+    ("(-q;q^2)_3/(q-q^2)", 3, 2, 3),
+    # (2q^3;q)_inf = 1 - 2q^3 - ...; divided by q(1-q): q^2 has 1 - 2 = -1
+    ("(2 q^3;q)_inf/(q - q^2)", 3, 2, -1),
+])
+def test_pochhammer_with_left_out_factors_is_not_exact(expr, order, exponent, expected):
+    s = evaluate(expr, order)
+    assert s.coefficient(exponent) == expected
+    # the true product goes on: it must carry a precision
+    assert evaluate(expr.split("/")[0], 2).precision is not None
+
+
+def test_pochhammer_left_out_factors_with_extra_variables():
+    from qseries.series import laurent_ring
+    z = laurent_ring(("z",)).gen("z")
+    # (z q^3;q)_inf/(q - q^2): the coefficient of q^2 is 1 - z (from 1 - z q^3 - ... over q)
+    s = evaluate("(z q^3;q)_inf/(q - q^2)", 4)
+    assert s.coefficient(2) == 1 - z and s.coefficient(3) == 1 - 2 * z
+    assert str(evaluate("(z q^3;q)_inf", 3)) == "1 + O(q^3)"
+    assert str(evaluate("(z q;q^2)_3", 5)) == "1 - z*q - z*q^3 + z^2*q^4 + O(q^5)"
+    assert evaluate("q^2/(z q^3;q)_1 / (q - q^2)", 5).coefficient(4) == 1 + z
+
+
+def test_negative_subscripts_do_not_hang():
+    # (-q;q)_(-n) = 1/prod_{j=1}^{n} (1 + q^(1-j)): valuation sum (j-1) grows fast
+    assert str(evaluate("(-q;q)_(-1000000)", 5)) == "O(q^5)"
+    assert evaluate("(z;q)_(-1000000)", 5).is_zero()
+
+
+def test_long_finite_sums_of_terms_that_do_not_shrink():
+    assert evaluate("sum_{k=0}^{300} (1+q)", 3).coefficient(1) == 301
+    assert str(evaluate("sum_{k=0}^{256} z^k", 1)).startswith("z^256 + ")
+
+
+def test_division_by_a_polynomial_of_high_valuation():
+    assert evaluate("(q^2-q^3)^-1", 2).coefficient(-2) == 1
+    assert evaluate("(q^2-q^3)^-1", 2).coefficient(1) == 1

@@ -21,6 +21,7 @@ from typing import Any
 from .._flint import laurent_budget
 from ..errors import DomainError, QSeriesError, UnableError
 from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
+from ..products.pochhammer import known_below
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
 from ..series.formatting import short_number_text
 from . import symbolic as sym
@@ -248,7 +249,8 @@ class Evaluator:
             return _rational_power(base, e)
         if isinstance(node.left, Q):
             return Series.monomial(e, self.ring).truncate(order)
-        base_s = self.value(node.left, env, order)
+        base_s = self._divisor(node.left, env, order) if e < 0 else \
+            self.value(node.left, env, order)
         assert isinstance(base_s, Series)
         mono = monomial_parts(base_s)
         if e.denominator != 1:
@@ -264,6 +266,18 @@ class Evaluator:
                 return Series.monomial(s * n, base_s.ring, _scalar_power(c, n))
             return Series.monomial(s * n, base_s.ring, _rational_power(Fraction(c), e))
         return base_s.power(n, order)
+
+    def _divisor(self, node: Node, env: dict[str, int], order: int) -> Value:
+        """The value of a node that is divided by: when it vanishes modulo q^order (a
+        polynomial such as q^2 - q^3 at order 2) it is computed again to a higher order,
+        since dividing needs its first nonzero term."""
+        v = self.value(node, env, order)
+        work = order
+        cap = RETRY_FACTOR * max(order, 1) + RETRY_SLACK
+        while isinstance(v, Series) and v.is_zero() and not v.is_exact and work < cap:
+            work = min(2 * work + 8, cap)
+            v = self.value(node, env, work)
+        return v
 
     def _exact_monomial(self, node: Node, env: dict[str, int]) -> Series | None:
         """The exact value of c*q^e written as such (q, q^e, -q^e, 2q^e), else None;
@@ -403,7 +417,7 @@ class Evaluator:
         for v in paired:
             acc = (acc * v).truncate(order)
         for node, p in factors:
-            v = self.value(node, env, order)
+            v = self._divisor(node, env, order) if p < 0 else self.value(node, env, order)
             if not isinstance(v, Series):
                 if p < 0 and v == 0:
                     raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}")
@@ -448,7 +462,8 @@ class Evaluator:
                 return list(range(lo, hi + 1))
             try:
                 return self._cut_range(node, env, order, deviation, lo, hi)
-            except UnableError as why:
+            except (UnableError, DomainError) as why:
+                # a finite range: terms that do not shrink are no error, just no shortcut
                 if hi - lo + 1 <= FALLBACK_RANGE:
                     return list(range(lo, hi + 1))
                 raise UnableError(f"{_label(node)} has {hi - lo + 1} terms, more than "
@@ -713,8 +728,8 @@ class Evaluator:
                     (t1.mul_trunc(q2, w) + p1.mul_trunc(t2, w)).truncate(w))
 
         _, qq, tt = split(0, len(num))
-        ratio_sum = ((qq + tt) * qq.inverse(order=w)).truncate(w)
-        return (term_a * ratio_sum).truncate(target)
+        ratio_sum = known_below(((qq + tt) * qq.inverse(order=w)).truncate(w), w)
+        return known_below((term_a * ratio_sum).truncate(target), target)
 
     def _steppable(self, f: Poch, var: str, env: dict[str, int]) -> bool:
         if not self.stepping:
@@ -741,20 +756,24 @@ class Evaluator:
         n_prev = self.integer(f.length, {**env, var: prev_k}, "a subscript")  # type: ignore[arg-type]
         t = self._base_step(f, env, keep)
         acc = state
-        lo, hi = sorted((n_prev, n_k))
+        lo, hi0 = sorted((n_prev, n_k))
         grow = n_k > n_prev
+        skipped = False
         for param in f.params:
             a = self._param(param, env, keep)
             mono = monomial_parts(a)
             va = a.valuation
+            hi = hi0
             if va is not None and va >= 0:
                 # factors 1 - a q^(tj) with val(a) + tj >= keep are 1 modulo q^keep
                 hi = min(hi, max(lo, -((va - keep) // t)))
+            skipped = skipped or hi < hi0 or (a.is_zero() and not a.is_exact)
             for j in range(lo, hi):
                 # (a;q^t)_{j+1} = (a;q^t)_j (1 - a q^(tj))
                 times = p if grow else -p
                 acc = _times_binomial(acc, a, mono, t * j, times, keep)
-        return acc.truncate(keep)
+        acc = acc.truncate(keep)
+        return known_below(acc, keep) if skipped else acc
 
     def _prod(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):

@@ -110,6 +110,20 @@ def _one(ring: Ring) -> Series:
     return Series.constant(1, ring)
 
 
+def known_below(s: Series, order: int) -> Series:
+    """s with its precision lowered to ``order`` (at most): for a product from which factors
+    1 + O(q^order) were left out, which is then not exact even when it is short.
+
+    >>> known_below(Series.constant(1), 3)
+    1 + O(q^3)
+    """
+    if s.prec is not None and s.prec + s.offset <= order:
+        return s
+    k = order - s.offset
+    prec = k.numerator // k.denominator + (1 if k.denominator != 1 else 0)
+    return Series(s.ring, s.poly, s.start, s.offset, prec)
+
+
 def _times_factor(acc: Series, a: Series, mono: tuple | None, shift: int, invert: bool,
                   order: int | None) -> Series:
     """acc * (1 - a q^shift), or acc / (1 - a q^shift) when invert."""
@@ -167,7 +181,8 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
     if n is None:
         va = a.valuation
         if a.is_zero():
-            return acc if a.prec is None or a.prec >= order else acc.truncate(a.prec)
+            # a = 0 exactly: every factor is 1; a = O(q^p): every factor is 1 + O(q^p)
+            return acc if a.prec is None else known_below(acc, min(a.prec, order))
         # factors 1 - a q^(tj) with negative valuation give the product valuation v < 0; the
         # factors left out are 1 + O(q^e), which only leave the product exact below
         # q^(e + v): so go on to e >= order - v
@@ -178,7 +193,8 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
             j += 1
             if j > MAX_FACTORS:
                 raise UnableError("too many factors in an infinite q-Pochhammer symbol")
-        return acc.truncate(order)
+        # the factors left out are 1 + O(q^(order - v)): the product is known below q^order
+        return known_below(acc.truncate(order), order)
     if n < -MAX_FACTORS:
         raise UnableError(f"a q-Pochhammer symbol with {abs(n)} factors is too large")
     if a.is_zero() and n != 0:
@@ -188,7 +204,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         if a.prec < 1:
             raise UnableError(f"a q-Pochhammer parameter known only to O(q^{a.prec}) gives "
                               f"no information")
-        return acc.truncate(a.prec)
+        return known_below(acc, a.prec)
     if n >= 0:
         # a short product of binomials stays an exact polynomial
         work: int | None = order
@@ -203,10 +219,41 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
             count = min(n, max(1, -((va - (order - v)) // t)))
         for j in range(count):
             acc = _checked(acc, a, mono, t * j, False, work)
+        if count < n:
+            acc = known_below(acc, order)
     else:
-        for j in range(n, 0):
-            acc = _checked(acc, a, mono, t * j, True, order)
+        acc = _negative_subscript(acc, a, mono, t, n, order)
     return acc.truncate(order)
+
+
+def _negative_subscript(acc: Series, a: Series, mono: tuple | None, t: int, n: int,
+                        order: int) -> Series:
+    """acc * (a;q^t)_n for n < 0, that is acc / prod_{j=n}^{-1} (1 - a q^(tj)).
+
+    A factor with exponent e = val(a) + tj < 0 raises the valuation by -e once inverted, so
+    when those add up to the order the result is O(q^order) at once; factors with
+    e >= order are 1 modulo q^order and are left out (never a loop over a huge n)."""
+    va = a.valuation
+    if va is None:
+        return known_below(acc, order) if n else acc
+    va = Fraction(va)
+    # j with va + t j < 0 are those below ceil(-va/t) = -floor(va/t)
+    top_neg = min(0, int(-(va // t)))
+    neg_lo, neg_hi = n, max(n, top_neg)
+    count_neg = neg_hi - neg_lo
+    if count_neg > 0:
+        e_first, e_last = va + t * neg_lo, va + t * (neg_hi - 1)
+        raise_by = -(e_first + e_last) * count_neg / 2
+        vacc = acc.valuation if acc.valuation is not None else 0
+        if raise_by + Fraction(vacc) >= order:
+            return Series.zero(acc.ring, order)
+    # factors with exponent >= order are 1 + O(q^order)
+    first_big = int(-((va - order) // t))        # least j with va + t j >= order
+    hi = min(0, max(n, first_big))
+    for j in range(n, hi):
+        acc = _checked(acc, a, mono, t * j, True, order)
+    return known_below(acc, order) if hi < 0 else acc
+
 
 
 def _negative_valuation(va: int | Fraction, t: int, n: int | None) -> Fraction:
