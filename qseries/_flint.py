@@ -27,7 +27,7 @@ from typing import Any
 
 import flint
 
-from .errors import DomainError, IncompatibleRingError, UnableError
+from .errors import DomainError, IncompatibleRingError, UnableError, weight_may_help
 
 Number = int | Fraction
 
@@ -365,6 +365,8 @@ LAURENT_SECONDS = 60.0
 #: most terms the product of two such polynomials may have by the bound checked before
 #: multiplying (FLINT aborts the process when an allocation fails)
 MAX_LAURENT_PRODUCT = 30_000_000
+#: most bits (terms times coefficient size, estimated) a power of such a polynomial may have
+MAX_LAURENT_BITS = 4_000_000_000
 
 _deadline: contextvars.ContextVar[tuple[float, float] | None] = contextvars.ContextVar(
     "laurent_deadline", default=None)
@@ -508,9 +510,11 @@ class LaurentPoly:
             box = 1
             for d in self.m.degrees():
                 box *= int(d) * e + 1
-            if box > MAX_LAURENT_PRODUCT:
-                raise UnableError(f"the power ({laurent_text(self)[:40]}...)^{e} could have "
-                                  f"{box} terms, beyond the limit {MAX_LAURENT_PRODUCT}")
+            # each coefficient of the power has at most e * (bits + log2(terms)) bits
+            bits = e * (self.ring.coefficient_bits(self) + len(self.m).bit_length())
+            if box > MAX_LAURENT_PRODUCT or min(box, e + 1) * bits > MAX_LAURENT_BITS:
+                raise UnableError(f"the power ({laurent_text(self)[:40]})^{e} is beyond the "
+                                  f"limit (up to {box} terms of up to {bits} bits)")
         return LaurentPoly(self.ring, self.m ** e, tuple(s * e for s in self.shift))
 
     def __eq__(self, other: object) -> bool:
@@ -567,7 +571,8 @@ def laurent_text(c: LaurentPoly) -> str:
         mono = "*".join(factors)
         neg = coef < 0
         a = -coef if neg else coef
-        num = str(a) if isinstance(a, int) else f"({a})"
+        num = _decimal(a) if isinstance(a, int) else f"({_decimal(a.numerator)}/" \
+            f"{_decimal(a.denominator)})"
         body = num if not mono else (mono if a == 1 else f"{num}*{mono}")
         if not parts:
             parts.append(f"-{body}" if neg else body)
@@ -777,9 +782,10 @@ class _LaurentRing(Ring):
         c0 = self.coeff(p, 0)
         if not self.is_unit(c0):
             text = laurent_text(c0) if c0 else "0"
-            raise DomainError(f"the constant term {text} is not invertible among Laurent "
-                              f"polynomials in {', '.join(self.names)} (give the variable a "
-                              f"weight, so that it is expanded as a power series)")
+            raise weight_may_help(DomainError(
+                f"the constant term {text} is not invertible among Laurent polynomials in "
+                f"{', '.join(self.names)} (give the variable a weight, so that it is expanded "
+                f"as a power series)"))
         g = self._unit_inverse(c0)
         m = 1
         while m < n:
@@ -848,6 +854,10 @@ def laurent_ring(names: tuple[str, ...], rational: bool = False) -> Ring:
 
 ZZ: Ring = _IntegerRing()
 QQ: Ring = _RationalRing()
+
+
+def _decimal(n: int) -> str:
+    return str(n) if n.bit_length() < 10_000 else int_to_decimal(n)
 
 
 def int_to_decimal(n: int) -> str:

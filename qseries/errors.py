@@ -46,6 +46,17 @@ class ParseError(QSeriesError):
         return f"{self.message} at column {column}\n  {line}\n  {' ' * col}^"
 
 
+def weight_may_help(err: QSeriesError) -> QSeriesError:
+    """Mark an error that giving extra variables a weight (z -> z*q^w) may remove: a sum
+    that does not converge in q alone, a coefficient such as 1 - z that cannot be inverted.
+
+    >>> weight_may_help(DomainError("x")).weights_may_help
+    True
+    """
+    err.weights_may_help = True   # type: ignore[attr-defined]
+    return err
+
+
 class DomainError(QSeriesError):
     """The operation is mathematically undefined (division by zero, no invertible leading term,
     a sum that does not converge as a formal power series)."""

@@ -146,3 +146,48 @@ def test_long_finite_sums_of_terms_that_do_not_shrink():
 def test_division_by_a_polynomial_of_high_valuation():
     assert evaluate("(q^2-q^3)^-1", 2).coefficient(-2) == 1
     assert evaluate("(q^2-q^3)^-1", 2).coefficient(1) == 1
+
+
+@pytest.mark.parametrize("args", [
+    ["expand", "2^15000 z", "-n", "1"],
+    ["expand", "2^15000 z", "-n", "1", "--json"],
+    ["check", "2^15000 z", "(2^15000+1) z", "-n", "1"],
+    ["check", "2^15000 z", "(2^15000+1) z", "-n", "1", "--method", "modular"],
+    ["distribution", "2^15000 z q", "--at", "1"],
+    ["distribution", "10^160 q + z q", "--at", "1"],
+    ["distribution", "10^160 q + z q", "--at", "1", "--json"],
+    ["expand", "(z^-1 + z)^(10^6)", "-n", "2"],
+    ["expand", "(1+z)^100000", "-n", "2"],
+    ["check", "a z q", "z q", "-n", "5", "--method", "modular"],
+    ["check", "z q^-5", "2 z q^-5", "-n", "5", "--method", "modular"],
+    ["check", "1/(q^2 + z q^4)", "1/(q^2 + z q^4) + q^-1", "-n", "6", "--method", "modular"],
+    ["expand", "Q + z"],
+])
+def test_review_inputs_end_cleanly(args):
+    import time
+
+    from typer.testing import CliRunner
+
+    from qseries.cli.main import app
+    t0 = time.perf_counter()
+    r = CliRunner().invoke(app, args)
+    assert r.exit_code in (0, 1, 2), r.output
+    assert r.exception is None or isinstance(r.exception, SystemExit), repr(r.exception)
+    assert "Traceback" not in r.output
+    assert time.perf_counter() - t0 < 20
+
+
+def test_rational_and_laurent_coefficients_mix():
+    from qseries.series import laurent_ring
+    z = laurent_ring(("z",)).gen("z")
+    s = evaluate("(1 + q/2)(1 - z q)", 4)
+    assert s.coefficient(1) == Fraction(1, 2) - z and s.coefficient(2) == -z * Fraction(1, 2)
+    assert evaluate("z ((1/2) q;q)_1", 3).coefficient(1) == -z * Fraction(1, 2)
+
+
+def test_modular_recompute_uses_both_sides_variables():
+    from qseries.analysis import check
+    r = check("a z q", "z q", 5, method="modular", seed=1)
+    assert not r.holds and r.first_mismatch.exponent == 1
+    r = check("z q^-5", "2 z q^-5", 5, method="modular", seed=1)
+    assert not r.holds and r.first_mismatch.exponent == -5

@@ -20,7 +20,7 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 from fractions import Fraction
 
-from ..errors import DomainError, QSeriesError
+from ..errors import DomainError, QSeriesError, weight_may_help
 from ..lang import Evaluator, Node, evaluate, parse
 from ..lang.ast import extra_variables
 from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring
@@ -297,6 +297,8 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
             return _check_exact(lnode, rnode, order, ring, t0, say, names, w)
         except QSeriesError as err:
             first_error = first_error or err
+            if not getattr(err, "weights_may_help", False):
+                raise first_error from None
             say("retrying with the extra variables weighted (z -> z*q)")
     assert first_error is not None
     raise first_error
@@ -332,7 +334,10 @@ def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[st
         return (Evaluator(ring, values=values, weights=weights).evaluate(lnode, order),
                 Evaluator(ring, values=values, weights=weights).evaluate(rnode, order))
     except DomainError as err:
-        raise DomainError(f"{err} (modulo the prime {p}; try --method exact)") from None
+        again = DomainError(f"{err} (modulo the prime {p}; try --method exact)")
+        if getattr(err, "weights_may_help", False):
+            weight_may_help(again)
+        raise again from None
 
 
 def _modular_compare(lnode: Node, rnode: Node, order: int, p: int,
@@ -383,8 +388,11 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
                            "modular", ps, names, wt)
     # recompute both sides exactly just past the first mismatch, and report them
     say("recomputing the first mismatch exactly")
-    upto = int(Fraction(first)) + 3
-    exact_l, exact_r = evaluate(lnode, upto, None, weights), evaluate(rnode, upto, None, weights)
+    f = Fraction(first)
+    upto = max(f.numerator // f.denominator + 3, 1)
+    ring = laurent_ring(names) if names else ZZ      # one ring for both sides
+    exact_l = evaluate(lnode, upto, ring, weights)
+    exact_r = evaluate(rnode, upto, ring, weights)
     _, mismatch = compare_series(exact_l, exact_r, upto)
     return CheckResult(False, order, verified, mismatch, time.perf_counter() - t0,
                        exact_l, exact_r, "modular", ps, names, wt)

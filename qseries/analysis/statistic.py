@@ -68,9 +68,12 @@ class Distribution:
         v = self.variance
         if v == 0:
             return math.nan
-        if r % 2 == 0:
-            return float(self.central_moment(r) / v ** (r // 2))
-        return float(self.central_moment(r) / v ** (r // 2)) / math.sqrt(v)
+        ratio = self.central_moment(r) / v ** (r // 2)
+        try:
+            x = float(ratio)
+            return x if r % 2 == 0 else x / math.sqrt(v)
+        except OverflowError:
+            return math.inf if ratio > 0 else -math.inf
 
 
 def normal_moment(r: int) -> int:

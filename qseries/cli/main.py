@@ -7,6 +7,7 @@ Exit codes: 0 success (for ``check``: the sides agree to the order), 1 a mismatc
 from __future__ import annotations
 
 import json
+import math
 import sys
 from enum import StrEnum
 from fractions import Fraction
@@ -307,9 +308,10 @@ def distribution(
     by_n = {d.n: d for d in dists}
     if sizes and as_json:
         typer.echo(json.dumps({"variable": var, "sizes": [{
-            "n": n, "total": by_n[n].total,
-            "counts": {str(j): c for j, c in by_n[n].counts.items()},
-            "mean": str(by_n[n].mean), "variance": str(by_n[n].variance),
+            "n": n,
+            "counts": {str(j): number_text(c) for j, c in by_n[n].counts.items()},
+            "total": number_text(by_n[n].total),
+            "mean": number_text(by_n[n].mean), "variance": number_text(by_n[n].variance),
             "standardised_moments": [_finite(by_n[n].standardised_moment(r))
                                      for r in range(1, moments + 1)],
             "normal_moments": [normal_moment(r) for r in range(1, moments + 1)],
@@ -321,9 +323,11 @@ def distribution(
         rows = [(n, by_n[n].total, by_n[n].mean, by_n[n].variance) for n in trend]
         if fmt == ExportFormat.csv:
             text = "n,total,mean,variance,mean_decimal,variance_decimal\n" + "".join(
-                f"{n},{t},{m},{v},{_decimal(m)},{_decimal(v)}\n" for n, t, m, v in rows)
+                f"{n},{number_text(t)},{number_text(m)},{number_text(v)},{_decimal(m)},"
+                f"{_decimal(v)}\n" for n, t, m, v in rows)
         else:
-            text = json.dumps([{"n": n, "total": t, "mean": str(m), "variance": str(v),
+            text = json.dumps([{"n": n, "total": number_text(t), "mean": number_text(m),
+                                "variance": number_text(v),
                                 "mean_decimal": float(m), "variance_decimal": float(v)}
                                for n, t, m, v in rows]) + "\n"
         if out is None:
@@ -338,11 +342,12 @@ def distribution(
 
 
 def _finite(x: float) -> float | None:
-    return None if x != x else x
+    """JSON has no nan or infinity: those become null."""
+    return x if math.isfinite(x) else None
 
 
 def _print_distribution(d: Distribution, var: str, moments: int) -> None:
-    typer.echo(f"n = {d.n}: {d.total} objects")
+    typer.echo(f"n = {d.n}: {number_text(d.total)} objects")
     counts = list(d.counts.items())
     shown = counts if len(counts) <= 12 else counts[:6] + [None] + counts[-5:]
     for item in shown:
@@ -351,8 +356,8 @@ def _print_distribution(d: Distribution, var: str, moments: int) -> None:
             continue
         j, c = item
         typer.echo(f"  {var} = {j:>4}: {number_text(c)}  ({float(Fraction(c, d.total)):.6f})")
-    typer.echo(f"  mean      {d.mean}  = {_decimal(d.mean)}")
-    typer.echo(f"  variance  {d.variance}  = {_decimal(d.variance)}")
+    typer.echo(f"  mean      {number_text(d.mean)}  = {_decimal(d.mean)}")
+    typer.echo(f"  variance  {number_text(d.variance)}  = {_decimal(d.variance)}")
     typer.echo("  standardised moments (normal distribution in brackets):")
     typer.echo("   " + "  ".join(f"{r}: {d.standardised_moment(r):.4f} [{normal_moment(r)}]"
                                   for r in range(1, moments + 1)))

@@ -19,7 +19,7 @@ from fractions import Fraction
 from typing import Any
 
 from .._flint import laurent_budget
-from ..errors import DomainError, QSeriesError, UnableError
+from ..errors import DomainError, QSeriesError, UnableError, weight_may_help
 from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
 from ..products.pochhammer import known_below
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
@@ -259,7 +259,7 @@ class Evaluator:
             raise UnableError(f"only integer powers of a series are supported (got {e})")
         n = e.numerator
         if abs(n) > MAX_LENGTH:
-            raise UnableError(f"the power {n} is too large")
+            raise UnableError(f"the power {n} is beyond the limit {MAX_LENGTH}")
         if mono is not None:
             c, s = mono
             if isinstance(c, LaurentPoly):
@@ -515,21 +515,25 @@ class Evaluator:
             if poly is None:
                 raise NoBound("the bound involves the variables of inner sums")
         except NoBound as why:
-            raise UnableError(f"cannot show that {label} converges as a formal power series "
-                              f"({why}); give finite limits") from None
+            raise weight_may_help(UnableError(
+                f"cannot show that {label} converges as a formal power series ({why}); give "
+                f"finite limits")) from None
         if sym.degree(poly) < 1 or sym.leading(poly) <= 0:
             shown = sym.peval(poly, 0)
             if b.exact and sym.degree(poly) < 1:
-                raise DomainError(f"{label} does not converge as a formal power series: the "
-                                  f"valuation of its {var}-th {what} stays at "
-                                  f"{_num(shown)} (it does not grow with {var})")
+                raise weight_may_help(DomainError(
+                    f"{label} does not converge as a formal power series: the valuation of "
+                    f"its {var}-th {what} stays at {_num(shown)} (it does not grow with "
+                    f"{var})"))
             if b.exact:
-                raise DomainError(f"{label} does not converge as a formal power series: the "
-                                  f"valuation of its {var}-th {what} is "
-                                  f"{_poly_text(poly, var, sign)}, which does not grow")
-            raise UnableError(f"cannot show that {label} converges as a formal power series: "
-                              f"the valuation of its {var}-th {what} is only known to "
-                              f"be at least {_poly_text(poly, var, sign)}")
+                raise weight_may_help(DomainError(
+                    f"{label} does not converge as a formal power series: the valuation of "
+                    f"its {var}-th {what} is {_poly_text(poly, var, sign)}, which does not "
+                    f"grow"))
+            raise weight_may_help(UnableError(
+                f"cannot show that {label} converges as a formal power series: the valuation "
+                f"of its {var}-th {what} is only known to be at least "
+                f"{_poly_text(poly, var, sign)}"))
         m = sym.eventually_at_least(poly, order, max(start, b.start, 0))
         return max(m, start)
 
@@ -928,8 +932,9 @@ def _rational_power(base: Fraction, e: Fraction) -> Fraction:
 def _scalar_power(c: LaurentPoly, n: int) -> LaurentPoly:
     """c^n for a coefficient in extra variables; negative n only for monomials."""
     if n < 0 and not c.ring.is_unit(c):
-        raise DomainError(f"{c} is not a monomial, so its negative powers are not Laurent "
-                          f"polynomials (give the extra variables a weight to expand them)")
+        raise weight_may_help(DomainError(
+            f"{c} is not a monomial, so its negative powers are not Laurent polynomials (give "
+            f"the extra variables a weight to expand them)"))
     if abs(n) * max(c.ring.coefficient_bits(c), 1) > MAX_BITS or abs(n) > MAX_LENGTH:
         raise UnableError(f"the power ({c})^{n} is too large")
     return c ** n

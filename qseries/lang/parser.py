@@ -406,21 +406,23 @@ class _Parser:
 
 
 def is_extra_variable(name: str) -> bool:
-    """True for the names an extra variable may have: one ASCII letter other than q and O,
+    """True for the names an extra variable may have: one ASCII letter other than q, Q and O,
     optionally followed by digits (z, a, b, x1).
 
     >>> is_extra_variable("z"), is_extra_variable("x2"), is_extra_variable("zq")
     (True, True, False)
     """
-    if not name or not name[0].isascii() or not name[0].isalpha() or name[0] in "qO":
-        return False
+    if not name or not name[0].isascii() or not name[0].isalpha() or name[0] in "qQO":
+        return False   # Q is refused too: it is far more often a mistyped q
     rest = name[1:]
     return rest == "" or (rest.isascii() and rest.isdigit())
 
 
 def _unknown_name_message(name: str, bound: list[str]) -> str:
     hint = ""
-    if len(name) > 1 and name.isalpha():
+    if name == "Q":
+        hint = " (did you mean q? Q is not accepted as an extra variable)"
+    elif len(name) > 1 and name.isalpha():
         hint = (f" (extra variables are single letters, optionally followed by digits; "
                 f"write a product with spaces or '*', e.g. {' '.join(name)})")
     return f"unknown name {name!r}{hint}"

@@ -28,7 +28,7 @@ from fractions import Fraction
 from typing import Any
 
 from .._flint import QQ, ZZ, LaurentPoly, Ring, join_rings
-from ..errors import DomainError, IncompatibleRingError, UnableError
+from ..errors import DomainError, IncompatibleRingError, UnableError, weight_may_help
 
 Number = int | Fraction
 Exponent = int | Fraction
@@ -146,6 +146,8 @@ class Series:
         c = _as_number(c)
         if ring is None:
             ring = QQ if isinstance(c, Fraction) else ZZ
+        elif isinstance(c, Fraction) and c.denominator != 1:
+            ring = ring.fractions
         return cls(ring, ring.poly([c]), 0)
 
     @classmethod
@@ -156,7 +158,10 @@ class Series:
         q^(1/24)
         """
         n, f = _split_exponent(e)
-        return cls(ring, ring.poly([_as_number(c)]), n, f)
+        c = _as_number(c)
+        if isinstance(c, Fraction) and c.denominator != 1:
+            ring = ring.fractions
+        return cls(ring, ring.poly([c]), n, f)
 
     @classmethod
     def zero(cls, ring: Ring = ZZ, prec: int | None = None) -> Series:
@@ -437,11 +442,11 @@ class Series:
                 return self.change_ring(R.fractions).inverse(order)
             c0 = R.to_number(R.coeff(u, 0))
             if isinstance(c0, LaurentPoly):
-                raise DomainError(
+                raise weight_may_help(DomainError(
                     f"cannot divide by a series with leading coefficient {c0}: its inverse is "
                     f"not a Laurent polynomial in {', '.join(c0.ring.names)}; give the extra "
                     f"variables a weight (z stands for z*q^w) so that it is expanded as a "
-                    f"power series")
+                    f"power series"))
             raise DomainError(f"leading coefficient {c0} is not invertible over {R.name}")
         neg_off = Fraction(0) if self.offset == 0 else 1 - self.offset
         carry = 1 if self.offset else 0
@@ -539,7 +544,10 @@ class Series:
         if isinstance(c, Fraction) and R.fractions != R:
             return self.change_ring(R.fractions).mul_binomial(c, j, order)
         if isinstance(c, LaurentPoly) and c.ring != R:
-            return self.change_ring(join_rings(R, c.ring)).mul_binomial(c, j, order)
+            joined = join_rings(R, c.ring)
+            if joined != R:
+                return self.change_ring(joined).mul_binomial(c, j, order)
+            c = R.coerce(c)
         prec = _min_prec(self.prec, order)
         if self.prec is None and prec is not None and \
                 self.start + R.length(self.poly) + j <= prec:
@@ -558,7 +566,10 @@ class Series:
         if isinstance(c, Fraction) and R.fractions != R:
             return self.change_ring(R.fractions).div_binomial(c, j, order)
         if isinstance(c, LaurentPoly) and c.ring != R:
-            return self.change_ring(join_rings(R, c.ring)).div_binomial(c, j, order)
+            joined = join_rings(R, c.ring)
+            if joined != R:
+                return self.change_ring(joined).div_binomial(c, j, order)
+            c = R.coerce(c)
         if j < 1:
             raise UnableError("div_binomial needs j >= 1")
         prec = _min_prec(self.prec, order)
