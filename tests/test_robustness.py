@@ -191,3 +191,14 @@ def test_modular_recompute_uses_both_sides_variables():
     assert not r.holds and r.first_mismatch.exponent == 1
     r = check("z q^-5", "2 z q^-5", 5, method="modular", seed=1)
     assert not r.holds and r.first_mismatch.exponent == -5
+
+
+def test_library_arguments_are_validated():
+    from qseries.analysis import distributions
+    from qseries.errors import QSeriesError
+    for sizes in ([1.0], ["1"], [True]):
+        with pytest.raises(QSeriesError, match="integers"):
+            distributions("1/(z q;q)_inf", "z", sizes)
+    for weights in ({"z": "1"}, {"z": -1}, {"z": 1.5}, {"a": 1}):
+        with pytest.raises(QSeriesError, match="weight"):
+            evaluate("1/(1 - z)", 3, None, weights)

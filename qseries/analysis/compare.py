@@ -23,6 +23,7 @@ from fractions import Fraction
 from ..errors import DomainError, QSeriesError, weight_may_help
 from ..lang import Evaluator, Node, evaluate, parse
 from ..lang.ast import extra_variables
+from ..lang.evaluator import check_weights
 from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring
 from ..series.formatting import coefficient_text
 
@@ -133,6 +134,8 @@ class CheckResult:
             body = (_text(a) if not mono else mono if a == 1 else f"{_text(a)}*{mono}")
             sign = "-" if coef < 0 else "+"
             parts.append((sign, body))
+        if not parts:
+            return "0"
         text = " ".join(f"{s} {b}" for s, b in parts)
         return text[2:] if text.startswith("+ ") else "-" + text[2:]
 
@@ -157,8 +160,10 @@ class CheckResult:
         """Lines of a right-aligned table of both sides' coefficients around the first
         mismatch (empty when the sides agree)."""
         head = "weighted degree" if self.weighted else "exponent"
+        show = self.unweighted_text   # without weights: the coefficient itself
         rows = [(head, "left", "right", "difference")] + [
-            (_text(e), _text(a), _text(b), _text(a - b)) for e, a, b in self.neighbours(radius)]
+            (_text(e), show(a, e), show(b, e), show(a - b, e))
+            for e, a, b in self.neighbours(radius)]
         if len(rows) == 1:
             return []
         widths = [max(len(row[i]) for row in rows) for i in range(4)]
@@ -277,13 +282,7 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     if method == "auto":
         limit = AUTO_MODULAR_ORDER_EXTRA if names else AUTO_MODULAR_ORDER
         method = "modular" if order > limit and ring in (ZZ, QQ) else "exact"
-    if weights is not None:
-        unknown = sorted(set(weights) - set(names))
-        if unknown:
-            raise QSeriesError(f"a weight is given for {unknown[0]!r}, which is not an extra "
-                               f"variable of either side")
-        if any(not isinstance(w, int) or isinstance(w, bool) or w < 0 for w in weights.values()):
-            raise QSeriesError("weights must be non-negative integers")
+    check_weights(weights, set(names))
     tries = [dict(weights or {})]
     if weights is None and names:
         tries.append({v: 1 for v in names})

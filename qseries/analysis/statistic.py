@@ -110,6 +110,8 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
                            f"only {var!r} may remain")
     if not sizes:
         raise QSeriesError("give at least one size n")
+    if any(isinstance(n, bool) or not isinstance(n, int) for n in sizes):
+        raise QSeriesError("sizes must be integers")
     if min(sizes) < 0 or max(sizes) > MAX_SIZE:
         raise QSeriesError(f"sizes must lie in 0 .. {MAX_SIZE}")
     order = max(sizes) + 1

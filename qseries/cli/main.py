@@ -130,8 +130,8 @@ def expand(
     shown = s if s.precision is not None else s.truncate(order)
     typer.echo(format_series(shown))
     if known < order:
-        typer.echo(f"note: negative powers cost precision; only the coefficients below "
-                   f"q^{_exp_json(known)} are known", err=True)
+        typer.echo(f"note: only the coefficients below q^{_exp_json(known)} are known "
+                   f"(negative powers of q or an O(q^N) term cost precision)", err=True)
 
 
 def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
@@ -139,7 +139,8 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
         typer.echo(f"AGREES  {r.verdict}")
     else:
         m = r.first_mismatch
-        typer.echo(f"DIFFERS  {r.verdict} (difference {_num_text(m.difference)})")
+        typer.echo(f"DIFFERS  {r.verdict} (difference "
+                   f"{r.unweighted_text(m.difference, m.exponent)})")
         below = f"weighted degree {m.exponent}" if r.weighted else f"q^{m.exponent}"
         typer.echo(f"  coefficients below {below} agree")
         for line in r.table():

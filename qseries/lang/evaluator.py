@@ -962,7 +962,25 @@ def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
     if isinstance(order, bool) or not isinstance(order, int) or order < 0:
         raise QSeriesError(f"the order must be a non-negative integer, not {order!r}")
     node = parse(expr) if isinstance(expr, str) else expr
+    names = extra_variables(node)
+    check_weights(weights, names)
     if ring is None:
-        names = extra_variables(node)
         ring = laurent_ring(tuple(sorted(names))) if names else ZZ
     return Evaluator(ring, weights=weights).evaluate(node, order)
+
+
+def check_weights(weights: dict[str, int] | None, names: frozenset[str] | set[str]) -> None:
+    """Refuse weights that are not non-negative integers of extra variables in ``names``.
+
+    >>> check_weights({"z": -1}, {"z"})
+    Traceback (most recent call last):
+    ...
+    qseries.errors.QSeriesError: the weight of 'z' must be a non-negative integer, not -1
+    """
+    for name, w in (weights or {}).items():
+        if name not in names:
+            raise QSeriesError(f"a weight is given for {name!r}, which is not an extra "
+                               f"variable of the expression")
+        if isinstance(w, bool) or not isinstance(w, int) or w < 0 or w > MAX_INTEGER:
+            raise QSeriesError(f"the weight of {name!r} must be a non-negative integer, "
+                               f"not {w!r}")

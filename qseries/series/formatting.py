@@ -108,7 +108,7 @@ def _format_poly_term(e: Exponent, c: LaurentPoly, first: bool) -> str:
             sign, text = "-", text[1:]
         body = text if mono == "1" else f"{text}*{mono}"
     else:
-        body = text if mono == "1" else f"({text})*{mono}"
+        body = (text if first else f"({text})") if mono == "1" else f"({text})*{mono}"
     if first:
         return body if sign == "+" else f"-{body}"
     return f"{sign} {body}"

@@ -238,3 +238,10 @@ def test_distribution_command(tmp_path):
                 ["distribution", durfee, "--var", "a", "--at", "3"]):
         r = run(*bad)
         assert r.exit_code == 2 and "Traceback" not in r.output
+
+
+def test_weighted_mismatch_is_shown_in_q_and_z():
+    r = run("check", "1/(1-z)", "1/(1-z) + z^3 q", "-n", "10", "--weight", "z=2")
+    assert r.exit_code == 1
+    assert "right side z^3*q (difference -z^3*q)" in r.stdout
+    assert "7     0  z^3*q      -z^3*q" in r.stdout
