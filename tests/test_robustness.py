@@ -202,3 +202,9 @@ def test_library_arguments_are_validated():
     for weights in ({"z": "1"}, {"z": -1}, {"z": 1.5}, {"a": 1}):
         with pytest.raises(QSeriesError, match="weight"):
             evaluate("1/(1 - z)", 3, None, weights)
+
+
+def test_product_of_divisors_of_positive_valuation():
+    # both divisors have valuation >= 2; their product truncated at the order vanished
+    assert evaluate("1/((q^2-q^3)(q^3 - q^5))", 3) == evaluate("1/(q^2-q^3)/(q^3-q^5)", 3)
+    assert evaluate("1/((q^2-q^3)(q^3 - q^5))", 3).coefficient(-5) == 1

@@ -435,9 +435,13 @@ class Evaluator:
                 for _ in range(p):
                     acc = acc.mul_binomial(c, j, order)
         if dens:
+            # truncated beyond the order by the divisors' valuations, which dividing gives
+            # back (truncating at the order would make divisors of positive valuation vanish)
+            work = order + sum(max(_floor(d.valuation), 0) for d in dens
+                               if d.valuation is not None)
             den = dens[0]
             for d in dens[1:]:
-                den = (den * d).truncate(order)
+                den = (den * d).truncate(work)
             va = acc.valuation
             shift_num = int(va) if va is not None else 0
             acc = (acc * den.inverse(order=order - shift_num)).truncate(order)
