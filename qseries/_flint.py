@@ -403,7 +403,7 @@ def _guard_product(a: Any, b: Any, names: tuple[str, ...]) -> None:
         box *= int(da) + int(db) + 1
     if min(bound, box) > MAX_LAURENT_PRODUCT:
         raise UnableError(f"a product of polynomials in q and {', '.join(names)} could have "
-                          f"{min(bound, box)} terms, beyond the limit {MAX_LAURENT_PRODUCT}; "
+                          f"{_about(min(bound, box))} terms, beyond the limit {MAX_LAURENT_PRODUCT}; "
                           f"compare at random values of the variables instead (check --method "
                           f"modular), or lower the order")
 
@@ -514,7 +514,8 @@ class LaurentPoly:
             bits = e * (self.ring.coefficient_bits(self) + len(self.m).bit_length())
             if box > MAX_LAURENT_PRODUCT or min(box, e + 1) * bits > MAX_LAURENT_BITS:
                 raise UnableError(f"the power ({laurent_text(self)[:40]})^{e} is beyond the "
-                                  f"limit (up to {box} terms of up to {bits} bits)")
+                                  f"limit (up to {_about(box)} terms of up to {_about(bits)} "
+                                  f"bits)")
         return LaurentPoly(self.ring, self.m ** e, tuple(s * e for s in self.shift))
 
     def __eq__(self, other: object) -> bool:
@@ -854,6 +855,12 @@ def laurent_ring(names: tuple[str, ...], rational: bool = False) -> Ring:
 
 ZZ: Ring = _IntegerRing()
 QQ: Ring = _RationalRing()
+
+
+def _about(n: int) -> str:
+    """n, or its order of magnitude when it is long."""
+    return str(n) if n < 10**12 else f"about 10^{len(str(n)) - 1}" if n < 10**4000 else \
+        "astronomically many"
 
 
 def _decimal(n: int) -> str:
