@@ -403,7 +403,8 @@ def _guard_product(a: Any, b: Any, names: tuple[str, ...]) -> None:
         box *= int(da) + int(db) + 1
     if min(bound, box) > MAX_LAURENT_PRODUCT:
         raise UnableError(f"a product of polynomials in q and {', '.join(names)} could have "
-                          f"{_about(min(bound, box))} terms, beyond the limit {MAX_LAURENT_PRODUCT}; "
+                          f"{_about(min(bound, box))} terms, beyond the limit "
+                          f"{MAX_LAURENT_PRODUCT}; "
                           f"compare at random values of the variables instead (check --method "
                           f"modular), or lower the order")
 

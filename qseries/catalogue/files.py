@@ -81,6 +81,11 @@ class Entry:
     weights: tuple[tuple[str, int], ...] | None = None
 
     @property
+    def weight_map(self) -> dict[str, int] | None:
+        """The entry's weights as a dict (for ``check(..., weights=...)``), or None."""
+        return None if self.weights is None else dict(self.weights)
+
+    @property
     def ident(self) -> str:
         """The key, with parameter values for a family member: ``andrews-gordon[k=3,i=1]``."""
         if not self.params:

@@ -46,8 +46,7 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
     n = order or entry.order
     t0 = time.perf_counter()
     try:
-        r = check(entry.left, entry.right, order=n,
-                  weights=None if entry.weights is None else dict(entry.weights))
+        r = check(entry.left, entry.right, order=n, weights=entry.weight_map)
     except QSeriesError as err:
         return EntryResult(entry.ident, False, False, 0, None, time.perf_counter() - t0,
                            str(err))
