@@ -21,7 +21,6 @@ from typing import Any
 from .._flint import laurent_budget
 from ..errors import DomainError, QSeriesError, UnableError, weight_may_help
 from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
-from ..products.pochhammer import known_below
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
 from ..series.formatting import short_number_text
 from . import symbolic as sym
@@ -736,8 +735,8 @@ class Evaluator:
                     (t1.mul_trunc(q2, w) + p1.mul_trunc(t2, w)).truncate(w))
 
         _, qq, tt = split(0, len(num))
-        ratio_sum = known_below(((qq + tt) * qq.inverse(order=w)).truncate(w), w)
-        return known_below((term_a * ratio_sum).truncate(target), target)
+        ratio_sum = ((qq + tt) * qq.inverse(order=w)).truncate(w).limit_precision(w)
+        return (term_a * ratio_sum).truncate(target).limit_precision(target)
 
     def _steppable(self, f: Poch, var: str, env: dict[str, int]) -> bool:
         if not self.stepping:
@@ -781,7 +780,7 @@ class Evaluator:
                 times = p if grow else -p
                 acc = _times_binomial(acc, a, mono, t * j, times, keep)
         acc = acc.truncate(keep)
-        return known_below(acc, keep) if skipped else acc
+        return acc.limit_precision(keep) if skipped else acc
 
     def _prod(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):

@@ -110,20 +110,6 @@ def _one(ring: Ring) -> Series:
     return Series.constant(1, ring)
 
 
-def known_below(s: Series, order: int) -> Series:
-    """s with its precision lowered to ``order`` (at most): for a product from which factors
-    1 + O(q^order) were left out, which is then not exact even when it is short.
-
-    >>> known_below(Series.constant(1), 3)
-    1 + O(q^3)
-    """
-    if s.prec is not None and s.prec + s.offset <= order:
-        return s
-    k = order - s.offset
-    prec = k.numerator // k.denominator + (1 if k.denominator != 1 else 0)
-    return Series(s.ring, s.poly, s.start, s.offset, prec)
-
-
 def _times_factor(acc: Series, a: Series, mono: tuple | None, shift: int, invert: bool,
                   order: int | None) -> Series:
     """acc * (1 - a q^shift), or acc / (1 - a q^shift) when invert."""
@@ -182,7 +168,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         va = a.valuation
         if a.is_zero():
             # a = 0 exactly: every factor is 1; a = O(q^p): every factor is 1 + O(q^p)
-            return acc if a.prec is None else known_below(acc, min(a.prec, order))
+            return acc if a.prec is None else acc.limit_precision(min(a.prec, order))
         # factors 1 - a q^(tj) with negative valuation give the product valuation v < 0; the
         # factors left out are 1 + O(q^e), which only leave the product exact below
         # q^(e + v): so go on to e >= order - v
@@ -194,7 +180,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
             if j > MAX_FACTORS:
                 raise UnableError("too many factors in an infinite q-Pochhammer symbol")
         # the factors left out are 1 + O(q^(order - v)): the product is known below q^order
-        return known_below(acc.truncate(order), order)
+        return acc.truncate(order).limit_precision(order)
     if n < -MAX_FACTORS:
         raise UnableError(f"a q-Pochhammer symbol with {abs(n)} factors is too large")
     if a.is_zero() and n != 0:
@@ -204,7 +190,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         if a.prec < 1:
             raise UnableError(f"a q-Pochhammer parameter known only to O(q^{a.prec}) gives "
                               f"no information")
-        return known_below(acc, a.prec)
+        return acc.limit_precision(a.prec)
     if n >= 0:
         # a short product of binomials stays an exact polynomial
         work: int | None = order
@@ -220,7 +206,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         for j in range(count):
             acc = _checked(acc, a, mono, t * j, False, work)
         if count < n:
-            acc = known_below(acc, order)
+            acc = acc.limit_precision(order)
     else:
         acc = _negative_subscript(acc, a, mono, t, n, order)
     return acc.truncate(order)
@@ -235,7 +221,7 @@ def _negative_subscript(acc: Series, a: Series, mono: tuple | None, t: int, n: i
     e >= order are 1 modulo q^order and are left out (never a loop over a huge n)."""
     va = a.valuation
     if va is None:
-        return known_below(acc, order) if n else acc
+        return acc.limit_precision(order) if n else acc
     va = Fraction(va)
     # j with va + t j < 0 are those below ceil(-va/t) = -floor(va/t)
     top_neg = min(0, int(-(va // t)))
@@ -252,7 +238,7 @@ def _negative_subscript(acc: Series, a: Series, mono: tuple | None, t: int, n: i
     hi = min(0, max(n, first_big))
     for j in range(n, hi):
         acc = _checked(acc, a, mono, t * j, True, order)
-    return known_below(acc, order) if hi < 0 else acc
+    return acc.limit_precision(order) if hi < 0 else acc
 
 
 

@@ -531,6 +531,31 @@ class Series:
         return Series(R, R.pow_low(self.poly, e, prec - start), start, f_off, prec)
 
     # -- fast paths --------------------------------------------------------------------------
+    def _holding(self, c: Any) -> tuple[Series, Any]:
+        """(self over a ring that holds the scalar c, c): QQ for a fraction over ZZ, the
+        joined ring for a coefficient in extra variables."""
+        c = _as_number(c)
+        R = self.ring
+        if isinstance(c, Fraction) and R.fractions != R:
+            return self.change_ring(R.fractions), c
+        if isinstance(c, LaurentPoly) and c.ring != R:
+            joined = join_rings(R, c.ring)
+            return (self.change_ring(joined) if joined != R else self), joined.coerce(c)
+        return self, c
+
+    def limit_precision(self, order: Exponent) -> Series:
+        """self with its precision lowered to ``order`` (at most): for a product from which
+        factors 1 + O(q^order) were left out, which is then not exact even when short.
+
+        >>> Series.constant(1).limit_precision(3)
+        1 + O(q^3)
+        """
+        if self.prec is not None and self.prec + self.offset <= order:
+            return self
+        k = Fraction(order) - self.offset
+        prec = k.numerator // k.denominator + (1 if k.denominator != 1 else 0)
+        return Series(self.ring, self.poly, self.start, self.offset, prec)
+
     def mul_binomial(self, c: Number, j: int, order: int | None = None) -> Series:
         """self * (1 - c q^j) for an integer j >= 1 in O(length) work.
 
@@ -539,15 +564,8 @@ class Series:
         """
         if j < 1:
             raise UnableError("mul_binomial needs j >= 1")
+        self, c = self._holding(c)
         R = self.ring
-        c = _as_number(c)
-        if isinstance(c, Fraction) and R.fractions != R:
-            return self.change_ring(R.fractions).mul_binomial(c, j, order)
-        if isinstance(c, LaurentPoly) and c.ring != R:
-            joined = join_rings(R, c.ring)
-            if joined != R:
-                return self.change_ring(joined).mul_binomial(c, j, order)
-            c = R.coerce(c)
         prec = _min_prec(self.prec, order)
         if self.prec is None and prec is not None and \
                 self.start + R.length(self.poly) + j <= prec:
@@ -561,17 +579,10 @@ class Series:
         >>> Series.constant(1).div_binomial(1, 2, order=7)
         1 + q^2 + q^4 + q^6 + O(q^7)
         """
-        R = self.ring
-        c = _as_number(c)
-        if isinstance(c, Fraction) and R.fractions != R:
-            return self.change_ring(R.fractions).div_binomial(c, j, order)
-        if isinstance(c, LaurentPoly) and c.ring != R:
-            joined = join_rings(R, c.ring)
-            if joined != R:
-                return self.change_ring(joined).div_binomial(c, j, order)
-            c = R.coerce(c)
         if j < 1:
             raise UnableError("div_binomial needs j >= 1")
+        self, c = self._holding(c)
+        R = self.ring
         prec = _min_prec(self.prec, order)
         if prec is None:
             if c == 0:
