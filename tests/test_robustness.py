@@ -208,3 +208,41 @@ def test_product_of_divisors_of_positive_valuation():
     # both divisors have valuation >= 2; their product truncated at the order vanished
     assert evaluate("1/((q^2-q^3)(q^3 - q^5))", 3) == evaluate("1/(q^2-q^3)/(q^3-q^5)", 3)
     assert evaluate("1/((q^2-q^3)(q^3 - q^5))", 3).coefficient(-5) == 1
+
+
+# -- found by the second review ---------------------------------------------------------
+def test_weights_for_a_variable_one_side_lacks():
+    from qseries.analysis import check
+    assert check("(1-z)/(1-z)", "1", 10, weights={"z": 1}).holds
+    assert check("(z;q)_inf/(z;q)_inf", "1", 10).holds
+
+
+def test_negative_subscript_with_a_factor_of_exponent_zero():
+    from qseries.errors import DomainError
+    with pytest.raises(DomainError):
+        evaluate("(q;q)_(-3)", 3)
+    with pytest.raises(DomainError):
+        evaluate("(q;q)_(-20000)", 20)
+    # (q+q^2;q)_(-3) = 1/((1 - (1+q)) (1 - (q^-1+1)) (1 - (q^-2+q^-1)))
+    #              = 1/((-q)(-q^-1)(1 - q^-2 - q^-1)) = -q^2/(1 + q - q^2) = -q^2 + q^3 - ...
+    assert str(evaluate("(q+q^2;q)_(-3)", 3)) == "-q^2 + O(q^3)"
+
+
+def test_unknown_parameter_with_negative_subscript():
+    from qseries.errors import UnableError
+    assert str(evaluate("(O(q^3);q)_(-1)", 5)) == "1 + O(q^2)"
+    with pytest.raises(UnableError):
+        evaluate("(O(q^2);q)_(-3)", 5)
+
+
+def test_exactly_zero_product_stays_exact():
+    assert str(evaluate("(q^-1;q)_inf", 5)) == "0"
+    from qseries.errors import DomainError
+    with pytest.raises(DomainError, match="division by zero"):
+        evaluate("1/(q^-1;q)_inf", 5)
+
+
+def test_negative_power_of_a_monomial_with_a_coefficient():
+    from qseries.series import laurent_ring
+    z = laurent_ring(("z",)).gen("z")
+    assert evaluate("(2*z)^-1", 2).coefficient(0) == z**-1 * Fraction(1, 2)

@@ -303,15 +303,21 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     raise first_error
 
 
+def _own(weights: dict[str, int] | None, node: Node) -> dict[str, int]:
+    """The weights of the extra variables that occur in ``node`` (one side may lack some)."""
+    names = extra_variables(node)
+    return {v: w for v, w in (weights or {}).items() if v in names}
+
+
 def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
                  say: Callable[[str], None], names: tuple[str, ...], weights: dict[str, int]
                  ) -> CheckResult:
     if names:
         ring = laurent_ring(names, rational=ring == QQ)
     say("evaluating the left side")
-    left = evaluate(lnode, order, ring, weights)
+    left = evaluate(lnode, order, ring, _own(weights, lnode))
     say("evaluating the right side")
-    right = evaluate(rnode, order, ring, weights)
+    right = evaluate(rnode, order, ring, _own(weights, rnode))
     verified, mismatch = compare_series(left, right, order)
     return CheckResult(mismatch is None, order, verified, mismatch,
                        time.perf_counter() - t0, left, right, variables=names,
@@ -390,8 +396,8 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
     f = Fraction(first)
     upto = max(f.numerator // f.denominator + 3, 1)
     ring = laurent_ring(names) if names else ZZ      # one ring for both sides
-    exact_l = evaluate(lnode, upto, ring, weights)
-    exact_r = evaluate(rnode, upto, ring, weights)
+    exact_l = evaluate(lnode, upto, ring, _own(weights, lnode))
+    exact_r = evaluate(rnode, upto, ring, _own(weights, rnode))
     _, mismatch = compare_series(exact_l, exact_r, upto)
     return CheckResult(False, order, verified, mismatch, time.perf_counter() - t0,
                        exact_l, exact_r, "modular", ps, names, wt)

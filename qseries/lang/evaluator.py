@@ -262,7 +262,8 @@ class Evaluator:
         if mono is not None:
             c, s = mono
             if isinstance(c, LaurentPoly):
-                return Series.monomial(s * n, base_s.ring, _scalar_power(c, n))
+                cp = _scalar_power(c, n)          # over QQ when c = 2z and n < 0
+                return Series.monomial(s * n, cp.ring, cp)
             return Series.monomial(s * n, base_s.ring, _rational_power(Fraction(c), e))
         return base_s.power(n, order)
 
@@ -934,6 +935,8 @@ def _rational_power(base: Fraction, e: Fraction) -> Fraction:
 
 def _scalar_power(c: LaurentPoly, n: int) -> LaurentPoly:
     """c^n for a coefficient in extra variables; negative n only for monomials."""
+    if n < 0 and not c.ring.is_unit(c) and c.ring.fractions.is_unit(c):
+        c = c.ring.fractions.coerce(c)     # 2z: invertible over QQ
     if n < 0 and not c.ring.is_unit(c):
         raise weight_may_help(DomainError(
             f"{c} is not a monomial, so its negative powers are not Laurent polynomials (give "

@@ -180,6 +180,8 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
             if j > MAX_FACTORS:
                 raise UnableError("too many factors in an infinite q-Pochhammer symbol")
         # the factors left out are 1 + O(q^(order - v)): the product is known below q^order
+        if acc.is_zero() and acc.is_exact:
+            return acc            # a factor 1 - 1: the product is exactly 0
         return acc.truncate(order).limit_precision(order)
     if n < -MAX_FACTORS:
         raise UnableError(f"a q-Pochhammer symbol with {abs(n)} factors is too large")
@@ -187,10 +189,12 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         # a = O(q^p) with p >= 1: every factor, and so the product, is 1 + O(q^p)
         if a.prec is None:
             return acc
-        if a.prec < 1:
+        # factor j is 1 - O(q^(p + tj)); with n < 0 the factors j = n .. -1 count
+        known = a.prec + (t * n if n < 0 else 0)
+        if known < 1:
             raise UnableError(f"a q-Pochhammer parameter known only to O(q^{a.prec}) gives "
-                              f"no information")
-        return acc.limit_precision(a.prec)
+                              f"no information here")
+        return acc.limit_precision(known)
     if n >= 0:
         # a short product of binomials stays an exact polynomial
         work: int | None = order
@@ -227,6 +231,15 @@ def _negative_subscript(acc: Series, a: Series, mono: tuple | None, t: int, n: i
     top_neg = min(0, int(-(va // t)))
     neg_lo, neg_hi = n, max(n, top_neg)
     count_neg = neg_hi - neg_lo
+    # the factor with exponent 0 is 1 - c + O(q): zero (c = 1) or of positive valuation
+    # unless c != 1 is known, and then the shortcut below does not apply
+    j0 = -va / t
+    if j0.denominator == 1 and n <= j0 < 0:
+        c0 = a.coefficient(va) if a.precision is None or a.precision > va else None
+        if mono is not None and mono[0] == 1:
+            raise DomainError("(a;q)_n has a factor 1 - 1 = 0 in a denominator")
+        if c0 is None or c0 == 1:
+            count_neg = 0        # no shortcut: the loop below handles every factor
     if count_neg > 0:
         e_first, e_last = va + t * neg_lo, va + t * (neg_hi - 1)
         raise_by = -(e_first + e_last) * count_neg / 2
