@@ -116,7 +116,14 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
         raise QSeriesError(f"sizes must lie in 0 .. {MAX_SIZE}")
     order = max(sizes) + 1
     ring = laurent_ring((var,))
-    s = Evaluator(ring).evaluate(node, order)
+    try:
+        s = Evaluator(ring).evaluate(node, order)
+    except QSeriesError as err:
+        if getattr(err, "weights_may_help", False):
+            raise DomainError(f"the coefficient of each q^n must be a Laurent polynomial in "
+                              f"{var} (a finite distribution): {err}".split("; give")[0]
+                              .split(" (give")[0]) from None
+        raise
     if s.offset != 0:
         raise DomainError("the series has fractional exponents; multiply by a power of q")
     if s.precision is not None and s.precision < order:

@@ -80,3 +80,9 @@ def test_moments_of_a_small_distribution_by_hand():
 def test_bad_statistic_input_is_refused(expr, var, sizes, message):
     with pytest.raises(QSeriesError, match=message):
         distributions(expr, var, sizes)
+
+
+def test_power_series_in_the_marker_is_refused_without_weight_advice():
+    with pytest.raises(QSeriesError, match="finite distribution") as info:
+        distributions("1/(1 - z)", "z", [3])
+    assert "weight" not in str(info.value)
