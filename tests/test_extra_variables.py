@@ -146,3 +146,10 @@ def test_huge_exact_polynomials_are_refused_not_attempted():
         from qseries.series import laurent_ring
         Evaluator(laurent_ring(("z",))).value(parse("1/(z q;q)_inf"), {}, 3000)
     assert time.perf_counter() - t0 < 30
+
+
+def test_modular_method_takes_huge_powers_of_a_variable_modulo_p():
+    for method in ("exact", "modular"):
+        r = check("z^(10^6) q", "q", 5, method=method, seed=2)
+        assert not r.holds and r.first_mismatch.exponent == 1
+    assert check("z^(10^6) z^-1000000", "1", 5, method="modular", seed=2).holds

@@ -264,6 +264,11 @@ class Evaluator:
             if isinstance(c, LaurentPoly):
                 cp = _scalar_power(c, n)          # over QQ when c = 2z and n < 0
                 return Series.monomial(s * n, cp.ring, cp)
+            modulus = getattr(base_s.ring, "p", None)
+            if modulus is not None:               # a residue (a random value of z): mod p
+                if n < 0 and c % modulus == 0:
+                    raise DomainError("division by zero (0 to a negative power)")
+                return Series.monomial(s * n, base_s.ring, pow(int(c), n, modulus))
             return Series.monomial(s * n, base_s.ring, _rational_power(Fraction(c), e))
         return base_s.power(n, order)
 
