@@ -21,7 +21,7 @@ from __future__ import annotations
 import contextlib
 import contextvars
 import time
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from fractions import Fraction
 from typing import Any
 
@@ -553,13 +553,18 @@ def _number(c: Any) -> Number:
     return int(c)
 
 
-def laurent_text(c: LaurentPoly) -> str:
+def laurent_text(c: LaurentPoly,
+                 q_exponent: Callable[[tuple[int, ...]], int | Fraction] | None = None) -> str:
     """ASCII text of a scalar of a Laurent ring: ``z^2 - z``, ``3*a*z^-1``, ``(1/2)*z``.
+    ``q_exponent`` (if given) maps a term's exponents (q first) to the power of q to print
+    with it (for weighted variables written back in q).
 
     >>> R = laurent_ring(("a", "z"))
     >>> a, z = R.gen("a"), R.gen("z")
     >>> laurent_text(2 * a * z**-1 - a**2 + 1)
     '-a^2 + 2*a*z^-1 + 1'
+    >>> laurent_text(z**2 - z, lambda exps: 3 - exps[2])
+    'z^2*q - z*q^2'
     """
     names = c.ring.names
     parts: list[str] = []
@@ -568,8 +573,10 @@ def laurent_text(c: LaurentPoly) -> str:
         for name, e in zip(names, exps[1:], strict=True):
             if e:
                 factors.append(name if e == 1 else f"{name}^{e}")
-        if exps[0]:
-            factors.append("q" if exps[0] == 1 else f"q^{exps[0]}")
+        qe = Fraction(exps[0] if q_exponent is None else q_exponent(exps))
+        if qe:
+            factors.append("q" if qe == 1 else f"q^{qe}" if qe.denominator == 1 else
+                           f"q^({qe})")
         mono = "*".join(factors)
         neg = coef < 0
         a = -coef if neg else coef
@@ -686,7 +693,6 @@ class _LaurentRing(Ring):
     def coefficients(self, p: LaurentPoly) -> list[Any]:
         n = self.length(p)
         buckets: list[dict] = [{} for _ in range(n)]
-        k = len(self.names)
         for exps, c in p.m.to_dict().items():
             buckets[int(exps[0])][(0, *exps[1:])] = c
         out = []
@@ -695,7 +701,6 @@ class _LaurentRing(Ring):
                 out.append(0)
             else:
                 out.append(self.to_number(self._wrap(self.ctx.from_dict(b), p.shift)))
-        del k
         return out
 
     # -- queries ---------------------------------------------------------------------

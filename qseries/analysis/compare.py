@@ -24,7 +24,7 @@ from ..errors import DomainError, QSeriesError, weight_may_help
 from ..lang import Evaluator, Node, evaluate, parse
 from ..lang.ast import extra_variables
 from ..lang.evaluator import check_weights
-from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring
+from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring, laurent_text
 from ..series.formatting import coefficient_text
 
 Exponent = int | Fraction
@@ -121,23 +121,10 @@ class CheckResult:
         c as text."""
         if not isinstance(c, LaurentPoly) or not self.weighted:
             return _text(c)
-        w = dict(zip(self.variables, self.weights, strict=True))
-        parts = []
-        for exps, coef in c.terms():
-            powers = list(zip(c.ring.names, exps[1:], strict=True))
-            qe = Fraction(e) - sum(w.get(v, 0) * x for v, x in powers)
-            factors = [v if x == 1 else f"{v}^{x}" for v, x in powers if x]
-            if qe:
-                factors.append("q" if qe == 1 else f"q^{_text(qe)}")
-            mono = "*".join(factors)
-            a = abs(coef)
-            body = (_text(a) if not mono else mono if a == 1 else f"{_text(a)}*{mono}")
-            sign = "-" if coef < 0 else "+"
-            parts.append((sign, body))
-        if not parts:
-            return "0"
-        text = " ".join(f"{s} {b}" for s, b in parts)
-        return text[2:] if text.startswith("+ ") else "-" + text[2:]
+        w = [dict(zip(self.variables, self.weights, strict=True)).get(v, 0)
+             for v in c.ring.names]
+        return laurent_text(c, lambda exps: Fraction(e) - sum(
+            wv * x for wv, x in zip(w, exps[1:], strict=True)))
 
     def neighbours(self, radius: int = 2) -> list[tuple[Exponent, Number, Number]]:
         """Coefficients of both sides at the exponents around the first mismatch."""
@@ -154,7 +141,6 @@ class CheckResult:
             e_out = e.numerator if e.denominator == 1 else e
             out.append((e_out, self.lhs.coefficient(e), self.rhs.coefficient(e)))
         return out
-
 
     def table(self, radius: int = 2) -> list[str]:
         """Lines of a right-aligned table of both sides' coefficients around the first

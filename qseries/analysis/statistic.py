@@ -121,8 +121,9 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
     except QSeriesError as err:
         if getattr(err, "weights_may_help", False):
             raise DomainError(f"the coefficient of each q^n must be a Laurent polynomial in "
-                              f"{var} (a finite distribution): {err}".split("; give")[0]
-                              .split(" (give")[0]) from None
+                              f"{var} (a finite distribution), but this expression has a "
+                              f"power series in {var} (such as 1/(1 - {var})) or a sum that "
+                              f"does not converge in q alone") from None
         raise
     if s.offset != 0:
         raise DomainError("the series has fractional exponents; multiply by a power of q")
