@@ -23,7 +23,7 @@ from fractions import Fraction
 from ..errors import DomainError, QSeriesError, weight_may_help
 from ..lang import Evaluator, Node, evaluate, parse
 from ..lang.ast import extra_variables
-from ..lang.evaluator import check_weights
+from ..lang.evaluator import Parts, check_weights
 from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring, laurent_text
 from ..series.formatting import coefficient_text
 
@@ -58,8 +58,11 @@ class CheckResult:
     order_verified: Exponent
     first_mismatch: Mismatch | None
     seconds: float
-    lhs: Series = field(repr=False)
-    rhs: Series = field(repr=False)
+    #: the two sides as computed (None after a modular check that held: the sides were
+    #: compared modulo primes as cross-multiplied fractions, never expanded exactly; after a
+    #: modular check that failed, they are computed exactly just past the first mismatch)
+    lhs: Series | None = field(repr=False)
+    rhs: Series | None = field(repr=False)
     #: "exact", or "modular" (both sides compared modulo ``primes``)
     method: str = "exact"
     primes: tuple[int, ...] = ()
@@ -315,15 +318,23 @@ PARALLEL_ORDER = 50_000
 
 
 def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[str, ...] = (),
-                   weights: dict[str, int] | None = None) -> tuple[Series, Series]:
+                   weights: dict[str, int] | None = None) -> tuple[Parts, Parts]:
     # the extra variables get random nonzero residues, drawn from the prime itself (so the
     # draw is reproducible and differs between primes)
     rng = random.Random(p)
     values = {v: rng.randrange(1, p) for v in names}
     ring = GF(p)
     try:
-        return (Evaluator(ring, values=values, weights=weights).evaluate(lnode, order),
-                Evaluator(ring, values=values, weights=weights).evaluate(rnode, order))
+        ev_l = Evaluator(ring, values=values, weights=weights)
+        ev_r = Evaluator(ring, values=values, weights=weights)
+        left, right = ev_l.evaluate_parts(lnode, order), ev_r.evaluate_parts(rnode, order)
+        # a side of negative valuation times the other side's denominator (known modulo
+        # q^order) would be known to less than the order: that side is divided out instead
+        if _below_one(left[0]) and right[1] is not None:
+            right = (ev_r.evaluate(rnode, order), None)
+        if _below_one(right[0]) and left[1] is not None:
+            left = (ev_l.evaluate(lnode, order), None)
+        return left, right
     except DomainError as err:
         again = DomainError(f"{err} (modulo the prime {p}; try --method exact)")
         if getattr(err, "weights_may_help", False):
@@ -331,11 +342,38 @@ def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[st
         raise again from None
 
 
+def _below_one(s: Series) -> bool:
+    v = s.valuation
+    return v is not None and v < 0
+
+
+def compare_parts(lhs: Parts, rhs: Parts, order: int) -> tuple[Exponent, Exponent | None]:
+    """(order verified, first exponent where they differ or None) for two sides given as
+    numerator and unit denominator (None: 1), compared as A*D = C*B: the difference
+    A/B - C/D = (A*D - C*B)/(B*D) has its first nonzero term where A*D - C*B has, B*D being a
+    unit, so no series is inverted.  (A numerator of negative valuation times the other
+    denominator is known to less than the order, which the verified order then says.)
+
+    >>> from qseries.series import Series
+    >>> one_minus_q = Series.from_coefficients([1, -1])
+    >>> geometric = Series.from_coefficients([1] * 9, prec=9)
+    >>> compare_parts((Series.constant(1), one_minus_q), (geometric, None), 9)
+    (9, None)
+    >>> compare_parts((Series.constant(1), one_minus_q), (geometric - Series.monomial(5), None), 9)
+    (9, 5)
+    """
+    (a, b), (c, d) = lhs, rhs
+    left = a if d is None else a * d
+    right = c if b is None else c * b
+    verified, mismatch = compare_series(left, right, order)
+    return verified, None if mismatch is None else mismatch.exponent
+
+
 def _modular_compare(lnode: Node, rnode: Node, order: int, p: int,
                      names: tuple[str, ...] = (), weights: dict[str, int] | None = None
-                     ) -> tuple[Exponent, Mismatch | None]:
+                     ) -> tuple[Exponent, Exponent | None]:
     left, right = _modular_sides(lnode, rnode, order, p, names, weights)
-    return compare_series(left, right, order)
+    return compare_parts(left, right, order)
 
 
 def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | None,
@@ -359,8 +397,7 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
         futures = [pool.submit(_modular_compare, lnode, rnode, order, p, names, weights)
                    for p in ps[1:]] if pool else []
         say(f"comparing modulo {len(ps)} primes" + (" in parallel" if pool else ""))
-        left, right = _modular_sides(lnode, rnode, order, ps[0], names, weights)
-        outcomes = [compare_series(left, right, order)]
+        outcomes = [_modular_compare(lnode, rnode, order, ps[0], names, weights)]
         if pool:
             outcomes += [f.result() for f in futures]
         else:
@@ -370,12 +407,12 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
     finally:
         if pool:
             pool.shutdown(cancel_futures=True)
-    for v, m in outcomes:
+    for v, e in outcomes:
         verified = min(verified, v)
-        if m is not None and (first is None or Fraction(m.exponent) < Fraction(first)):
-            first = m.exponent
+        if e is not None and (first is None or Fraction(e) < Fraction(first)):
+            first = e
     if first is None:
-        return CheckResult(True, order, verified, None, time.perf_counter() - t0, left, right,
+        return CheckResult(True, order, verified, None, time.perf_counter() - t0, None, None,
                            "modular", ps, names, wt)
     # recompute both sides exactly just past the first mismatch, and report them
     say("recomputing the first mismatch exactly")

@@ -58,12 +58,12 @@ def _same(a: Series, b: Series, order: Fraction) -> bool:
 
 def diagnose(r: CheckResult) -> list[Hint]:
     """Hints for a check that found a mismatch (an empty list when it holds)."""
-    if r.first_mismatch is None or r.variables:
+    if r.first_mismatch is None or r.variables or r.lhs is None or r.rhs is None:
         return []   # the hints look at series in q alone
     # only what both computed sides know counts (after a modular check they are recomputed
     # exactly just past the mismatch, not to the whole order)
     n = min([Fraction(r.order_verified)] + [Fraction(s.precision) for s in (r.lhs, r.rhs)
-                                           if s.precision is not None])
+                                           if s is not None and s.precision is not None])
     lhs, rhs = _to_known(r.lhs, n), _to_known(r.rhs, n)
     hints: list[Hint] = []
     vl, vr = lhs.valuation, rhs.valuation

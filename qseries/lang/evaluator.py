@@ -20,7 +20,7 @@ from typing import Any
 
 from .._flint import laurent_budget
 from ..errors import DomainError, QSeriesError, UnableError, weight_may_help
-from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_power
+from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_parts
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
 from ..series.formatting import short_number_text
 from . import symbolic as sym
@@ -44,6 +44,8 @@ from .parser import parse
 from .termination import NoBound, TermBounds
 
 Value = Fraction | Series
+#: a value as numerator and denominator (None: 1), see Evaluator.evaluate_parts
+Parts = tuple[Series, Series | None]
 
 #: the working order may be raised to RETRY_FACTOR * order + RETRY_SLACK to make up for
 #: precision lost to negative powers; beyond that the lower precision is reported
@@ -92,7 +94,7 @@ class Evaluator:
         #: use the ratio of consecutive terms for q-Pochhammer factors of sums (the fast
         #: path); False evaluates every term from scratch (the reference path for tests)
         self.stepping = stepping
-        self._cache: dict[tuple, Value] = {}
+        self._cache: dict[tuple, Any] = {}
         self._free: dict[int, frozenset[str]] = {}
         self._hasq: dict[int, bool] = {}
         self.bounds = TermBounds(self)
@@ -107,6 +109,55 @@ class Evaluator:
             raise UnableError(f"order {order} exceeds the limit {MAX_LENGTH}")
         with laurent_budget():
             return self._evaluate(node, order, retries)
+
+    def evaluate_parts(self, node: Node, order: int) -> Parts:
+        """The value of ``node`` modulo q^order as (numerator, denominator), the denominator
+        a unit series (valuation 0, invertible constant term) known modulo q^order and the
+        numerator then of valuation >= 0 and known modulo q^order; or (value, None).  A sum
+        done by binary splitting or a chain of products and quotients leaves its last
+        division undone, so that two sides can be compared as A*D = C*B without inverting
+        a series.  Anything else is evaluated as by ``evaluate``.
+
+        >>> ev = Evaluator(ZZ)
+        >>> ev.evaluate_parts(parse("1/((q;q^5)_inf (q^4;q^5)_inf)"), 8)
+        (1 - q^5 + O(q^8), 1 - q - q^4 + q^7 + O(q^8))
+        >>> ev.evaluate_parts(parse("(q;q)_inf"), 3)
+        (1 - q - q^2 + O(q^3), None)
+        """
+        if order > MAX_LENGTH:
+            raise UnableError(f"order {order} exceeds the limit {MAX_LENGTH}")
+        with laurent_budget():
+            self._cache.clear()
+            self._terms = 0
+            got = self._top_parts(node, order)
+            if got is not None:
+                num, den = got
+                known = num.precision is None or num.precision >= order
+                if den is None and known:
+                    return (num.truncate(order) if num.offset == 0
+                            else _truncate_abs(num, order)), None
+                low = num.valuation
+                if (den is not None and known and self._is_unit(den, order)
+                        and (low is None or low >= 0)):
+                    return num, den
+            return self._evaluate(node, order, 3), None
+
+    def _top_parts(self, node: Node, order: int) -> Parts | None:
+        if isinstance(node, Neg):
+            got = self._top_parts(node.operand, order)
+            return None if got is None else (-got[0], got[1])
+        if isinstance(node, BinOp) and node.op in "*/":
+            v = self._chain_parts(_factors(node), {}, order)
+            if isinstance(v, tuple):
+                return v
+            return (v, None) if isinstance(v, Series) else None
+        if isinstance(node, BigOp):
+            return self._sum_parts(node, {}, order)
+        return None
+
+    def _is_unit(self, s: Series, order: int) -> bool:
+        return (s.offset == 0 and s.valuation == 0 and s.ring.is_unit(s.ring.coeff(s.poly, 0))
+                and (s.precision is None or s.precision >= order))
 
     def _evaluate(self, node: Node, order: int, retries: int) -> Series:
         self._cache.clear()
@@ -332,6 +383,12 @@ class Evaluator:
         """Multiply out factors node^power: numbers and monomials first (so the remaining
         factors are computed only to the order they matter), then series, binomials
         1 - c q^j by the O(N) fast paths, and one inversion for the other denominators."""
+        got = self._chain_parts(factors, env, order)
+        return self._divided(*got, order) if isinstance(got, tuple) else got
+
+    def _chain_parts(self, factors: list[tuple[Node, int]], env: dict[str, int],
+                     order: int) -> Value | Parts:
+        """``_chain`` with the final inversion left out: a number, a series, or parts."""
         coeff = Fraction(1)
         shift = Fraction(0)
         rest: list[tuple[Node, int]] = []
@@ -355,10 +412,11 @@ class Evaluator:
         if coeff == 0 and rest == []:
             return Series.zero(self.ring)
         inner = max(order - _ceil(shift), 1)
-        acc = self._apply(Series.constant(1, self.ring), rest, env, inner)
+        acc, den = self._apply_parts(Series.constant(1, self.ring), rest, env, inner)
         if coeff != 1:
             acc = acc * coeff
-        return acc.shift(shift).truncate(order) if shift else acc
+        acc = acc.shift(shift).truncate(order) if shift else acc
+        return acc if den is None else (acc, den)
 
     def _poch_atoms(self, node: Node, env: dict[str, int]) -> list[tuple[int, int]] | None:
         """[(a, m), ...] when node is (q^a1, q^a2, ...; q^m)_inf with positive integer a_i."""
@@ -378,10 +436,10 @@ class Evaluator:
         return out
 
     def _paired_products(self, factors: list[tuple[Node, int]], env: dict[str, int],
-                         order: int) -> tuple[list[Series], list[tuple[Node, int]]]:
+                         order: int) -> tuple[list[Parts], list[tuple[Node, int]]]:
         """Jacobi's triple product fast path: factors (q^a;q^m)_inf^p and (q^(m-a);q^m)_inf^p
-        are computed together as a sparse sum over (q^m;q^m)_inf.  Returns the values of the
-        paired products and the factors left to the general path."""
+        are computed together as a sparse sum over (q^m;q^m)_inf.  Returns the paired
+        products as numerators and denominators, and the factors left to the general path."""
         atoms: list[tuple[int, int, int]] = []
         rest: list[tuple[Node, int]] = []
         for node, p in factors:
@@ -393,7 +451,7 @@ class Evaluator:
         if len(atoms) < 2:
             return [], factors
         pool = list(atoms)
-        values: list[Series] = []
+        values: list[Parts] = []
         singles: list[tuple[int, int, int]] = []
         while pool:
             a, m, p = pool.pop(0)
@@ -401,27 +459,42 @@ class Evaluator:
             if 0 < a < m and 2 * a != m and partner in pool:
                 pool.remove(partner)
                 key = ("pair", min(a, m - a), m, p, order)
-                v = self._cache.get(key)  # type: ignore[call-overload]
+                v = self._cache.get(key)
                 if v is None:
-                    v = theta_pair_power(min(a, m - a), m, p, self.ring, order)
-                    self._cache[key] = v  # type: ignore[index]
+                    v = theta_pair_parts(min(a, m - a), m, p, self.ring, order)
+                    self._cache[key] = v
                 values.append(v)
             else:
                 singles.append((a, m, p))
         for a, m, p in singles:
             v = pochhammer(Series.monomial(a, self.ring), m, None, order)
-            values.append(v if p == 1 else v.power(p, order))
+            values.append((v if p == 1 else v.power(p, order), None))
         return values, rest
 
     def _apply(self, acc: Series, factors: list[tuple[Node, int]], env: dict[str, int],
                order: int) -> Series:
         """acc * prod node^power modulo q^order."""
+        return self._divided(*self._apply_parts(acc, factors, env, order), order)
+
+    def _apply_parts(self, acc: Series, factors: list[tuple[Node, int]], env: dict[str, int],
+                     order: int) -> Parts:
+        """acc * prod node^power modulo q^order as a numerator and the product of the
+        denominators (None when there are none), which ``_divided`` inverts once."""
         dens: list[Series] = []
         binoms: list[tuple[Fraction | int, int, int]] = []
         paired, factors = self._paired_products(factors, env, order)
-        for v in paired:
+        for v, d in paired:
             acc = (acc * v).truncate(order)
+            if d is not None:
+                dens.append(d)
         for node, p in factors:
+            if p == 1 and isinstance(node, BigOp) and not (self.free(node) & env.keys()):
+                got = self._sum_parts(node, env, order)
+                if got is not None:
+                    acc = (acc * got[0]).truncate(order)
+                    if got[1] is not None:
+                        dens.append(got[1])
+                    continue
             v = self._divisor(node, env, order) if p < 0 else self.value(node, env, order)
             if not isinstance(v, Series):
                 if p < 0 and v == 0:
@@ -436,25 +509,28 @@ class Evaluator:
             else:
                 dens.append(v if p == -1 else v.power(-p, order))
         for c, j, p in binoms:
-            if p > 0:
-                for _ in range(p):
-                    acc = acc.mul_binomial(c, j, order)
-        if dens:
-            # truncated beyond the order by the divisors' valuations, which dividing gives
-            # back (truncating at the order would make divisors of positive valuation vanish)
-            work = order + sum(max(_floor(d.valuation), 0) for d in dens
-                               if d.valuation is not None)
-            den = dens[0]
-            for d in dens[1:]:
-                den = (den * d).truncate(work)
-            va = acc.valuation
-            shift_num = int(va) if va is not None else 0
-            acc = (acc * den.inverse(order=order - shift_num)).truncate(order)
-        for c, j, p in binoms:
-            if p < 0:
-                for _ in range(-p):
-                    acc = acc.div_binomial(c, j, order)
-        return acc.truncate(order)
+            for _ in range(abs(p)):
+                acc = (acc.mul_binomial(c, j, order) if p > 0
+                       else acc.div_binomial(c, j, order))
+        if not dens:
+            return acc.truncate(order), None
+        # truncated beyond the order by the divisors' valuations, which dividing gives
+        # back (truncating at the order would make divisors of positive valuation vanish)
+        work = order + sum(max(_floor(d.valuation), 0) for d in dens
+                           if d.valuation is not None)
+        den = dens[0]
+        for d in dens[1:]:
+            den = (den * d).truncate(work)
+        return acc.truncate(order), den
+
+    @staticmethod
+    def _divided(num: Series, den: Series | None, order: int) -> Series:
+        """num / den modulo q^order (den None: num)."""
+        if den is None:
+            return num.truncate(order)
+        va = num.valuation
+        shift_num = int(va) if va is not None else 0
+        return (num * den.inverse(order=order - shift_num)).truncate(order)
 
     # -- sums and products ------------------------------------------------------------------
     def _range(self, node: BigOp, env: dict[str, int], order: int,
@@ -574,7 +650,28 @@ class Evaluator:
             raise UnableError(f"the sums and products need more than {MAX_TOTAL_TERMS} terms "
                               f"together at this order (at {_label(node)})")
 
-    def _sum_terms(self, node: BigOp, ks: list[int], env: dict[str, int], order: int) -> Series:
+    def _sum_parts(self, node: BigOp, env: dict[str, int], order: int) -> Parts | None:
+        """A sum as numerator and denominator (binary splitting leaves one division undone);
+        (value, None) for a sum evaluated otherwise, None for a node that is not a sum."""
+        if node.kind != "sum" or not self.has_q(node.body):
+            return None
+        if order > MAX_LENGTH:
+            return None     # value() gives the error
+        closed = not (self.free(node) & env.keys())
+        key = ("parts", id(node), order)
+        hit = self._cache.get(key) if closed else None
+        if hit is None:
+            ks = self._range(node, env, order, deviation=False)
+            got = self._sum_terms(node, ks, env, order, parts=True)
+            hit = got if isinstance(got, tuple) else (got, None)
+            if closed:
+                self._cache[key] = hit
+        return hit
+
+    def _sum_terms(self, node: BigOp, ks: list[int], env: dict[str, int], order: int,
+                   parts: bool = False) -> Series | tuple[Series, Series]:
+        """The sum over ``ks``; with ``parts``, as (numerator, denominator) where binary
+        splitting applies."""
         var = node.var
         self._count_terms(node, len(ks))
         if not ks:
@@ -618,9 +715,17 @@ class Evaluator:
             suffix_min[i] = running
         if self.stepping and not direct and len(ks) >= 8:
             split = self._sum_by_splitting(node, ks, env, target, sign, scalars, stepping,
-                                           shifts)
-            if split is not None:
+                                           shifts, order if parts else 0)
+            if isinstance(split, Series):
                 return (split * const).truncate(order)
+            if split is not None:
+                term_a, top, den, w = split
+                if parts:
+                    num = (term_a * top).truncate(target).limit_precision(target)
+                    return (num * const).truncate(order), den
+                ratio_sum = (top * den.inverse(order=w)).truncate(w).limit_precision(w)
+                total = (term_a * ratio_sum).truncate(target).limit_precision(target)
+                return (total * const).truncate(order)
         total = Series.zero(self.ring, target)
         states: list[Series | None] = [None] * len(stepping)
         prev_k: int | None = None
@@ -656,14 +761,16 @@ class Evaluator:
 
     def _sum_by_splitting(self, node: BigOp, ks: list[int], env: dict[str, int], target: int,
                           sign: int, scalars: list[tuple[Node, int]],
-                          stepping: list[tuple[Poch, int]], shifts: list[Fraction]
-                          ) -> Series | None:
+                          stepping: list[tuple[Poch, int]], shifts: list[Fraction],
+                          den_order: int = 0
+                          ) -> Series | tuple[Series, Series, Series, int] | None:
         """Binary splitting for a sum whose consecutive terms have a ratio P(k)/Q(k) of
         polynomials (a power of q, a number, binomials 1 - c q^j): with
         P(l,r), Q(l,r) the products over [l, r) and T(l,r) = T(l,m) Q(m,r) + P(l,m) T(m,r),
         the sum is term_a (Q + T)/Q over the whole range, in O(M(N) log K) instead of
-        K divisions by binomials.  None when the terms do not have that shape (the caller
-        then steps term by term)."""
+        K divisions by binomials.  Returns (term_a, Q + T, Q, w) with Q + T and Q known
+        modulo q^w, w at least ``den_order``; the sum itself when it is one term; None when
+        the terms do not have that shape (the caller then steps term by term)."""
         var = node.var
         coeffs: list[Fraction] = []
         for k in ks:
@@ -702,6 +809,7 @@ class Evaluator:
         w = target - (_floor(va) if va is not None else 0)
         if w <= 0:
             return term_a.truncate(target)
+        w = max(w, den_order)
         one = Series.constant(1, ring)
         num: list[Series] = []
         den: list[Series] = []
@@ -741,8 +849,7 @@ class Evaluator:
                     (t1.mul_trunc(q2, w) + p1.mul_trunc(t2, w)).truncate(w))
 
         _, qq, tt = split(0, len(num))
-        ratio_sum = ((qq + tt) * qq.inverse(order=w)).truncate(w).limit_precision(w)
-        return (term_a * ratio_sum).truncate(target).limit_precision(target)
+        return term_a, (qq + tt).truncate(w), qq, w
 
     def _steppable(self, f: Poch, var: str, env: dict[str, int]) -> bool:
         if not self.stepping:

@@ -11,10 +11,12 @@ from .pochhammer import (
     gaussian_binomial,
     monomial_parts,
     pochhammer,
+    theta_pair_parts,
     theta_pair_power,
     triple_product_sum,
 )
 from .registry import FUNCTIONS, FunctionEntry
 
 __all__ = ["FUNCTIONS", "FunctionEntry", "euler_product", "gaussian_binomial",
-           "monomial_parts", "pochhammer", "theta_pair_power", "triple_product_sum"]
+           "monomial_parts", "pochhammer", "theta_pair_parts", "theta_pair_power",
+           "triple_product_sum"]

@@ -87,6 +87,26 @@ def triple_product_sum(a: int, m: int, ring: Ring, order: int) -> Series:
     return Series.from_int_list(coeffs, ring, prec=order)
 
 
+def theta_pair_parts(a: int, m: int, power: int, ring: Ring, order: int) -> tuple[Series, Series]:
+    """(q^a, q^(m-a); q^m)_inf^power as a numerator and a denominator modulo q^order, both
+    with constant term 1: by the triple product the pair is a sparse sum over
+    (q^m;q^m)_inf, so neither part needs an inversion.
+
+    >>> from qseries.series import ZZ
+    >>> num, den = theta_pair_parts(1, 5, -1, ZZ, 12)
+    >>> num, den
+    (1 - q^5 - q^10 + O(q^12), 1 - q - q^4 + q^7 + O(q^12))
+    """
+    num = triple_product_sum(a, m, ring, order)
+    den = euler_product(m, ring, order)
+    if power < 0:
+        num, den = den, num
+        power = -power
+    if power == 1:
+        return num, den
+    return num.power(power, order), den.power(power, order)
+
+
 def theta_pair_power(a: int, m: int, power: int, ring: Ring, order: int) -> Series:
     """(q^a, q^(m-a); q^m)_inf^power by the triple product: a sparse sum divided by
     (q^m;q^m)_inf, instead of 2 order/m binomial multiplications.
@@ -97,13 +117,8 @@ def theta_pair_power(a: int, m: int, power: int, ring: Ring, order: int) -> Seri
     >>> theta_pair_power(1, 5, -1, ZZ, 10) == slow.power(-1, 10)
     True
     """
-    num = triple_product_sum(a, m, ring, order)
-    den = euler_product(m, ring, order)
-    if power < 0:
-        num, den = den, num
-        power = -power
-    base = (num * den.inverse()).truncate(order)
-    return base if power == 1 else base.power(power, order)
+    num, den = theta_pair_parts(a, m, power, ring, order)
+    return (num * den.inverse()).truncate(order)
 
 
 def _one(ring: Ring) -> Series:

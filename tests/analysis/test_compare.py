@@ -122,3 +122,17 @@ def test_modular_primes_in_worker_processes_give_the_same_verdict(monkeypatch):
     r = check(RR1_SUM, broken, order=400, method="modular", seed=3)
     assert not r.holds and r.first_mismatch.exponent == 300
     assert check(RR1_SUM, RR1_PRODUCT, order=400, method="modular", seed=3).holds
+
+
+def test_modular_cross_multiplication_keeps_the_order_with_negative_powers():
+    # the modular method compares A/B = C/D as A*D = C*B; a side of negative valuation times
+    # the other side's denominator (known to the order) would be known to less than the order
+    for lhs in ("q^-1 + sum_{k>=0} q^(k^2)/(q;q)_k", "q^-1 (sum_{k>=0} q^(k^2)/(q;q)_k)"):
+        r = check(lhs, RR1_PRODUCT, order=500, method="modular", seed=2)
+        exact = check(lhs, RR1_PRODUCT, order=500, method="exact")
+        assert r.order_verified == exact.order_verified == 500
+        assert r.first_mismatch == exact.first_mismatch
+        assert r.first_mismatch.exponent == -1
+    r = check("q^-1 (sum_{k>=0} q^(k^2)/(q;q)_k)", "q^-1 " + RR1_PRODUCT, order=500,
+              method="modular")
+    assert r.holds and r.order_verified == 500

@@ -72,3 +72,20 @@ def test_exact_and_modular_checks_give_the_same_verdict(lhs, rhs):
     assert exact.holds == modular.holds
     if not exact.holds:
         assert exact.first_mismatch == modular.first_mismatch
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.one_of(sides, st.builds(lambda a, b: f"({a}) / ({b})", sides, sides),
+                 st.builds(lambda a, b: f"-({a}) ({b})", sum_sides(), product_sides())))
+def test_numerator_over_denominator_is_the_value(text):
+    # the modular method compares sides as A*D = C*B from evaluate_parts; the quotient of the
+    # parts must be the value itself, to the same precision
+    from qseries.lang import Evaluator, parse
+    for ring in (GF(PRIME),):
+        node = parse(text)
+        num, den = Evaluator(ring).evaluate_parts(node, 90)
+        value = Evaluator(ring).evaluate(node, 90)
+        if den is not None:
+            assert den.valuation == 0 and den.offset == 0
+            num = (num * den.inverse(order=90)).truncate(90)
+        assert num == value, text

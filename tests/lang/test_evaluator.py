@@ -181,3 +181,33 @@ def test_infinite_products_with_negative_valuation_against_sympy(text, step, fir
     assert ours.precision == n
     for e in range(shift, n):
         assert ours.coefficient(e) == poly.coeff_monomial(q**(e - shift)), e
+
+
+@pytest.mark.parametrize("text, split", [
+    ("sum_{k>=0} q^(k^2)/(q;q)_k", True),                 # binary splitting
+    ("sum_{k>=1} q^(k^2)/(q;q)_k", True),                 # first term of valuation 1
+    ("sum_{k>=0} q^(k^2+k-4)/(q;q)_k", False),            # negative valuation: divided
+    ("1/((q;q^5)_inf (q^4;q^5)_inf)", True),              # Jacobi's triple product pair
+    ("(q;q^5)_inf^-2 (q^4;q^5)_inf^-2 (q^2;q)_inf", True),
+    ("-(q;q)_inf/(q^2;q^2)_inf", True),
+    ("3 (sum_{k>=0} q^(k^2+k)/(q;q)_k) / (-q;q)_inf", True),
+    ("q^3 (sum_{k>=0} q^(k^2+k)/(q;q)_k) / (-q;q)_inf", False),   # known to O(q^197)
+    ("q^-3 (sum_{k>=0} q^(k^2+k)/(q;q)_k) / (-q;q)_inf", False),
+    ("(q;q)_inf", False),                                 # nothing to divide
+    ("1/(q - q^2)", False),                               # not a unit: divided at once
+    ("1/(2 - q)", False),                                 # 2 is no unit of ZZ
+    ("sum_{k>=0} q^(k^2)/(q;q)_k + O(q^50)", False),      # a sum of terms
+])
+def test_parts_divide_to_the_value(text, split):
+    # evaluate_parts leaves the last division undone (for the modular method's A*D = C*B);
+    # numerator / denominator must be the value to the same precision
+    node = parse(text)
+    num, den = Evaluator(ZZ).evaluate_parts(node, 200)
+    assert (den is not None) == split
+    value = evaluate(node, 200)
+    if den is not None:
+        assert den.valuation == 0 and den.coefficient(0) in (1, -1)
+        assert num.valuation >= 0 and num.precision == 200
+        assert den.precision is None or den.precision >= 200
+        num = (num * den.inverse(order=200)).truncate(200)
+    assert num == value
