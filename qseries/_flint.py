@@ -219,6 +219,29 @@ class Ring:
         """c as a scalar that polynomials of this ring can be multiplied by."""
         return self.coerce(c)
 
+    def exp_integral(self, s: list[int], n: int) -> Any | None:
+        """exp(sum_{k>=1} s[k] q^k / k) modulo q^n for integers s[k] (s[0] is ignored): the
+        Euler transform, which turns a long product of binomials into a logarithm known in
+        closed form.  None where this ring cannot divide by k < n.  (Rings over ZZ use
+        FLINT's rational series exponential; the caller knows the result is integral.)"""
+        if n <= 0:
+            return self.zero()
+        if n == 1:
+            return self.poly_from_ints([1])
+        f = flint.fmpq_poly(list(s[1:n])).integral()
+        old = flint.ctx.cap
+        flint.ctx.cap = max(n, old)
+        try:
+            g = flint.fmpq_series(f, prec=n).exp()
+            coeffs = [g[k] for k in range(n)]
+        finally:
+            flint.ctx.cap = old
+        if self is QQ:
+            return self.poly(coeffs)
+        if any(c.q != 1 for c in coeffs):
+            raise ArithmeticError("exp_integral: the exponential is not integral")
+        return self.poly_from_ints([int(c.p) for c in coeffs])
+
 
 def _py_coeffs(p: Any) -> list[Number]:
     out: list[Number] = []
@@ -331,6 +354,28 @@ class _ModularRing(Ring):
         if p.length() == 0 or not self.is_unit(p[0]):
             raise DomainError(f"constant term is not invertible modulo {self.p}")
         return p.inverse_series_trunc(n)
+
+    def exp_integral(self, s: list[int], n: int) -> Any | None:
+        # Newton's iteration g <- g (1 + f - log g), log g = integral(g'/g), doubling the
+        # precision each step; the integral divides by k < n, so p must exceed n
+        if n <= 0:
+            return self.zero()
+        if self.p <= n:
+            return None
+        p = self.p
+        f = flint.nmod_poly([c % p for c in s[1:n]], p).integral()
+        g = flint.nmod_poly([1], p)
+        m = 1
+        while m < n:
+            m2 = min(2 * m, n)
+            h = g.inverse_series_trunc(m2)
+            log_g = g.derivative().mul_low(h, m2 - 1).integral()
+            # f - log g vanishes below q^m: only the top m2 - m coefficients of g (f - log g)
+            # are needed
+            d = (f.truncate(m2) - log_g).right_shift(m)
+            g = g + g.truncate(m2 - m).mul_low(d, m2 - m).left_shift(m)
+            m = m2
+        return g
 
     def _multiplier(self, c: Number) -> Any:
         return int(self.coerce(c))
@@ -604,6 +649,9 @@ class _LaurentRing(Ring):
         self._q = self.ctx.gen(0)
         self._no_shift = (0,) * len(names)
         self._qpowers: dict[int, Any] = {}
+
+    def exp_integral(self, s: list[int], n: int) -> Any | None:
+        return None     # products are then multiplied out factor by factor
 
     # -- helpers -------------------------------------------------------------------------
     def _monomial(self, qexp: int, exps: Any) -> Any:

@@ -23,6 +23,11 @@ from ..series import Ring, Series
 MAX_FACTORS = 10_000_000
 
 
+#: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
+#: computed as the exponential of its logarithm instead of factor by factor
+EXP_FACTORS = 24
+
+
 def monomial_parts(s: Series) -> tuple[int | Fraction, Fraction] | None:
     """(c, e) when s is the exact monomial c q^e, else None.
 
@@ -178,6 +183,11 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
                 break
             acc = acc.div_binomial(mono[0], t * i, order)
         return acc
+    if mono is not None and n is None and ring == a.ring and mono[0] in (1, -1) and \
+            mono[1].denominator == 1 and mono[1] >= 1 and (order - mono[1]) // t >= EXP_FACTORS:
+        got = _euler_transform(int(mono[0]), int(mono[1]), t, ring, order)
+        if got is not None:
+            return got
     acc = _one(a.ring)
     if n is None:
         va = a.valuation
@@ -229,6 +239,33 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
     else:
         acc = _negative_subscript(acc, a, mono, t, n, order)
     return acc.truncate(order)
+
+
+def euler_log(c: int, a: int, t: int, order: int) -> list[int]:
+    """s[k] = k [q^k] log prod_{j>=0} (1 - c q^(a+tj)) for k < order, for c = +-1 and
+    a, t >= 1: log(1 - c q^x) = -sum_m c^m q^(mx)/m, so s[k] = -sum x c^(k/x) over the
+    divisors x of k with x = a (mod t), x >= a.
+
+    >>> euler_log(1, 1, 1, 7)      # -sigma(k): (q;q)_inf
+    [0, -1, -3, -4, -7, -6, -12]
+    """
+    s = [0] * max(order, 0)
+    for x in range(a, order, t):
+        if c == 1:
+            s[x::x] = [v - x for v in s[x::x]]
+        else:               # c^m = (-1)^m: + x for odd m, - x for even m
+            s[x::2 * x] = [v + x for v in s[x::2 * x]]
+            s[2 * x::2 * x] = [v - x for v in s[2 * x::2 * x]]
+    return s
+
+
+def _euler_transform(c: int, a: int, t: int, ring: Ring, order: int) -> Series | None:
+    """(c q^a; q^t)_inf modulo q^order as exp of its logarithm (None where the ring has no
+    exponential: a prime not above the order, extra variables)."""
+    poly = ring.exp_integral(euler_log(c, a, t, order), order)
+    if poly is None:
+        return None
+    return Series(ring, poly, 0, 0, order)
 
 
 def _negative_subscript(acc: Series, a: Series, mono: tuple | None, t: int, n: int,

@@ -3,6 +3,7 @@
 import pytest
 
 from qseries.products import euler_product, pochhammer, theta_pair_power, triple_product_sum
+from qseries.products.pochhammer import euler_log
 from qseries.series import GF, QQ, ZZ, Series
 
 N = 90
@@ -54,3 +55,25 @@ def slow_finite(a: Series, n: int) -> Series:
     for j in range(n):
         acc = acc * (Series.constant(1) - a.shift(j))
     return acc
+
+
+@pytest.mark.parametrize("c", [1, -1])
+@pytest.mark.parametrize("e, t", [(1, 1), (1, 2), (2, 3), (5, 7), (3, 2), (4, 5)])
+def test_long_products_as_the_exponential_of_their_logarithm(c, e, t):
+    # (c q^e; q^t)_inf with many factors goes through exp(log) (the Euler transform): the same
+    # coefficients as one binomial at a time, in every ring, and when the prime is too small
+    # to divide by k < order the factor-by-factor path is taken instead
+    n = 400
+    for ring in (ZZ, QQ, GF(2**61 - 1), GF(101)):
+        acc = Series.constant(1, ring)
+        for x in range(e, n, t):
+            acc = acc.mul_binomial(c, x, n)
+        fast = pochhammer(Series.monomial(e, c=c, ring=ring), t, None, n)
+        assert fast == acc.truncate(n), ring
+
+
+def test_euler_log_counts_divisors_in_the_progression():
+    # k [q^k] log (q;q^2)_inf = -(sum of the odd divisors of k); from the definition
+    assert euler_log(1, 1, 2, 13) == [0, -1, -1, -4, -1, -6, -4, -8, -1, -13, -6, -12, -4]
+    # (-q;q)_inf: log(1 + q^x) = sum_m (-1)^(m+1) q^(mx)/m
+    assert euler_log(-1, 1, 1, 5) == [0, 1, 1, 4, 1]
