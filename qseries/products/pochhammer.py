@@ -169,11 +169,12 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         raise UnableError("the base of a q-Pochhammer symbol must be q^t with t >= 1")
     ring = ring or a.ring
     mono = monomial_parts(a)
-    if mono is not None and n is None and ring == a.ring and mono[0] in (1, -1) and \
+    sign = _sign(mono[0], ring) if mono is not None and ring == a.ring else None
+    if mono is not None and n is None and sign is not None and \
             mono[1].denominator == 1 and mono[1] >= t and mono[1] % t == 0:
         # (+-q^(kt);q^t)_inf = (+-q^t;q^t)_inf / (+-q^t;q^t)_(k-1): Euler's product, and
         # (-q^t;q^t)_inf = (q^2t;q^2t)_inf / (q^t;q^t)_inf, then k-1 binomial divisions
-        if mono[0] == 1:
+        if sign == 1:
             acc = euler_product(t, ring, order)
         else:
             acc = (euler_product(2 * t, ring, order)
@@ -181,11 +182,11 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
         for i in range(1, int(mono[1]) // t):
             if t * i >= order:
                 break
-            acc = acc.div_binomial(mono[0], t * i, order)
+            acc = acc.div_binomial(sign, t * i, order)
         return acc
-    if mono is not None and n is None and ring == a.ring and mono[0] in (1, -1) and \
+    if mono is not None and n is None and sign is not None and \
             mono[1].denominator == 1 and mono[1] >= 1 and (order - mono[1]) // t >= EXP_FACTORS:
-        got = _euler_transform(int(mono[0]), int(mono[1]), t, ring, order)
+        got = _euler_transform(sign, int(mono[1]), t, ring, order)
         if got is not None:
             return got
     acc = _one(a.ring)
@@ -239,6 +240,16 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
     else:
         acc = _negative_subscript(acc, a, mono, t, n, order)
     return acc.truncate(order)
+
+
+def _sign(c: object, ring: Ring) -> int | None:
+    """1 or -1 when the number c is that sign in the ring (p - 1 is -1 modulo p), else None."""
+    if isinstance(c, bool) or not isinstance(c, int):
+        return None
+    for sign in (1, -1):
+        if ring.coerce(c) == ring.coerce(sign):
+            return sign
+    return None
 
 
 def euler_log(c: int, a: int, t: int, order: int) -> list[int]:

@@ -77,3 +77,23 @@ def test_euler_log_counts_divisors_in_the_progression():
     assert euler_log(1, 1, 2, 13) == [0, -1, -1, -4, -1, -6, -4, -8, -1, -13, -6, -12, -4]
     # (-q;q)_inf: log(1 + q^x) = sum_m (-1)^(m+1) q^(mx)/m
     assert euler_log(-1, 1, 1, 5) == [0, 1, 1, 4, 1]
+
+
+def test_minus_one_modulo_p_takes_the_fast_paths(monkeypatch):
+    # regression: modulo p the parameter -q has coefficient p - 1, which was not recognised as
+    # -1, so (-q;q)_inf and (-q;q^3)_inf were multiplied out one binomial at a time (minutes
+    # at order 10^5); the results must also be the reductions of the exact ones
+    p = 2**61 - 1
+    calls = []
+    original = Series.mul_binomial
+
+    def counting(self, *args, **kwargs):
+        calls.append(args)
+        return original(self, *args, **kwargs)
+
+    monkeypatch.setattr(Series, "mul_binomial", counting)
+    for t in (1, 3):
+        fast = pochhammer(Series.monomial(1, GF(p), -1), t, None, 3000)
+        exact = pochhammer(Series.monomial(1, ZZ, -1), t, None, 3000)
+        assert fast.coefficient_list(3000) == [c % p for c in exact.coefficient_list(3000)]
+    assert calls == []
