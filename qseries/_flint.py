@@ -59,6 +59,11 @@ class Ring:
 
     name: str = "?"
     exact: bool = True
+    #: coefficients are Python ints read modulo the ring (ZZ, GF(p)): ``poly_from_ints``
+    #: takes any ints, so callers may accumulate coefficients in a plain list
+    int_coefficients: bool = False
+    #: p for GF(p), else None
+    modulus: int | None = None
 
     @property
     def fractions(self) -> Ring:
@@ -256,6 +261,7 @@ def _py_coeffs(p: Any) -> list[Number]:
 class _IntegerRing(Ring):
     name = "ZZ"
     _ptype = flint.fmpz_poly
+    int_coefficients = True
 
     def coerce(self, c: Number) -> Any:
         if isinstance(c, flint.fmpz):
@@ -310,6 +316,7 @@ class _RationalRing(Ring):
 
 class _ModularRing(Ring):
     exact = False
+    int_coefficients = True
 
     def __init__(self, p: int) -> None:
         if p < 2 or not flint.fmpz(p).is_prime():
@@ -317,6 +324,7 @@ class _ModularRing(Ring):
         if p >= 2**64:
             raise DomainError(f"modulus {p} does not fit in a machine word")
         self.p = p
+        self.modulus = p
         self.name = f"GF({p})"
 
     def _ptype(self, coeffs: list) -> Any:  # type: ignore[override]

@@ -339,6 +339,11 @@ class Evaluator:
         """The exact value of c*q^e written as such (q, q^e, -q^e, 2q^e), else None;
         unlike ``value`` it is never truncated, so q-Pochhammer bases and parameters keep
         their binomial fast paths at any order."""
+        got = self._monomial_of(node, env)
+        return None if got is None else Series.monomial(got[1], self.ring, got[0])
+
+    def _monomial_of(self, node: Node, env: dict[str, int]) -> tuple[Fraction, Fraction] | None:
+        """(c, e) when node is written c*q^e (see ``_exact_monomial``), else None."""
         c = Fraction(1)
         while True:
             if isinstance(node, Neg):
@@ -348,11 +353,11 @@ class Evaluator:
             else:
                 break
         if isinstance(node, Q):
-            return Series.monomial(1, self.ring, c)
+            return c, Fraction(1)
         if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Q):
             e = self.scalar(node.right, env)
             if abs(e) <= MAX_INTEGER:
-                return Series.monomial(e, self.ring, c)
+                return c, e
         return None
 
     def _base_step(self, node: Poch, env: dict[str, int], order: int) -> int:
@@ -729,6 +734,11 @@ class Evaluator:
         total = Series.zero(self.ring, target)
         states: list[Series | None] = [None] * len(stepping)
         prev_k: int | None = None
+        # terms c q^s (numerator binomials) / (1 - c' q^j)^p are sparse (Lambert series):
+        # they are added into a list of coefficients, O(target/j) each, not as dense series
+        sparse: list[int] | None = None
+        geometric = (self.stepping and self.ring.int_coefficients and not stepping
+                     and bool(direct))
         for i, k in enumerate(ks):
             env_k = {**env, var: k}
             need = target - _ceil(shifts[i])
@@ -747,6 +757,13 @@ class Evaluator:
                 c *= _rational_power(v, Fraction(p))
             if c == 0:
                 continue
+            if geometric and shifts[i].denominator == 1 and 0 <= shifts[i] < target:
+                geo = self._geometric_term(direct, env_k, c)
+                if geo is not None:
+                    if sparse is None:
+                        sparse = [0] * target
+                    _add_geometric(sparse, int(shifts[i]), *geo, self.ring.modulus)
+                    continue
             acc = Series.constant(1, self.ring)
             for st in states:
                 assert st is not None
@@ -755,9 +772,78 @@ class Evaluator:
                 acc = self._apply(acc, direct, env_k, need)
             term = (acc * c).shift(shifts[i]) if shifts[i] else acc * c
             total = (total + term).truncate(target)
-        if isinstance(const, Series):
-            return (total * const).truncate(order)
+        if sparse is not None:
+            total = total + Series(self.ring, self.ring.poly_from_ints(sparse), 0, 0, target)
         return (total * const).truncate(order)
+
+    def _geometric_term(self, direct: list[tuple[Node, int]], env: dict[str, int],
+                        c: Fraction) -> tuple[int, dict[int, int], int, int, int] | None:
+        """For a term c * prod node^p whose factors are all binomials a + b q^e (e >= 1) with
+        at most one in the denominator: (coefficient, sparse numerator {exponent: coeff},
+        c', j, p) with the term c * numerator / (1 - c' q^j)^p, every number an int of the
+        ring; None otherwise (the term is then computed as a dense series)."""
+        scale = c
+        num: dict[int, Fraction] = {0: Fraction(1)}
+        den: tuple[Fraction, int, int] | None = None
+        for node, p in direct:
+            b = self._binomial_node(node, env)
+            if b is None:
+                return None
+            a, cb, e = b
+            scale = scale / a ** -p if p < 0 else scale * a ** p
+            if p < 0:
+                if den is not None:
+                    return None
+                den = (cb, e, -p)
+                continue
+            for _ in range(p):
+                nxt: dict[int, Fraction] = {}
+                for x, v in num.items():
+                    nxt[x] = nxt.get(x, Fraction(0)) + v
+                    nxt[x + e] = nxt.get(x + e, Fraction(0)) - cb * v
+                num = {x: v for x, v in nxt.items() if v}
+                if len(num) > 64:
+                    return None
+        cden, j, p = den if den is not None else (Fraction(0), 1, 1)
+        ints = [self._ring_int(x) for x in (scale, cden, *num.values())]
+        if any(x is None for x in ints):
+            return None
+        return (ints[0], dict(zip(num, ints[2:], strict=True)),  # type: ignore[arg-type]
+                ints[1], j, p)  # type: ignore[return-value]
+
+    def _ring_int(self, x: Fraction | int) -> int | None:
+        """x as a Python int of a ring with int coefficients (None: not representable)."""
+        if isinstance(x, int):
+            return x
+        if x.denominator == 1:
+            return x.numerator
+        if self.ring is ZZ:
+            return None
+        try:
+            return int(self.ring.coerce(x))
+        except QSeriesError:
+            return None
+
+    def _binomial_node(self, node: Node, env: dict[str, int]
+                       ) -> tuple[Fraction, Fraction, int] | None:
+        """(a, c', e) when node is written a + b q^e or b q^e + a (a != 0, e >= 1 an integer),
+        that is a (1 - c' q^e) with c' = -b/a; else None."""
+        if not (isinstance(node, BinOp) and node.op in "+-"):
+            return None
+        left, right = node.left, node.right
+        sign = 1 if node.op == "+" else -1
+        for const_node, mono_node, s_const, s_mono in ((left, right, 1, sign),
+                                                       (right, left, sign, 1)):
+            if self.has_q(const_node) or not self.has_q(mono_node):
+                continue
+            parts = self._monomial_of(mono_node, env)
+            if parts is None or parts[1].denominator != 1 or parts[1] < 1 or parts[0] == 0:
+                return None
+            a = s_const * self.scalar(const_node, env)
+            if a == 0:
+                return None
+            return a, -s_mono * parts[0] / a, int(parts[1])
+        return None
 
     def _sum_by_splitting(self, node: BigOp, ks: list[int], env: dict[str, int], target: int,
                           sign: int, scalars: list[tuple[Node, int]],
@@ -972,6 +1058,41 @@ def _signed_factors(node: Node) -> tuple[int, list[tuple[Node, int]]]:
     return sign, _factors(node)
 
 
+def _add_geometric(acc: list[int], shift: int, coeff: int, num: dict[int, int], c: int,
+                   j: int, p: int, modulus: int | None = None) -> None:
+    """acc += coeff q^shift num(q) / (1 - c q^j)^p below len(acc), in O(len(acc)/j) per
+    numerator term: (1 - c x)^-p = sum_m binomial(m + p - 1, p - 1) c^m x^m (the factors
+    reduced modulo ``modulus`` when there is one).
+
+    >>> acc = [0] * 8
+    >>> _add_geometric(acc, 1, 2, {0: 1}, -1, 3, 1)     # 2q/(1 + q^3)
+    >>> acc
+    [0, 2, 0, 0, -2, 0, 0, 2]
+    """
+    n = len(acc)
+    for x, v in num.items():
+        start = shift + x
+        w = coeff * v
+        if start >= n or w == 0:
+            continue
+        if p == 1 and c == 1:
+            acc[start::j] = [a + w for a in acc[start::j]]
+        elif p == 1 and c == -1:
+            acc[start::2 * j] = [a + w for a in acc[start::2 * j]]
+            acc[start + j::2 * j] = [a - w for a in acc[start + j::2 * j]]
+        elif c == 0:
+            acc[start] += w
+        else:
+            m, factor = 0, 1       # factor = binomial(m + p - 1, p - 1) c^m
+            for e in range(start, n, j):
+                acc[e] += w * factor
+                m += 1
+                factor = factor * c * (m + p - 1) // m
+                if modulus is not None:
+                    factor %= modulus
+    return None
+
+
 def _is_q_power(node: Node) -> bool:
     return isinstance(node, Q) or (isinstance(node, BinOp) and node.op == "^"
                                    and isinstance(node.left, Q))
@@ -1022,12 +1143,15 @@ def _times_binomial(acc: Series, a: Series, mono: tuple | None, shift: int, time
 
 
 def _floor(x: Fraction | int) -> int:
-    x = Fraction(x)
+    if isinstance(x, int):
+        return x
     return x.numerator // x.denominator
 
 
 def _ceil(x: Fraction | int) -> int:
-    return -_floor(-Fraction(x))
+    if isinstance(x, int):
+        return x
+    return -(-x.numerator // x.denominator)
 
 
 def _rational_power(base: Fraction, e: Fraction) -> Fraction:

@@ -211,3 +211,27 @@ def test_parts_divide_to_the_value(text, split):
         assert den.precision is None or den.precision >= 200
         num = (num * den.inverse(order=200)).truncate(200)
     assert num == value
+
+
+@pytest.mark.parametrize("text", [
+    "sum_{n>=1} q^n/(1-q^n)",
+    "sum_{n>=1} n q^n/(1-q^n)",
+    "1 + 4 sum_{n>=1} q^n/(1+q^(2n))",
+    "sum_{n>=1} (-1)^n q^(n(n+1)/2)/(1+q^n)",
+    "sum_{n>=1} q^n/(1-q^n)^2",
+    "sum_{n>=1} q^n (1+q^n)/(1-q^n)^3",
+    "sum_{n>=1} q^n/(1-3 q^n)",
+    "sum_{n>=1} q^n/(2-q^n)",
+    "sum_{n>=1} q^(2n)/(q^n - 1)",
+    "sum_{n>=0} q^(n^2) (1 - q^(2n+1))",
+    "q^-2 sum_{n>=1} q^n/(1-q^n)",
+    "sum_{n>=1} q^(n-3)/(1-q^n)",
+])
+def test_lambert_terms_added_sparsely_match_dense_terms(text):
+    # terms c q^s (binomials) / (1 - c' q^j)^p go into a coefficient list, O(N/j) each; the
+    # reference path (stepping=False) builds every term as a dense series
+    from qseries.series import GF
+    for ring in (ZZ, GF(1_000_003), GF(2**61 - 1)):
+        fast = Evaluator(ring).evaluate(parse(text), 250)
+        slow = Evaluator(ring, stepping=False).evaluate(parse(text), 250)
+        assert fast == slow, (text, ring)
