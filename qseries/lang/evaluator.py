@@ -59,6 +59,9 @@ MAX_TOTAL_TERMS = 1_000_000
 SPLIT_RANGE = 256
 #: a finite range the analysis cannot cut is evaluated in full only up to this length
 FALLBACK_RANGE = 20_000
+#: binary splitting is used while the binomials' exponents add up to at most this many times
+#: the order (beyond, the tree's nodes are all dense and stepping term by term is cheaper)
+SPLIT_DEGREE = 8
 #: largest integer accepted as an exponent of q, a limit of a sum or a subscript
 MAX_INTEGER = 10**18
 #: largest bit size of a rational constant built by powers
@@ -897,6 +900,11 @@ class Evaluator:
             return term_a.truncate(target)
         w = max(w, den_order)
         one = Series.constant(1, ring)
+        # the splitting tree holds polynomials of total degree up to the sum of the
+        # binomials' exponents: far beyond the order (a sum of about N terms such as
+        # sum q^n/(q;q)_n) every node is a dense length-N product, and term-by-term stepping
+        # is cheaper
+        degree, budget = 0, SPLIT_DEGREE * w
         num: list[Series] = []
         den: list[Series] = []
         for i in range(1, len(ks)):
@@ -917,6 +925,9 @@ class Evaluator:
                                 return None
                             pn = pn * _rational_power(Fraction(1 - Fraction(c)), Fraction(times))
                             continue
+                        degree += x * abs(times)
+                        if degree > budget:
+                            return None
                         for _ in range(abs(times)):
                             if times > 0:
                                 pn = pn.mul_binomial(c, x, w)
