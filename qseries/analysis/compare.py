@@ -277,6 +277,12 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
         tries.append({v: 1 for v in names})
     t0 = time.perf_counter()
     say = progress or (lambda _text: None)
+    if method == "modular" and weights is None and names and _weights_needed(lnode, rnode, ring,
+                                                                            names):
+        # modulo p the variables are numbers, and a sum such as sum z^k (a;q)_k/(q;q)_k that
+        # has no Laurent coefficients at weight 0 may still look fine (or diverge); the
+        # weights are chosen as the exact method would choose them
+        tries = tries[1:]
     first_error: QSeriesError | None = None
     for w in tries:
         try:
@@ -290,6 +296,21 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
             say("retrying with the extra variables weighted (z -> z*q)")
     assert first_error is not None
     raise first_error
+
+
+#: the order of the exact trial that decides whether extra variables need weights
+WEIGHT_PROBE_ORDER = 12
+
+
+def _weights_needed(lnode: Node, rnode: Node, ring: Ring, names: tuple[str, ...]) -> bool:
+    """True when an exact evaluation at weight 0 fails for a reason weights can remove."""
+    lring = laurent_ring(names, rational=ring == QQ)
+    try:
+        for node in (lnode, rnode):
+            evaluate(node, WEIGHT_PROBE_ORDER, lring)
+    except QSeriesError as err:
+        return bool(getattr(err, "weights_may_help", False))
+    return False
 
 
 def _own(weights: dict[str, int] | None, node: Node) -> dict[str, int]:

@@ -42,11 +42,12 @@ def _json_exp(e: int | Fraction) -> int | str:
 
 
 def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
-    """Check one entry at its default order (or ``order``)."""
+    """Check one entry at its default order (or ``order``), by the method ``check`` picks
+    for that order (exact, or modulo primes at high order)."""
     n = order or entry.order
     t0 = time.perf_counter()
     try:
-        r = check(entry.left, entry.right, order=n, weights=entry.weight_map)
+        r = check(entry.left, entry.right, order=n, method="auto", weights=entry.weight_map)
     except QSeriesError as err:
         return EntryResult(entry.ident, False, False, 0, None, time.perf_counter() - t0,
                            str(err))

@@ -735,7 +735,9 @@ class Evaluator:
                 total = (term_a * ratio_sum).truncate(target).limit_precision(target)
                 return (total * const).truncate(order)
         total = Series.zero(self.ring, target)
-        states: list[Series | None] = [None] * len(stepping)
+        # the product of the stepping factors, one series advanced by every factor's
+        # binomials (one dense product per term would cost a multiplication each)
+        state: Series | None = None
         prev_k: int | None = None
         # terms c q^s (numerator binomials) / (1 - c' q^j)^p are sparse (Lambert series):
         # they are added into a list of coefficients, O(target/j) each, not as dense series
@@ -747,8 +749,14 @@ class Evaluator:
             need = target - _ceil(shifts[i])
             keep = target - _ceil(suffix_min[i])
             # advance the stepping products (ratio of consecutive terms: a few binomials)
-            for s_i, (f, p) in enumerate(stepping):
-                states[s_i] = self._step(f, p, states[s_i], prev_k, k, env, var, keep)
+            if stepping and state is None:
+                state = Series.constant(1, self.ring)
+                for f, p in stepping:
+                    first = self._step(f, p, None, None, k, env, var, keep)
+                    state = (state * first).truncate(max(keep, 0))
+            else:
+                for f, p in stepping:
+                    state = self._step(f, p, state, prev_k, k, env, var, keep)
             prev_k = k
             # no term is skipped on the strength of its q-power alone: another factor may
             # have a negative valuation (a regression test covers this)
@@ -767,10 +775,8 @@ class Evaluator:
                         sparse = [0] * target
                     _add_geometric(sparse, int(shifts[i]), *geo, self.ring.modulus)
                     continue
-            acc = Series.constant(1, self.ring)
-            for st in states:
-                assert st is not None
-                acc = (acc * st).truncate(need)
+            acc = (state.truncate(need) if state is not None
+                   else Series.constant(1, self.ring))
             if direct:
                 acc = self._apply(acc, direct, env_k, need)
             term = (acc * c).shift(shifts[i]) if shifts[i] else acc * c
@@ -973,6 +979,10 @@ class Evaluator:
         n_prev = self.integer(f.length, {**env, var: prev_k}, "a subscript")  # type: ignore[arg-type]
         t = self._base_step(f, env, keep)
         acc = state
+        # a factor 1 - a q^x changes the state from q^(x + v) on, v its valuation: with the
+        # other stepping factors in the state, v can be negative
+        vs = state.valuation
+        limit = keep - min(_floor(vs), 0) if vs is not None else keep
         lo, hi0 = sorted((n_prev, n_k))
         grow = n_k > n_prev
         skipped = False
@@ -982,8 +992,9 @@ class Evaluator:
             va = a.valuation
             hi = hi0
             if va is not None and va >= 0:
-                # factors 1 - a q^(tj) with val(a) + tj >= keep are 1 modulo q^keep
-                hi = min(hi, max(lo, -((va - keep) // t)))
+                # factors 1 - a q^(tj) with val(a) + tj + v >= keep leave the state alone
+                # modulo q^keep
+                hi = min(hi, max(lo, -((va - limit) // t)))
             skipped = skipped or hi < hi0 or (a.is_zero() and not a.is_exact)
             for j in range(lo, hi):
                 # (a;q^t)_{j+1} = (a;q^t)_j (1 - a q^(tj))

@@ -184,11 +184,18 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
                 break
             acc = acc.div_binomial(sign, t * i, order)
         return acc
-    if mono is not None and n is None and sign is not None and \
-            mono[1].denominator == 1 and mono[1] >= 1 and (order - mono[1]) // t >= EXP_FACTORS:
-        got = _euler_transform(sign, int(mono[1]), t, ring, order)
-        if got is not None:
-            return got
+    # modulo p any number c is a residue, and c^m modulo p stays small
+    c_exp = sign if sign is not None else (
+        int(mono[0]) % ring.modulus if mono is not None and ring == a.ring and
+        ring.modulus is not None and isinstance(mono[0], int) else None)
+    if mono is not None and n is None and c_exp is not None and mono[1].denominator == 1 and \
+            0 <= mono[1] and (order - mono[1]) // t >= EXP_FACTORS:
+        e0 = int(mono[1])
+        first = 1 - c_exp if e0 == 0 else 1        # the factor 1 - c q^0 is a number
+        if first != 0:
+            got = _euler_transform(c_exp, e0 or t, t, ring, order)
+            if got is not None:
+                return got * first if first != 1 else got
     acc = _one(a.ring)
     if n is None:
         va = a.valuation
@@ -252,28 +259,39 @@ def _sign(c: object, ring: Ring) -> int | None:
     return None
 
 
-def euler_log(c: int, a: int, t: int, order: int) -> list[int]:
-    """s[k] = k [q^k] log prod_{j>=0} (1 - c q^(a+tj)) for k < order, for c = +-1 and
-    a, t >= 1: log(1 - c q^x) = -sum_m c^m q^(mx)/m, so s[k] = -sum x c^(k/x) over the
-    divisors x of k with x = a (mod t), x >= a.
+def euler_log(c: int, a: int, t: int, order: int, modulus: int | None = None) -> list[int]:
+    """s[k] = k [q^k] log prod_{j>=0} (1 - c q^(a+tj)) for k < order and a, t >= 1:
+    log(1 - c q^x) = -sum_m c^m q^(mx)/m, so s[k] = -sum x c^(k/x) over the divisors x of k
+    with x = a (mod t), x >= a.  c is +-1, or any residue modulo ``modulus``.
 
     >>> euler_log(1, 1, 1, 7)      # -sigma(k): (q;q)_inf
     [0, -1, -3, -4, -7, -6, -12]
+    >>> euler_log(2, 1, 1, 4, modulus=101)      # (2q;q)_inf modulo 101
+    [0, -2, -8, -14]
     """
     s = [0] * max(order, 0)
+    powers: list[int] = []
+    if c not in (1, -1):
+        if modulus is None:
+            raise ValueError("euler_log needs c = +-1 or a modulus")
+        powers = [1] * max(order, 1)     # powers[m] = c^m modulo the modulus
+        for m in range(1, len(powers)):
+            powers[m] = powers[m - 1] * c % modulus
     for x in range(a, order, t):
         if c == 1:
             s[x::x] = [v - x for v in s[x::x]]
-        else:               # c^m = (-1)^m: + x for odd m, - x for even m
+        elif c == -1:       # c^m = (-1)^m: + x for odd m, - x for even m
             s[x::2 * x] = [v + x for v in s[x::2 * x]]
             s[2 * x::2 * x] = [v - x for v in s[2 * x::2 * x]]
+        else:
+            s[x::x] = [v - x * w for v, w in zip(s[x::x], powers[1:], strict=False)]
     return s
 
 
 def _euler_transform(c: int, a: int, t: int, ring: Ring, order: int) -> Series | None:
     """(c q^a; q^t)_inf modulo q^order as exp of its logarithm (None where the ring has no
     exponential: a prime not above the order, extra variables)."""
-    poly = ring.exp_integral(euler_log(c, a, t, order), order)
+    poly = ring.exp_integral(euler_log(c, a, t, order, ring.modulus), order)
     if poly is None:
         return None
     return Series(ring, poly, 0, 0, order)

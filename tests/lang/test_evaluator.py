@@ -235,3 +235,26 @@ def test_lambert_terms_added_sparsely_match_dense_terms(text):
         fast = Evaluator(ring).evaluate(parse(text), 250)
         slow = Evaluator(ring, stepping=False).evaluate(parse(text), 250)
         assert fast == slow, (text, ring)
+
+
+def test_stepping_factors_with_negative_exponents_in_one_product():
+    # regression: the stepping factors of a sum are advanced as one product; a factor
+    # 1 - q^x with x beyond the order may not be skipped when another factor has brought
+    # the product's valuation below 0 (wrong coefficients near q^-230 before the fix).
+    # Reference: sympy, with (q^-N;q)_n/(q;q)_n = (-1)^n q^(n(n-1)/2 - Nn) [N, n]_q.
+    import sympy
+    q = sympy.symbols("q")
+    n_top = 30
+    text = f"sum_{{n=0}}^{{{n_top}}} (-1)^n q^(n(n-1)/2) (q^-{n_top};q)_n/(q;q)_n"
+    got = evaluate(text, 40)
+    expected: dict[int, int] = {}
+    for n in range(n_top + 1):
+        num = sympy.prod([1 - q ** (n_top - i) for i in range(n)])
+        den = sympy.prod([1 - q ** (i + 1) for i in range(n)])
+        for (e,), c in sympy.Poly(sympy.cancel(num / den), q).terms():
+            k = e + n * (n - 1) - n_top * n
+            expected[k] = expected.get(k, 0) + int(c)
+    low = min(expected)
+    assert got.valuation == low
+    for e in range(low, 40):
+        assert got.coefficient(e) == expected.get(e, 0), e

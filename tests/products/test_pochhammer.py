@@ -97,3 +97,16 @@ def test_minus_one_modulo_p_takes_the_fast_paths(monkeypatch):
         exact = pochhammer(Series.monomial(1, ZZ, -1), t, None, 3000)
         assert fast.coefficient_list(3000) == [c % p for c in exact.coefficient_list(3000)]
     assert calls == []
+
+
+@pytest.mark.parametrize("c, e, t", [(3, 1, 1), (5, 0, 1), (2**40 + 3, 2, 3), (7, 0, 2)])
+def test_any_parameter_modulo_p_through_the_logarithm(c, e, t):
+    # modulo p a parameter c q^e with any number c (a random value of an extra variable in
+    # the modular method) goes through exp(log) too; e = 0 contributes the number 1 - c
+    p, n = 2**61 - 1, 300
+    ring = GF(p)
+    acc = Series.constant(1, ring)
+    for x in range(e, n, t):
+        acc = acc.mul_binomial(c, x, n) if x else acc * (1 - c)
+    fast = pochhammer(Series.monomial(e, c=c, ring=ring), t, None, n)
+    assert fast == acc.truncate(n)
