@@ -153,3 +153,25 @@ def test_modular_method_takes_huge_powers_of_a_variable_modulo_p():
         r = check("z^(10^6) q", "q", 5, method=method, seed=2)
         assert not r.holds and r.first_mismatch.exponent == 1
     assert check("z^(10^6) z^-1000000", "1", 5, method="modular", seed=2).holds
+
+
+def test_modular_method_weights_variables_as_the_exact_method_does():
+    # regression: (z;q)_inf/(z;q)_inf has the coefficient (1-z)/(1-z) at weight 0, which the
+    # exact method refuses (it then weights z), while modulo primes z is a number and the
+    # quotient was accepted at weight 0: the two methods now choose the same weights
+    exact = check("(z;q)_inf/(z;q)_inf", "1", order=60)
+    modular = check("(z;q)_inf/(z;q)_inf", "1", order=60, method="modular", seed=4)
+    assert exact.holds and modular.holds
+    assert modular.weights == exact.weights == (1,)
+    # and the q-binomial theorem (Andrews 1976, Thm. 2.1) still goes through, weighted
+    lhs, rhs = "sum_{k>=0} (a;q)_k z^k/(q;q)_k", "(a z;q)_inf/(z;q)_inf"
+    r = check(lhs, rhs, order=60, method="modular", seed=4)
+    assert r.holds and r.weights == (1, 1)
+
+
+def test_verify_picks_the_modular_method_at_high_order():
+    from qseries.catalogue.files import load_entries
+    from qseries.catalogue.verify import verify_entry
+    entry = next(e for e in load_entries(["identities"]) if e.ident == "heine-first")
+    result = verify_entry(entry, order=700)      # above 400: modular, weights 1
+    assert result.ok and result.order == 700, result.error
