@@ -351,10 +351,11 @@ def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[st
         left, right = ev_l.evaluate_parts(lnode, order), ev_r.evaluate_parts(rnode, order)
         # a side of negative valuation times the other side's denominator (known modulo
         # q^order) would be known to less than the order: that side is divided out instead
+        # (its numerator has valuation >= 0, so the quotient is known modulo q^order)
         if _below_one(left[0]) and right[1] is not None:
-            right = (ev_r.evaluate(rnode, order), None)
+            right = (Evaluator.quotient(*right, order), None)
         if _below_one(right[0]) and left[1] is not None:
-            left = (ev_l.evaluate(lnode, order), None)
+            left = (Evaluator.quotient(*left, order), None)
         return left, right
     except DomainError as err:
         again = DomainError(f"{err} (modulo the prime {p}; try --method exact)")

@@ -392,7 +392,7 @@ class Evaluator:
         factors are computed only to the order they matter), then series, binomials
         1 - c q^j by the O(N) fast paths, and one inversion for the other denominators."""
         got = self._chain_parts(factors, env, order)
-        return self._divided(*got, order) if isinstance(got, tuple) else got
+        return self.quotient(*got, order) if isinstance(got, tuple) else got
 
     def _chain_parts(self, factors: list[tuple[Node, int]], env: dict[str, int],
                      order: int) -> Value | Parts:
@@ -482,12 +482,12 @@ class Evaluator:
     def _apply(self, acc: Series, factors: list[tuple[Node, int]], env: dict[str, int],
                order: int) -> Series:
         """acc * prod node^power modulo q^order."""
-        return self._divided(*self._apply_parts(acc, factors, env, order), order)
+        return self.quotient(*self._apply_parts(acc, factors, env, order), order)
 
     def _apply_parts(self, acc: Series, factors: list[tuple[Node, int]], env: dict[str, int],
                      order: int) -> Parts:
         """acc * prod node^power modulo q^order as a numerator and the product of the
-        denominators (None when there are none), which ``_divided`` inverts once."""
+        denominators (None when there are none), which ``quotient`` inverts once."""
         dens: list[Series] = []
         binoms: list[tuple[Fraction | int, int, int]] = []
         paired, factors = self._paired_products(factors, env, order)
@@ -532,8 +532,13 @@ class Evaluator:
         return acc.truncate(order), den
 
     @staticmethod
-    def _divided(num: Series, den: Series | None, order: int) -> Series:
-        """num / den modulo q^order (den None: num)."""
+    def quotient(num: Series, den: Series | None, order: int) -> Series:
+        """num / den modulo q^order (den None: num), as from ``evaluate_parts``.
+
+        >>> ev = Evaluator(ZZ)
+        >>> Evaluator.quotient(*ev.evaluate_parts(parse("1/(q;q)_inf"), 6), 6)
+        1 + q + 2q^2 + 3q^3 + 5q^4 + 7q^5 + O(q^6)
+        """
         if den is None:
             return num.truncate(order)
         va = num.valuation
