@@ -246,3 +246,44 @@ def test_negative_power_of_a_monomial_with_a_coefficient():
     from qseries.series import laurent_ring
     z = laurent_ring(("z",)).gen("z")
     assert evaluate("(2*z)^-1", 2).coefficient(0) == z**-1 * Fraction(1, 2)
+
+
+# -- issue 11 §1: a cut-off range leaves the result known only to the order ------------------
+@pytest.mark.parametrize("text, order", [
+    ("prod_{n>=4} (1-q^n)", 5),
+    ("sum_{k>=10} q^k", 5),
+    ("sum_{k=10}^{1000} q^k", 5),
+    ("sum_{k>=3} q^(k^2)/(q;q)_k", 5),
+    ("prod_{n=4}^{1000} (1-q^n)", 5),
+    ("sum_{k=0}^{300} q^(k+10)", 5),
+])
+def test_a_cut_off_range_is_not_exact(text, order):
+    s = evaluate(text, order)
+    assert not s.is_exact
+    assert s.precision == order
+
+
+def test_dividing_a_cut_off_sum_recomputes_it():
+    # below q^14 the sum is q^9/(q;q)_3 = q^9 (1 + q + 2q^2 + 3q^3 + 4q^4 + ...) (partitions
+    # into parts at most 3, counted by hand); divided by q^9 (1 - q) the partial sums remain
+    s = evaluate("(sum_{k>=3} q^(k^2)/(q;q)_k)/(q^9 - q^10)", 5)
+    assert s.coefficient_list(5) == [1, 2, 4, 7, 11]
+    assert not check("(sum_{k>=3} q^(k^2)/(q;q)_k)/(q^9 - q^10)", "0", order=5).holds
+    assert not check("(sum_{k>=3} q^(k^2)/(q;q)_k)/(q^9 - q^10)", "0", order=5,
+                     method="modular").holds
+    s = evaluate("(sum_{k=10}^{1000} q^k)/(q^9-q^10)", 5)
+    # q^10 (1 - q^991)/(1-q) / (q^9 (1-q)) = q/(1-q)^2 + O(q^5) = q + 2q^2 + 3q^3 + 4q^4
+    assert s.coefficient_list(5) == [0, 1, 2, 3, 4]
+
+
+def test_dividing_a_cut_off_product_recomputes_it():
+    # prod_{n>=4} (1-q^n) = 1 - q^4 - q^5 - q^6 - q^7 + ... (Euler's product without its
+    # first three factors: the coefficients of (q;q)_inf/((1-q)(1-q^2)(1-q^3)) by hand),
+    # divided by q^3 (1 - q): q^-3 (1 + q + q^2 + q^3 + 0 q^4 - q^5 - ...)
+    s = evaluate("(prod_{n>=4} (1-q^n))/(q^3 - q^4)", 5)
+    assert [s.coefficient(e) for e in range(-3, 5)] == [1, 1, 1, 1, 0, -1, -2, -3]
+    for method in ("exact", "modular"):
+        assert not check("(prod_{n>=4} (1-q^n))/(q^3 - q^4)", "q^-3 + q^-2 + q^-1 + 1",
+                         order=5, method=method).holds
+        assert check("(prod_{n>=4} (1-q^n))/(q^3 - q^4)", "(q^4;q)_inf/(q^3 - q^4)",
+                     order=5, method=method).holds

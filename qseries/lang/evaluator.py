@@ -547,36 +547,40 @@ class Evaluator:
 
     # -- sums and products ------------------------------------------------------------------
     def _range(self, node: BigOp, env: dict[str, int], order: int,
-               deviation: bool) -> list[int]:
-        """The values of the bound variable whose terms can matter modulo q^order: infinite
-        directions (and finite ones longer than SPLIT_RANGE) end where the valuation analysis
-        shows that every further term vanishes modulo q^order."""
+               deviation: bool) -> tuple[list[int], bool]:
+        """The values of the bound variable whose terms can matter modulo q^order, and
+        whether terms were left out: infinite directions (and finite ones longer than
+        SPLIT_RANGE) end where the valuation analysis shows that every further term (factor
+        minus 1) vanishes modulo q^order.  A result computed from a cut range is known only
+        modulo q^order, however short it is: the caller must not mark it exact."""
         lo = None if node.lower is None else self.integer(node.lower, env, "a lower limit")
         hi = None if node.upper is None else self.integer(node.upper, env, "an upper limit")
         if lo is not None and hi is not None:
             if hi < lo:
-                return []
+                return [], False
             if hi - lo + 1 <= SPLIT_RANGE:
-                return list(range(lo, hi + 1))
+                return list(range(lo, hi + 1)), False
             try:
                 return self._cut_range(node, env, order, deviation, lo, hi)
             except (UnableError, DomainError) as why:
                 # a finite range: terms that do not shrink are no error, just no shortcut
                 if hi - lo + 1 <= FALLBACK_RANGE:
-                    return list(range(lo, hi + 1))
+                    return list(range(lo, hi + 1)), False
                 raise UnableError(f"{_label(node)} has {hi - lo + 1} terms, more than "
                                   f"{FALLBACK_RANGE} that can be evaluated one by one, and the "
                                   f"valuation analysis cannot cut the range: {why}") from None
         return self._cut_range(node, env, order, deviation, lo, hi)
 
     def _cut_range(self, node: BigOp, env: dict[str, int], order: int, deviation: bool,
-                   lo: int | None, hi: int | None) -> list[int]:
+                   lo: int | None, hi: int | None) -> tuple[list[int], bool]:
         pieces: list[tuple[int, int]] = []      # inclusive ranges, in increasing order
+        cut = False                             # whether a term that may be nonzero is left out
         if lo is None or lo < 0:                # the part k <= -1, as m = -k >= 1
             top = -1 if hi is None else min(hi, -1)
             if lo is None or top - lo + 1 > SPLIT_RANGE:
-                stop_m = self._cutoff(node, env, order, -1, -top, deviation)
+                stop_m, ones = self._cutoff(node, env, order, -1, -top, deviation)
                 first = -(stop_m - 1) if lo is None else max(lo, -(stop_m - 1))
+                cut = cut or (not ones and (lo is None or first > lo))
             else:
                 first = lo
             if first <= top:
@@ -584,8 +588,9 @@ class Evaluator:
         if hi is None or hi >= 0:               # the part k >= 0
             start = 0 if lo is None else max(lo, 0)
             if hi is None or hi - start + 1 > SPLIT_RANGE:
-                stop = self._cutoff(node, env, order, +1, start, deviation)
+                stop, ones = self._cutoff(node, env, order, +1, start, deviation)
                 last = stop - 1 if hi is None else min(hi, stop - 1)
+                cut = cut or (not ones and (hi is None or last < hi))
             else:
                 last = hi
             if start <= last:
@@ -594,11 +599,12 @@ class Evaluator:
         if count > MAX_TERMS:
             raise UnableError(f"{_label(node)} needs {count} terms at this order; the limit "
                               f"is {MAX_TERMS}")
-        return [k for a, b in pieces for k in range(a, b + 1)]
+        return [k for a, b in pieces for k in range(a, b + 1)], cut
 
     def _cutoff(self, node: BigOp, env: dict[str, int], order: int, sign: int, start: int,
-                deviation: bool) -> int:
-        """First m >= start (k = sign*m) from which every term has valuation >= order."""
+                deviation: bool) -> tuple[int, bool]:
+        """First m >= start (k = sign*m) from which every term has valuation >= order, and
+        whether the terms (factors) from there on are exactly 0 (exactly 1), not just small."""
         label = _label(node)
         what = "factor minus 1" if deviation else "term"
         var = node.var
@@ -608,7 +614,7 @@ class Evaluator:
             else:
                 b = self.bounds.lower(node.body, var, {var: sign}, env, order)
             if b is None:  # every factor is exactly 1
-                return start
+                return start, True
             poly = sym.m_to_uni(b.poly, var)
             if poly is None:
                 raise NoBound("the bound involves the variables of inner sums")
@@ -633,7 +639,7 @@ class Evaluator:
                 f"of its {var}-th {what} is only known to be at least "
                 f"{_poly_text(poly, var, sign)}"))
         m = sym.eventually_at_least(poly, order, max(start, b.start, 0))
-        return max(m, start)
+        return max(m, start), False
 
     def _numbers(self, node: BigOp, env: dict[str, int]) -> Fraction:
         """A sum or product of numbers over a finite range."""
@@ -654,8 +660,8 @@ class Evaluator:
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):
             return self._numbers(node, env)
-        ks = self._range(node, env, order, deviation=False)
-        return self._sum_terms(node, ks, env, order)
+        ks, cut = self._range(node, env, order, deviation=False)
+        return self._sum_terms(node, ks, env, order, cut=cut)
 
     def _count_terms(self, node: BigOp, n: int) -> None:
         self._terms += n
@@ -674,17 +680,27 @@ class Evaluator:
         key = ("parts", id(node), order)
         hit = self._cache.get(key) if closed else None
         if hit is None:
-            ks = self._range(node, env, order, deviation=False)
-            got = self._sum_terms(node, ks, env, order, parts=True)
+            ks, cut = self._range(node, env, order, deviation=False)
+            got = self._sum_terms(node, ks, env, order, parts=True, cut=cut)
             hit = got if isinstance(got, tuple) else (got, None)
             if closed:
                 self._cache[key] = hit
         return hit
 
     def _sum_terms(self, node: BigOp, ks: list[int], env: dict[str, int], order: int,
-                   parts: bool = False) -> Series | tuple[Series, Series]:
+                   parts: bool = False, cut: bool = False) -> Series | tuple[Series, Series]:
         """The sum over ``ks``; with ``parts``, as (numerator, denominator) where binary
-        splitting applies."""
+        splitting applies.  ``cut``: terms of valuation >= order were left out, so the sum
+        is known modulo q^order only (the numerator likewise: the denominator is a unit)."""
+        got = self._sum_known_terms(node, ks, env, order, parts)
+        if not cut:
+            return got
+        if isinstance(got, tuple):
+            return got[0].limit_precision(order), got[1]
+        return got.limit_precision(order)
+
+    def _sum_known_terms(self, node: BigOp, ks: list[int], env: dict[str, int], order: int,
+                         parts: bool) -> Series | tuple[Series, Series]:
         var = node.var
         self._count_terms(node, len(ks))
         if not ks:
@@ -751,7 +767,10 @@ class Evaluator:
                      and bool(direct))
         for i, k in enumerate(ks):
             env_k = {**env, var: k}
-            need = target - _ceil(shifts[i])
+            # factors are computed to at least q^1 even when the q-power puts the term beyond
+            # the order: modulo q^0 or below a factor would lose its valuation (O(q^-3)
+            # times O(q^-3) is O(q^-6)), and the sum all its precision
+            need = max(target - _ceil(shifts[i]), 1)
             keep = target - _ceil(suffix_min[i])
             # advance the stepping products (ratio of consecutive terms: a few binomials)
             if stepping and state is None:
@@ -1011,7 +1030,7 @@ class Evaluator:
     def _prod(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):
             return self._numbers(node, env)
-        ks = self._range(node, env, order, deviation=True)
+        ks, cut = self._range(node, env, order, deviation=True)
         self._count_terms(node, len(ks))
         sign, factors = _signed_factors(node.body)
         acc = Series.constant(1, self.ring)
@@ -1019,20 +1038,13 @@ class Evaluator:
             acc = self._apply(acc, factors, {**env, node.var: k}, order)
             if sign < 0:
                 acc = -acc
-        v = acc.valuation
-        if v is not None and v < 0 and self._range_was_cut(node, env, ks):
-            # the factors left out are 1 + O(q^order); times a product of valuation v < 0
-            # they leave it exact only below q^(order + v): say so (the caller raises the
-            # working order and tries again)
-            acc = acc.truncate(order + _floor(v))
+        if cut:
+            # the factors left out are 1 + O(q^order); times a product of valuation v they
+            # leave it known only below q^(order + v), and never exact (for v < 0 the caller
+            # raises the working order and tries again)
+            v = acc.valuation
+            acc = acc.limit_precision(order + min(_floor(v), 0) if v is not None else order)
         return acc
-
-    def _range_was_cut(self, node: BigOp, env: dict[str, int], ks: list[int]) -> bool:
-        if node.lower is None or node.upper is None:
-            return True
-        lo = self.integer(node.lower, env, "a lower limit")
-        hi = self.integer(node.upper, env, "an upper limit")
-        return len(ks) < hi - lo + 1
 
 
 # -- module helpers ---------------------------------------------------------------------------

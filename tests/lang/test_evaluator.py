@@ -258,3 +258,16 @@ def test_stepping_factors_with_negative_exponents_in_one_product():
     assert got.valuation == low
     for e in range(low, 40):
         assert got.coefficient(e) == expected.get(e, 0), e
+
+
+def test_double_sum_with_a_factor_in_both_indices_keeps_its_precision():
+    # issue 12: the inner sum's far terms were computed modulo q^(negative order), which
+    # lost their valuation and with it the whole sum's precision (O(q^-6) at order 10).
+    # The double sum factors as a product of single sums by the distributive law.
+    double = "sum_{i>=0} sum_{j>=0} q^(i^2+j^2) (1+q^(i+j+1))/((q;q)_i (q;q)_j)"
+    factored = "(sum_{i>=0} q^(i^2)/(q;q)_i)^2 + q (sum_{i>=0} q^(i^2+i)/(q;q)_i)^2"
+    for order in (10, 100):
+        a = evaluate(double, order)
+        assert a.precision == order
+        assert a == evaluate(factored, order)
+    assert Evaluator(ZZ).value(parse(double), {}, 10).precision == 10
