@@ -287,3 +287,29 @@ def test_dividing_a_cut_off_product_recomputes_it():
                          order=5, method=method).holds
         assert check("(prod_{n>=4} (1-q^n))/(q^3 - q^4)", "(q^4;q)_inf/(q^3 - q^4)",
                      order=5, method=method).holds
+
+
+# -- issue 11 §6: valid input that was refused -------------------------------------------------
+def test_negative_subscript_to_a_negative_power_against_sympy():
+    import sympy as sp
+    x = sp.symbols("x")
+    # (q^3;q^5)_(-2) = 1/((1 - q^-7)(1 - q^-2)) by (a;q)_n = 1/(a q^n;q)_(-n)
+    expected = sp.expand(((1 - x**-7) * (1 - x**-2))**2 * (1 - x) * (1 - x**2) * (1 - x**3)
+                         * (1 - x**4))
+    s = evaluate("(q^3;q^5)_(-2)^(-2) (q;q)_4", 5)
+    assert [s.coefficient(e) for e in range(-18, 5)] == \
+        [expected.coeff(x, e) for e in range(-18, 5)]
+
+
+def test_sums_whose_terms_all_lie_beyond_the_order():
+    # every term has valuation 2j^2 - j >= 6: the sum is O(q^5), not a division error
+    s = evaluate("sum_{j=2}^{9} q^(2j^2-j)/(q;q)_j^2", 5)
+    assert s.is_zero() and s.precision == 5
+
+
+def test_reciprocal_of_a_pochhammer_with_negative_subscript_is_zero():
+    # 1/(q;q)_m = (q^(m+1);q)_(-m) = 0 for m < 0 (the convention stated in the README);
+    # by hand: m = 0 gives 1, m = 1 q^2/(1-q)^2, m = 2 q^4/((1-q)(1-q^2))^2
+    assert evaluate("1/(q;q)_(-1)", 5).is_zero()
+    assert evaluate("sum_{m=-2}^{8} q^(2m)/(q;q)_m^2", 5).coefficient_list(5) == [1, 0, 1, 2, 4]
+    assert evaluate("sum_{m=-2}^{8} q^(2m)/(q;q)_m", 5).coefficient_list(5) == [1, 0, 1, 1, 2]

@@ -374,6 +374,36 @@ class Evaluator:
     def _param(self, node: Node, env: dict[str, int], order: int) -> Series:
         return self._exact_monomial(node, env) or self._as_series(self.value(node, env, order))
 
+    def _reciprocal_poch(self, node: Poch, env: dict[str, int], order: int) -> Series | None:
+        """1/(a, b, ...;q^t)_n for n < 0 as the product (a q^(tn), b q^(tn), ...;q^t)_(-n)
+        modulo q^order, with no inversion (so 1/(q;q)_(-1) = (1;q)_1 = 0); None when n is
+        infinite or not negative.
+
+        >>> Evaluator(ZZ)._reciprocal_poch(parse("(q^3;q^5)_(-2)"), {}, 3)
+        q^-9 - q^-7 - q^-2 + 1
+        """
+        if node.length is None:
+            return None
+        n = self.integer(node.length, env, "the subscript of (a;q)_n")
+        if n >= 0:
+            return None
+        t = self._base_step(node, env, order)
+        acc: Series | None = None
+        for prm in node.params:
+            a = self._param(prm, env, order).shift(t * n)
+            f = pochhammer(a, t, -n, order)
+            acc = f if acc is None else (acc * f).truncate(order)
+        assert acc is not None
+        return acc
+
+    def _poch_power(self, node: Poch, p: int, env: dict[str, int], order: int) -> Series:
+        """(a;q^t)_n^p modulo q^order; negative powers with n < 0 without inversion."""
+        recip = self._reciprocal_poch(node, env, order) if p < 0 else None
+        if recip is not None:
+            return recip if p == -1 else recip.power(-p, order)
+        v = self._as_series(self.value(node, env, order))
+        return v.power(p, order) if p != 1 else v.truncate(order)
+
     def _poch(self, node: Poch, env: dict[str, int], order: int) -> Series:
         t = self._base_step(node, env, order)
         n = None if node.length is None else self.integer(node.length, env,
@@ -503,6 +533,11 @@ class Evaluator:
                     if got[1] is not None:
                         dens.append(got[1])
                     continue
+            if p < 0 and isinstance(node, Poch):
+                recip = self._reciprocal_poch(node, env, order)
+                if recip is not None:       # 1/(a;q)_n with n < 0 is a numerator
+                    acc = (acc * (recip if p == -1 else recip.power(-p, order))).truncate(order)
+                    continue
             v = self._divisor(node, env, order) if p < 0 else self.value(node, env, order)
             if not isinstance(v, Series):
                 if p < 0 and v == 0:
@@ -515,7 +550,9 @@ class Evaluator:
             elif p > 0:
                 acc = (acc * (v if p == 1 else v.power(p, order))).truncate(order)
             else:
-                dens.append(v if p == -1 else v.power(-p, order))
+                # known beyond the order by its valuation, as the divisors below
+                vd = max(_floor(v.valuation), 0) if v.valuation is not None else 0
+                dens.append(v if p == -1 else v.power(-p, order + vd * (-p - 1)))
         for c, j, p in binoms:
             for _ in range(abs(p)):
                 acc = (acc.mul_binomial(c, j, order) if p > 0
@@ -916,7 +953,7 @@ class Evaluator:
             ns = [self.integer(f.length, {**env, var: k}, "a subscript")  # type: ignore[arg-type]
                   for k in ks]
             steps.append((t, params, p, ns))
-        width = target - _ceil(shifts[0])
+        width = max(target - _ceil(shifts[0]), 1)
         ring = self.ring
         first = Series.constant(1, ring)
         for f, p in stepping:
@@ -995,11 +1032,12 @@ class Evaluator:
               env: dict[str, int], var: str, keep: int) -> Series:
         """(params; q^t)_{n(k)}^p from its value at prev_k by multiplying the binomials
         between n(prev_k) and n(k); computed directly the first time."""
-        keep = max(keep, 0)
+        keep = max(keep, 1)     # modulo q^0 the first value could not be inverted
         n_k = self.integer(f.length, {**env, var: k}, "a subscript")  # type: ignore[arg-type]
-        if state is None or prev_k is None:
-            v = self._as_series(self.value(f, {**env, var: k}, keep))
-            return v.power(p, keep) if p != 1 else v.truncate(keep)
+        if state is None or prev_k is None or (state.is_zero() and state.is_exact):
+            # an exactly zero state (a factor 1 - 1 of 1/(q;q)_n, n < 0) cannot be stepped
+            # on by division: start again from the value at k
+            return self._poch_power(f, p, {**env, var: k}, keep)
         n_prev = self.integer(f.length, {**env, var: prev_k}, "a subscript")  # type: ignore[arg-type]
         t = self._base_step(f, env, keep)
         acc = state
@@ -1240,8 +1278,12 @@ def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
     >>> evaluate("(z*q;q)_inf", 4)
     1 - z*q - z*q^2 + (z^2 - z)*q^3 + O(q^4)
     """
-    if isinstance(order, bool) or not isinstance(order, int) or order < 0:
-        raise QSeriesError(f"the order must be a non-negative integer, not {order!r}")
+    from ..errors import integer_argument, typed_argument  # checks at the public surface
+
+    typed_argument("expr", expr, (str, Node), "a string or a syntax tree from qseries.parse")
+    integer_argument("order", order, 0)
+    if ring is not None:
+        typed_argument("ring", ring, Ring, "a coefficient ring such as qseries.ZZ or GF(p)")
     node = parse(expr) if isinstance(expr, str) else expr
     names = extra_variables(node)
     check_weights(weights, names)
@@ -1253,15 +1295,19 @@ def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
 def check_weights(weights: dict[str, int] | None, names: frozenset[str] | set[str]) -> None:
     """Refuse weights that are not non-negative integers of extra variables in ``names``.
 
-    >>> check_weights({"z": -1}, {"z"})
+    >>> check_weights({"z": -1}, {"z"})  # doctest: +ELLIPSIS
     Traceback (most recent call last):
     ...
-    qseries.errors.QSeriesError: the weight of 'z' must be a non-negative integer, not -1
+    qseries.errors.ArgumentError: the weight of 'z' must be an integer between 0 and ..., not -1
     """
-    for name, w in (weights or {}).items():
+    from ..errors import ArgumentError, integer_argument, typed_argument
+
+    if weights is None:
+        return
+    typed_argument("weights", weights, dict, "a dict from variable names to integers")
+    for name, w in weights.items():
+        typed_argument("a weight's variable", name, str, "a string (such as 'z')")
         if name not in names:
-            raise QSeriesError(f"a weight is given for {name!r}, which is not an extra "
-                               f"variable of the expression")
-        if isinstance(w, bool) or not isinstance(w, int) or w < 0 or w > MAX_INTEGER:
-            raise QSeriesError(f"the weight of {name!r} must be a non-negative integer, "
-                               f"not {w!r}")
+            raise ArgumentError(f"a weight is given for {name!r}, which is not an extra "
+                                f"variable of the expression")
+        integer_argument(f"the weight of {name!r}", w, 0, MAX_INTEGER)
