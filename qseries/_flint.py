@@ -50,6 +50,17 @@ def partitions_p(n: int) -> int:
     return int(flint.fmpz(n).partitions_p())
 
 
+
+def _fraction(c: Any) -> Fraction:
+    """An fmpq as a Fraction without reducing it again (FLINT keeps it in lowest terms; a
+    gcd of two million-bit integers costs most of a second)."""
+    num, den = int(c.p), int(c.q)
+    if den == 1:
+        return Fraction(num)
+    f = Fraction.__new__(Fraction)
+    f._numerator, f._denominator = num, den      # type: ignore[attr-defined]
+    return f
+
 class Ring:
     """Operations on dense truncated polynomials over one coefficient ring.
 
@@ -252,7 +263,7 @@ def _py_coeffs(p: Any) -> list[Number]:
     out: list[Number] = []
     for c in p.coeffs():
         if isinstance(c, flint.fmpq):
-            out.append(Fraction(int(c.p), int(c.q)))
+            out.append(_fraction(c))
         else:
             out.append(int(c))
     return out
@@ -296,7 +307,7 @@ class _RationalRing(Ring):
         return flint.fmpq(int(c))
 
     def to_number(self, c: Any) -> Number:
-        f = Fraction(int(c.p), int(c.q))
+        f = _fraction(c)
         return f.numerator if f.denominator == 1 else f
 
     def convert(self, p: Any) -> Any:
@@ -412,6 +423,9 @@ class _ModularRing(Ring):
 #: most terms a polynomial with coefficients in extra variables may have (about 100 bytes a
 #: term before the integers themselves); beyond it the modular method is the way
 MAX_LAURENT_TERMS = 3_000_000
+#: most extra variables exact Laurent coefficients may have (each is a generator of FLINT's
+#: multivariate polynomials, and every operation touches all of them)
+MAX_VARIABLES = 100
 #: longest time (seconds) one evaluation may spend on such polynomials (their size grows
 #: fast with the order); checked only inside ``laurent_budget``
 LAURENT_SECONDS = 60.0
@@ -601,7 +615,7 @@ class LaurentPoly:
 
 def _number(c: Any) -> Number:
     if isinstance(c, flint.fmpq):
-        f = Fraction(int(c.p), int(c.q))
+        f = _fraction(c)
         return f.numerator if f.denominator == 1 else f
     return int(c)
 
@@ -910,6 +924,9 @@ def laurent_ring(names: tuple[str, ...], rational: bool = False) -> Ring:
     if ring is None:
         if not names or len(set(names)) != len(names) or "q" in names:
             raise DomainError(f"bad names for extra variables: {names!r}")
+        if len(names) > MAX_VARIABLES:
+            raise UnableError(f"{len(names)} extra variables; at most {MAX_VARIABLES} are "
+                              f"supported")
         ring = _LaurentRing(tuple(names), rational)
         _LAURENT[key] = ring
     return ring

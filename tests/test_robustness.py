@@ -8,7 +8,7 @@ from fractions import Fraction
 import pytest
 
 from qseries import check, evaluate
-from qseries.errors import QSeriesError
+from qseries.errors import QSeriesError, UnableError
 
 
 @pytest.mark.parametrize("text", [
@@ -313,3 +313,40 @@ def test_reciprocal_of_a_pochhammer_with_negative_subscript_is_zero():
     assert evaluate("1/(q;q)_(-1)", 5).is_zero()
     assert evaluate("sum_{m=-2}^{8} q^(2m)/(q;q)_m^2", 5).coefficient_list(5) == [1, 0, 1, 2, 4]
     assert evaluate("sum_{m=-2}^{8} q^(2m)/(q;q)_m", 5).coefficient_list(5) == [1, 0, 1, 1, 2]
+
+
+# -- issue 11 §3: one-line inputs that hung; each is answered or refused at once --------------
+@pytest.mark.parametrize("text", [
+    "sum_{n>=0} q^(n^2+2^64 n)", "sum_{n>=0} q^(n^2+(10^18+1) n)",
+    "sum_{n>=0} q^(n^2+10^20 n)",
+])
+def test_huge_linear_coefficients_in_exponents(text):
+    # the valuation analysis found the cut-off by walking down from a root bound near 2^63;
+    # every term but the first lies beyond the order
+    s = evaluate(text, 30)
+    assert s.coefficient_list(30) == [1] + [0] * 29 and s.precision == 30
+
+
+@pytest.mark.parametrize("text", [
+    "sum_{k=1}^{10^6} (1/k)", "prod_{k=1}^{10^6} 2", "prod_{k=1}^{10^6} (k/(k+1))",
+    "(3/2)^(10^6)", "prod_{k=1}^{20000} 2",
+    " + ".join(f"x{i}" for i in range(2000)),
+])
+def test_numbers_and_variables_beyond_the_limits_are_refused(text):
+    with pytest.raises(UnableError):
+        evaluate(text, 3)
+
+
+def test_numbers_within_the_limits():
+    # telescoping, and the 10th harmonic number 7381/2520 (from its definition)
+    assert evaluate("prod_{k=1}^{10000} (k/(k+1))", 1).coefficient(0) == Fraction(1, 10001)
+    assert evaluate("sum_{k=1}^{10} (1/k)", 1).coefficient(0) == Fraction(7381, 2520)
+
+
+def test_a_sum_of_monomials_with_a_deep_negative_valuation():
+    # sum_{k>=0} q^(k^2 - 1000k): the terms k and 1000 - k coincide, k = 500 is the lowest
+    s = evaluate("sum_{k>=0} q^(k^2-1000k)", 30)
+    assert s.valuation == -250000
+    assert s.coefficient(-250000) == 1 and s.coefficient(-249999) == 2
+    assert s.coefficient(0) == 2 and s.precision == 30     # k = 0 and k = 1000
+    assert not check("sum_{k>=0} q^(k^2-1000k)", "q", order=30).holds

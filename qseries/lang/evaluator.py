@@ -21,7 +21,7 @@ from typing import Any
 from .._flint import laurent_budget
 from ..errors import DomainError, QSeriesError, UnableError, weight_may_help
 from ..products import FUNCTIONS, monomial_parts, pochhammer, theta_pair_parts
-from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
+from ..series import MAX_LENGTH, QQ, ZZ, LaurentPoly, Ring, Series, laurent_ring
 from ..series.formatting import short_number_text
 from . import symbolic as sym
 from .ast import (
@@ -64,8 +64,13 @@ FALLBACK_RANGE = 20_000
 SPLIT_DEGREE = 8
 #: largest integer accepted as an exponent of q, a limit of a sum or a subscript
 MAX_INTEGER = 10**18
-#: largest bit size of a rational constant built by powers
-MAX_BITS = 4_000_000
+#: largest bit size of a rational constant built by powers, sums or products of numbers
+#: (about 30,000 digits)
+MAX_BITS = 100_000
+#: most terms a sum or product of numbers alone may have (each is a walk of its body), and
+#: most bit operations its running value may cost (sum of its sizes over the terms)
+MAX_NUMBER_TERMS = 20_000
+MAX_NUMBER_WORK = 200_000_000
 
 
 def _int_value(v: Fraction, what: str) -> int:
@@ -686,12 +691,19 @@ class Evaluator:
                               f"meaning as a formal power series")
         lo = self.integer(node.lower, env, "a lower limit")
         hi = self.integer(node.upper, env, "an upper limit")
-        if hi - lo + 1 > MAX_TERMS:
-            raise UnableError(f"{_label(node)} has too many terms")
+        if hi - lo + 1 > MAX_NUMBER_TERMS:
+            raise UnableError(f"{_label(node)} has {hi - lo + 1} terms; a sum or product of "
+                              f"numbers may have at most {MAX_NUMBER_TERMS}")
         total = Fraction(0 if node.kind == "sum" else 1)
+        work = 0
         for k in range(lo, hi + 1):
             v = self.scalar(node.body, {**env, node.var: k})
             total = total + v if node.kind == "sum" else total * v
+            bits = total.numerator.bit_length() + total.denominator.bit_length()
+            work += bits
+            if bits > 2 * MAX_BITS or work > MAX_NUMBER_WORK:
+                raise UnableError(f"the number {_label(node)} is too large to compute (its "
+                                  f"value has {bits} bits at {node.var} = {k})")
         return total
 
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
@@ -779,6 +791,12 @@ class Evaluator:
         for i in range(len(ks) - 1, -1, -1):
             running = shifts[i] if running is None else min(running, shifts[i])
             suffix_min[i] = running
+        if self.stepping and not stepping and not direct and \
+                all(e.denominator == 1 for e in shifts):
+            # every term is a monomial c q^e: add them into one list of coefficients (one
+            # dense addition per term would cost the whole span each time)
+            total = self._monomial_sum(node, ks, env, sign, scalars, shifts, target)
+            return (total * const).truncate(order)
         if self.stepping and not direct and len(ks) >= 8:
             split = self._sum_by_splitting(node, ks, env, target, sign, scalars, stepping,
                                            shifts, order if parts else 0)
@@ -821,12 +839,7 @@ class Evaluator:
             prev_k = k
             # no term is skipped on the strength of its q-power alone: another factor may
             # have a negative valuation (a regression test covers this)
-            c = Fraction(sign)
-            for f, p in scalars:
-                v = self.scalar(f, env_k)
-                if v == 0 and p < 0:
-                    raise DomainError(f"division by zero in {_label(node)} at {var} = {k}")
-                c *= _rational_power(v, Fraction(p))
+            c = self._scalar_factor(node, scalars, env_k, sign)
             if c == 0:
                 continue
             if geometric and shifts[i].denominator == 1 and 0 <= shifts[i] < target:
@@ -845,6 +858,39 @@ class Evaluator:
         if sparse is not None:
             total = total + Series(self.ring, self.ring.poly_from_ints(sparse), 0, 0, target)
         return (total * const).truncate(order)
+
+    def _monomial_sum(self, node: BigOp, ks: list[int], env: dict[str, int], sign: int,
+                      scalars: list[tuple[Node, int]], shifts: list[Fraction],
+                      target: int) -> Series:
+        """sum_k c_k q^(e_k) modulo q^target for integers e_k, c_k the product of the
+        scalar factors."""
+        coeffs: dict[int, Fraction] = {}
+        for k, e in zip(ks, shifts, strict=True):
+            if e >= target:
+                continue
+            c = self._scalar_factor(node, scalars, {**env, node.var: k}, sign)
+            coeffs[int(e)] = coeffs.get(int(e), Fraction(0)) + c
+        low = min(coeffs, default=target)
+        if target - low > MAX_LENGTH:
+            raise UnableError(f"{_label(node)} spans {target - low} coefficients, beyond the "
+                              f"limit {MAX_LENGTH}")
+        nums = [coeffs.get(e, 0) for e in range(low, target)]
+        ring = self.ring
+        if ring is ZZ and any(c.denominator != 1 for c in coeffs.values()):
+            ring = QQ
+        return Series.from_coefficients(nums, ring, start=low, prec=target)
+
+    def _scalar_factor(self, node: BigOp, scalars: list[tuple[Node, int]],
+                       env_k: dict[str, int], sign: int) -> Fraction:
+        """sign times the product of the factors free of q at one value of the variable."""
+        c = Fraction(sign)
+        for f, p in scalars:
+            v = self.scalar(f, env_k)
+            if v == 0 and p < 0:
+                raise DomainError(f"division by zero in {_label(node)} at {node.var} = "
+                                  f"{env_k[node.var]}")
+            c *= _rational_power(v, Fraction(p))
+        return c
 
     def _geometric_term(self, direct: list[tuple[Node, int]], env: dict[str, int],
                         c: Fraction) -> tuple[int, dict[int, int], int, int, int] | None:

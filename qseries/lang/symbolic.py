@@ -94,34 +94,80 @@ def root_bound(a: Poly) -> int:
     return int(bound) + 1
 
 
+def prem(a: Poly, b: Poly) -> Poly:
+    """The remainder of a divided by b (b not zero).
+
+    >>> prem((F(1), F(0), F(1)), (F(1), F(1)))       # x^2 + 1 = (x + 1)(x - 1) + 2
+    (Fraction(2, 1),)
+    """
+    r = list(a)
+    db, lb = degree(b), leading(b)
+    while len(r) - 1 >= db and r:
+        c = r[-1] / lb
+        shift = len(r) - 1 - db
+        for i, y in enumerate(b):
+            r[shift + i] -= c * y
+        r = list(norm(r))
+    return norm(r)
+
+
+def sturm_chain(a: Poly) -> list[Poly]:
+    """Sturm's sequence a, a', -rem(a, a'), ...: the number of distinct real roots in (x, y]
+    is the fall in sign changes from x to y when x is not a root."""
+    chain = [a, derivative(a)]
+    while chain[-1]:
+        chain.append(pneg(prem(chain[-2], chain[-1])))
+    return chain[:-1]
+
+
+def _sign_changes(chain: list[Poly], x: Fraction) -> int:
+    signs = [v for v in (peval(p, x) for p in chain) if v]
+    return sum(1 for u, v in zip(signs, signs[1:], strict=False) if (u < 0) != (v < 0))
+
+
+def _roots_between(a: Poly, chain: list[Poly], lo: int, hi: int) -> int:
+    """Distinct real roots of a in (lo - d, hi + d) for some 0 < d < 1 (no root at either end)."""
+    ends = []
+    for base, sign in ((lo, -1), (hi, 1)):
+        for den in range(2, degree(a) + 3):     # one of these is not a root
+            x = base + sign * Fraction(1, den)
+            if peval(a, x):
+                ends.append(x)
+                break
+    return _sign_changes(chain, ends[0]) - _sign_changes(chain, ends[1])
+
+
 def eventually_at_least(a: Poly, target: int | Fraction, start: int) -> int:
     """The least m >= start such that a(m') >= target for every integer m' >= m.
 
-    The polynomial must tend to +infinity (degree >= 1, positive leading coefficient).
+    The polynomial must tend to +infinity (degree >= 1, positive leading coefficient).  The
+    integers where a < target are found by bisection on Sturm counts of the real roots of
+    a - target (O(degree * log R) steps for Cauchy's bound R, never a walk over integers).
+
+    >>> eventually_at_least((F(0), F(2)**64, F(1)), 1, 0)       # m^2 + 2^64 m >= 1
+    1
+    >>> eventually_at_least((F(10**12 + 1), F(-2 * 10**6), F(1)), 1, 0)  # (m - 10^6)^2 + 1
+    0
     """
     if degree(a) < 1 or leading(a) <= 0:
         raise ValueError("polynomial does not tend to +infinity")
-    # beyond both bounds a is increasing and has passed every root of a - target
-    m0 = max(start, root_bound(derivative(a)), root_bound(psub(a, const(target))))
-    # walk back from m0 while still >= target (a is increasing on [R', oo) only, so stop at
-    # the first failure: everything from there on is >= target)
-    lo = max(start, root_bound(derivative(a)))
-    # binary search on [lo, m0] for the first m with a(m) >= target (monotone there)
-    if peval(a, lo) >= target:
-        m = lo
-    else:
-        left, right = lo, m0   # a(left) < target <= a(right)
-        while right - left > 1:
-            mid = (left + right) // 2
-            if peval(a, mid) >= target:
-                right = mid
-            else:
-                left = mid
-        m = right
-    # below lo the polynomial may wiggle: extend downwards only while all values stay >= target
-    while m > start and peval(a, m - 1) >= target:
-        m -= 1
-    return m
+    b = psub(a, const(target))
+    chain = sturm_chain(b)
+
+    def last_below(lo: int, hi: int) -> int | None:
+        """The largest integer m in [lo, hi] with b(m) < 0, else None."""
+        if lo > hi:
+            return None
+        if lo == hi or _roots_between(b, chain, lo, hi) == 0:
+            # one point, or no root near [lo, hi]: b has one sign there
+            return hi if peval(b, hi) < 0 else None
+        mid = (lo + hi) // 2
+        got = last_below(mid + 1, hi)
+        return got if got is not None else last_below(lo, mid)
+
+    # beyond every real root of b it is positive
+    last = last_below(start, max(start, root_bound(b)))
+    return start if last is None else last + 1
 
 
 # -- polynomials in several variables ------------------------------------------------------

@@ -255,6 +255,15 @@ def min_bound(a: Bound, b: Bound, main: str) -> Bound:
     d = sym.psub(ua, ub)
     if not d:
         return Bound(a.poly, False, start)
+    # the smaller one from the first m where the difference keeps its sign
     if sym.leading(d) > 0:        # b is eventually the smaller
-        return Bound(b.poly, b.exact, max(start, sym.root_bound(d)))
-    return Bound(a.poly, a.exact, max(start, sym.root_bound(d)))
+        return Bound(b.poly, b.exact, _keeps_sign(d, start))
+    return Bound(a.poly, a.exact, _keeps_sign(sym.pneg(d), start))
+
+
+def _keeps_sign(d: sym.Poly, start: int) -> int:
+    """The first m >= start from which d(m') >= 0 for every m' >= m (d tends to +infinity or
+    is a positive constant)."""
+    if sym.degree(d) < 1:
+        return start
+    return sym.eventually_at_least(d, 0, start)

@@ -1,0 +1,44 @@
+"""Polynomials in bound variables: the cut-off of a sum from its valuation bound."""
+
+from fractions import Fraction
+
+from hypothesis import given
+from hypothesis import strategies as st
+
+from qseries.lang import symbolic as sym
+
+
+def brute_force(poly: tuple, target: int, start: int, beyond: int) -> int:
+    """The least m >= start with poly(m') >= target for all m' in [m, beyond] (beyond lies
+    past every real root), by evaluating every integer."""
+    m = beyond
+    while m > start and sym.peval(poly, m - 1) >= target:
+        m -= 1
+    return m
+
+
+@given(st.lists(st.integers(-30, 30), min_size=1, max_size=4), st.integers(1, 5),
+       st.integers(-50, 200), st.integers(0, 10))
+def test_eventually_at_least_matches_a_walk_over_integers(low, lead, target, start):
+    poly = sym.norm([Fraction(c) for c in low] + [Fraction(lead)])
+    if sym.degree(poly) < 1:
+        return
+    beyond = max(start, sym.root_bound(sym.psub(poly, sym.const(target))))
+    assert sym.eventually_at_least(poly, target, start) == \
+        brute_force(poly, target, start, beyond)
+
+
+def test_huge_coefficients_are_answered_at_once():
+    # issue 11: a root bound near 2^63 was walked down one integer at a time
+    two64 = Fraction(2) ** 64
+    assert sym.eventually_at_least((Fraction(0), two64, Fraction(1)), 1, 0) == 1
+    assert sym.eventually_at_least((Fraction(0), Fraction(10**20), Fraction(1)), 5, 0) == 1
+    # (m - 10^9)^2 >= 4 except for m in [10^9 - 1, 10^9 + 1]
+    p = sym.pmul((Fraction(-10**9), Fraction(1)), (Fraction(-10**9), Fraction(1)))
+    assert sym.eventually_at_least(p, 4, 0) == 10**9 + 2
+    # a polynomial with several sign changes: (m - 3)(m - 5)(m - 100) >= 0 from m = 100 on,
+    # also on [3, 5]
+    p = sym.pmul(sym.pmul((Fraction(-3), Fraction(1)), (Fraction(-5), Fraction(1))),
+                 (Fraction(-100), Fraction(1)))
+    assert sym.eventually_at_least(p, 0, 0) == 100
+    assert sym.eventually_at_least(p, 0, 101) == 101
