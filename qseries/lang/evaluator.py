@@ -1300,7 +1300,10 @@ def _scalar_power(c: LaurentPoly, n: int) -> LaurentPoly:
         raise weight_may_help(DomainError(
             f"{c} is not a monomial, so its negative powers are not Laurent polynomials (give "
             f"the extra variables a weight to expand them)"))
-    if abs(n) * max(c.ring.coefficient_bits(c), 1) > MAX_BITS or abs(n) > MAX_LENGTH:
+    bits = c.ring.coefficient_bits(c)
+    one = 2 if getattr(c.ring, "rational", False) else 1     # the bits of the coefficient 1
+    growth = 0 if bits <= one and c.ring.is_unit(c) else max(bits, 1)  # +-z^k stays small
+    if abs(n) * growth > MAX_BITS or abs(n) > MAX_LENGTH:
         raise UnableError(f"the power ({c})^{n} is too large")
     return c ** n
 
