@@ -25,14 +25,25 @@ from .analysis import (
                        distributions,
                        product_form,
 )
-from .errors import DomainError, IncompatibleRingError, ParseError, QSeriesError, UnableError
-from .lang import evaluate, parse, show
+from .engine import evaluate
+from .errors import (
+                       ArgumentError,
+                       ArgumentTypeError,
+                       DomainError,
+                       IncompatibleRingError,
+                       ParseError,
+                       PrecisionError,
+                       QSeriesError,
+                       UnableError,
+)
+from .lang import parse, show
 from .series import Series
 
 __version__ = "0.1.0"
 
 __all__ = [
-    "CheckResult", "Distribution", "DomainError", "GF", "IncompatibleRingError", "Mismatch",
-    "ParseError", "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check",
-    "diagnose", "distributions", "evaluate", "laurent_ring", "parse", "product_form", "show",
+    "ArgumentError", "ArgumentTypeError", "CheckResult", "Distribution", "DomainError", "GF",
+    "IncompatibleRingError", "Mismatch", "ParseError", "PrecisionError", "ProductForm", "QQ",
+    "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose", "distributions",
+    "evaluate", "laurent_ring", "parse", "product_form", "show",
 ]

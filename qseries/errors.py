@@ -16,7 +16,21 @@ from __future__ import annotations
 
 
 class QSeriesError(Exception):
-    """Base class of every error qseries raises on purpose."""
+    """Base class of every error qseries raises on purpose.
+
+    ``weights_may_help`` is True when giving the extra variables a weight (z -> z*q^w) may
+    remove the error: a sum that does not converge in q alone, a coefficient such as 1 - z
+    that cannot be inverted (``check`` then retries with weights).
+
+    >>> QSeriesError("x").weights_may_help, DomainError("x", weights_may_help=True).weights_may_help
+    (False, True)
+    """
+
+    weights_may_help: bool = False
+
+    def __init__(self, *args: object, weights_may_help: bool = False) -> None:
+        super().__init__(*args)
+        self.weights_may_help = weights_may_help
 
 
 class ParseError(QSeriesError):
@@ -27,6 +41,10 @@ class ParseError(QSeriesError):
         self.text = text
         self.position = max(0, min(position, len(text)))
         super().__init__(self._render())
+
+    def __reduce__(self) -> tuple:
+        # rebuild from the parts, not from the rendered message (which would render twice)
+        return (type(self), (self.message, self.text, self.position), self.__dict__)
 
     def _render(self) -> str:
         if not self.text:
@@ -47,13 +65,13 @@ class ParseError(QSeriesError):
 
 
 def weight_may_help(err: QSeriesError) -> QSeriesError:
-    """Mark an error that giving extra variables a weight (z -> z*q^w) may remove: a sum
-    that does not converge in q alone, a coefficient such as 1 - z that cannot be inverted.
+    """Set the field :attr:`QSeriesError.weights_may_help` of ``err`` and return it (for
+    ``raise weight_may_help(DomainError(...))``).
 
     >>> weight_may_help(DomainError("x")).weights_may_help
     True
     """
-    err.weights_may_help = True   # type: ignore[attr-defined]
+    err.weights_may_help = True
     return err
 
 
@@ -68,3 +86,82 @@ class UnableError(QSeriesError):
 
 class IncompatibleRingError(QSeriesError):
     """Two series live over rings (or rational exponent offsets) that cannot be combined."""
+
+
+class PrecisionError(QSeriesError):
+    """Unknown rather than undefined: what was asked for lies beyond the precision O(q^N) to
+    which a series is known (a coefficient past it, a check that compared no coefficient)."""
+
+
+class ArgumentError(QSeriesError, ValueError):
+    """A public function got a bad argument (the message names it)."""
+
+
+class ArgumentTypeError(ArgumentError, TypeError):
+    """A public function got an argument of the wrong type (the message names it)."""
+
+
+def _shown(value: object) -> str:
+    """A short ``repr`` of a (possibly huge) argument value."""
+    if isinstance(value, int) and not isinstance(value, bool) and value.bit_length() > 200:
+        return f"an integer of {value.bit_length()} bits"
+    text = repr(value)
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
+def integer_argument(name: str, value: object, low: int | None = None,
+                     high: int | None = None) -> int:
+    """``value`` when it is an int (not a bool) in ``low .. high`` (either bound may be
+    None); otherwise an :class:`ArgumentError` (:class:`ArgumentTypeError` for a wrong type)
+    that names the argument.
+
+    >>> integer_argument("primes", 3, 1, 20)
+    3
+    >>> integer_argument("primes", 10**7, 1, 20)
+    Traceback (most recent call last):
+    ...
+    qseries.errors.ArgumentError: primes must be an integer between 1 and 20, not 10000000
+    """
+    if isinstance(value, bool) or not isinstance(value, int):
+        raise ArgumentTypeError(f"{name} must be an integer, not {_shown(value)} "
+                                f"({type(value).__name__})")
+    if (low is not None and value < low) or (high is not None and value > high):
+        if low is not None and high is not None:
+            wanted = f"between {low} and {high}"
+        elif low is not None:
+            wanted = "positive" if low == 1 else "non-negative" if low == 0 else f">= {low}"
+        else:
+            wanted = f"<= {high}"
+        raise ArgumentError(f"{name} must be an integer {wanted}, not {_shown(value)}")
+    return value
+
+
+def typed_argument(name: str, value: object, types: type | tuple[type, ...],
+                   wanted: str) -> None:
+    """Refuse ``value`` with an :class:`ArgumentTypeError` naming the argument unless it is
+    an instance of ``types`` (``wanted`` says what it should be, in words).
+
+    >>> typed_argument("lhs", 5, str, "a string")
+    Traceback (most recent call last):
+    ...
+    qseries.errors.ArgumentTypeError: lhs must be a string, not 5 (int)
+    """
+    if not isinstance(value, types):
+        raise ArgumentTypeError(f"{name} must be {wanted}, not {_shown(value)} "
+                                f"({type(value).__name__})")
+
+
+class IdentityFileError(QSeriesError):
+    """A malformed identity file (catalogue); the message starts with ``file:line:``."""
+
+
+class TemplateError(QSeriesError):
+    """A malformed or too costly family template; ``position`` is the offset in its text.
+
+    >>> TemplateError("unknown template parameter $x", 4).position
+    4
+    """
+
+    def __init__(self, message: str, position: int = 0) -> None:
+        self.position = position
+        super().__init__(message)

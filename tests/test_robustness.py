@@ -1,6 +1,7 @@
 """Regression tests for inputs found by fuzzing: each gives a right answer or a clear
 QSeriesError quickly -- never a wrong answer, a traceback, a process abort or a hang."""
 
+import re
 import subprocess
 import sys
 from fractions import Fraction
@@ -350,3 +351,24 @@ def test_a_sum_of_monomials_with_a_deep_negative_valuation():
     assert s.coefficient(-250000) == 1 and s.coefficient(-249999) == 2
     assert s.coefficient(0) == 2 and s.precision == 30     # k = 0 and k = 1000
     assert not check("sum_{k>=0} q^(k^2-1000k)", "q", order=30).holds
+
+
+# -- issue 11 §2: a precision never claims more than an O(q^k) or the order asked -----------
+@pytest.mark.parametrize("text, order, expected", [
+    ("eta(q) + O(q^12)", 30, 12), ("eta(q) + O(q^17)", 30, 17), ("eta(q)", 3, 3),
+    ("theta2(q) + O(q^13)", 30, 13), ("-eta(q^2) + O(q^4)", 30, 4),
+    ("2 (eta(q) + O(q^5))", 30, 5), ("q^3 (eta(q) + O(q^5))", 30, 8),
+])
+def test_precision_with_fractional_offsets_is_not_overstated(text, order, expected):
+    s = evaluate(text, order)
+    assert s.precision == expected
+    # the coefficients below it are those of the expansion without the remainder
+    full = evaluate(re.sub(r" \+ O\(q\^\d+\)", "", text), 40)
+    assert s.equal_to(full, expected)
+
+
+def test_a_multiple_of_a_remainder_keeps_its_offset():
+    # O(q^3) q^(1/2) is O(q^(7/2)): the offset of the product was dropped
+    from qseries.series import Series
+    half = Series.monomial(Fraction(1, 2))
+    assert (Series.zero(prec=3) * half).precision == Fraction(7, 2)

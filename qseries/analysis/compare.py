@@ -9,10 +9,20 @@ coefficients were compared, and at a mismatch which exponent differs first.
 >>> r = check("1/(1-q)", "1 + q + q^2 + 2q^3", order=10)
 >>> r.holds, r.first_mismatch.exponent, r.first_mismatch.lhs, r.first_mismatch.rhs
 (False, 3, 1, 2)
+
+A check that could compare no coefficient at all is inconclusive (``holds`` is None):
+
+>>> r = check("O(q^-5) + 1", "2")
+>>> r.holds, r.order_verified
+(None, -5)
+>>> print(r.verdict)       # doctest: +NORMALIZE_WHITESPACE
+inconclusive: no coefficient could be compared, because the left side is known only
+below q^-5 (it carries its own O(q^(-5)))
 """
 
 from __future__ import annotations
 
+import math
 import os
 import random
 import time
@@ -20,10 +30,19 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 from fractions import Fraction
 
-from ..errors import DomainError, QSeriesError, weight_may_help
-from ..lang import Evaluator, Node, evaluate, parse
-from ..lang.ast import extra_variables
-from ..lang.evaluator import Parts, check_weights
+from ..engine import Evaluator, Parts, check_weights, evaluate, quotient
+from ..errors import (
+    ArgumentError,
+    ArgumentTypeError,
+    DomainError,
+    PrecisionError,
+    QSeriesError,
+    UnableError,
+    integer_argument,
+    typed_argument,
+)
+from ..lang import Node, parse, show
+from ..lang.ast import BigO, children, extra_variables
 from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring, laurent_text
 from ..series.formatting import coefficient_text
 
@@ -43,17 +62,28 @@ class Mismatch:
     def difference(self) -> Number:
         return self.lhs - self.rhs
 
+    def __getstate__(self) -> dict:
+        return {"exponent": self.exponent, "lhs": _portable(self.lhs),
+                "rhs": _portable(self.rhs)}
+
+    def __setstate__(self, state: dict) -> None:
+        for name, value in state.items():
+            object.__setattr__(self, name, _restored(value))
+
 
 @dataclass(frozen=True)
 class CheckResult:
     """Outcome of comparing two sides modulo q^order.
 
-    ``holds`` means: every coefficient of q^e with e < ``order_verified`` agrees.  It is never
-    a proof of the identity; ``order_verified`` can be smaller than ``order_requested`` when
-    negative powers cost precision.
+    ``holds`` is True when every coefficient of q^e with e < ``order_verified`` agrees, False
+    at a mismatch, and None when no coefficient could be compared at all (the check is
+    inconclusive; ``reason`` says why).  It is never a proof of the identity;
+    ``order_verified`` can be smaller than ``order_requested`` when a side carries its own
+    O(q^k) or negative powers cost precision (``shortfall`` says which).  ``bool(result)`` is
+    ``holds``, and an error for an inconclusive result.
     """
 
-    holds: bool
+    holds: bool | None
     order_requested: int
     order_verified: Exponent
     first_mismatch: Mismatch | None
@@ -70,10 +100,42 @@ class CheckResult:
     #: coefficient of q^e is the part of weighted degree e (n + w*j for q^n z^j)
     variables: tuple[str, ...] = ()
     weights: tuple[int, ...] = ()
+    #: why fewer coefficients than asked were compared ("" when all were): which side is
+    #: known only below which power of q, and whether it carries its own O(q^k)
+    shortfall: str = ""
 
     @property
     def weighted(self) -> bool:
         return any(self.weights)
+
+    @property
+    def inconclusive(self) -> bool:
+        """True when no coefficient could be compared (``holds`` is None)."""
+        return self.holds is None
+
+    @property
+    def reason(self) -> str | None:
+        """Why the check is inconclusive (None when it is not).
+
+        >>> check("O(q^-1)", "q^5").reason.startswith("no coefficient could be compared")
+        True
+        """
+        if self.holds is not None:
+            return None
+        return f"no coefficient could be compared, because {self.shortfall}"
+
+    def __bool__(self) -> bool:
+        """``holds``: True when the sides agree to the order verified, False at a mismatch;
+        an inconclusive check is neither, and raises :class:`~qseries.errors.PrecisionError`.
+
+        >>> bool(check("1/(1-q)", "1 + q", order=5))
+        False
+        """
+        if self.holds is None:
+            raise PrecisionError(f"the check is inconclusive: {self.reason}; test "
+                                 f"result.holds (True, False or None) instead of its truth")
+        return self.holds
+
 
     @property
     def verdict(self) -> str:
@@ -82,8 +144,12 @@ class CheckResult:
         >>> print(check("(q;q)_inf", "1 - q - q^2", order=5).verdict)
         the two sides agree to O(q^5) (every coefficient below q^5 compared; evidence, not a proof)
         """
+        if self.holds is None:
+            return f"inconclusive: {self.reason}"
         order = _text(self.order_verified)
         scope = f"every coefficient below q^{order}"
+        short = (f"; fewer than the q^{self.order_requested} asked, because {self.shortfall}"
+                 if self.shortfall else "")
         if self.weighted:
             pairs = zip(self.variables, self.weights, strict=True)
             grade = " + ".join(["n"] + [f"{w}*e_{v}" if w != 1 else f"e_{v}"
@@ -100,13 +166,13 @@ class CheckResult:
                         f"degree d in the extra variables escapes each prime with probability "
                         f"at most B/(61*{PRIME_COUNT:.2e}) + d/2^61, so all {k} with "
                         f"probability below {escape_bound(10**6, k, 10**6):.0e} for B, d <= "
-                        f"10^6; evidence, not a proof)")
+                        f"10^6{short}; evidence, not a proof)")
             return (f"the two sides agree modulo the primes {', '.join(map(str, self.primes))} "
                     f"at {scope} (a nonzero coefficient difference of B bits escapes all {k} "
                     f"with probability at most (B/(61*{PRIME_COUNT:.2e}))^{k}, below "
-                    f"{escape_bound(10**6, k):.0e} for B = 10^6; evidence, not a proof)")
+                    f"{escape_bound(10**6, k):.0e} for B = 10^6{short}; evidence, not a proof)")
         if self.first_mismatch is None:
-            return (f"the two sides agree to O(q^{order}) ({scope} compared; evidence, "
+            return (f"the two sides agree to O(q^{order}) ({scope} compared{short}; evidence, "
                     f"not a proof)")
         m = self.first_mismatch
         where = f"q^{_text(m.exponent)}"
@@ -130,17 +196,24 @@ class CheckResult:
             wv * x for wv, x in zip(w, exps[1:], strict=True)))
 
     def neighbours(self, radius: int = 2) -> list[tuple[Exponent, Number, Number]]:
-        """Coefficients of both sides at the exponents around the first mismatch."""
-        if self.first_mismatch is None:
+        """Coefficients of both sides at the exponents around the first mismatch (those
+        known on both sides, at most ``radius`` on either side of it).
+
+        >>> check("1/(1-q)", "1 + q", order=9).neighbours(1)
+        [(1, 1, 1), (2, 1, 0), (3, 1, 0)]
+        """
+        integer_argument("radius", radius, 0)
+        if self.first_mismatch is None or self.lhs is None or self.rhs is None:
             return []
         e0 = Fraction(self.first_mismatch.exponent)
+        known = [Fraction(x.precision) for x in (self.lhs, self.rhs) if x.precision is not None]
+        limit = min([Fraction(self.order_verified)] + known)
+        start = min(_low(self.lhs), _low(self.rhs), e0)
         out = []
-        for d in range(-radius, radius + 1):
+        # only the steps d with start <= e0 + d < limit (a huge radius costs nothing)
+        for d in range(max(-radius, math.ceil(start - e0)),
+                       min(radius, math.ceil(limit - e0) - 1) + 1):
             e = e0 + d
-            known = [x.precision for x in (self.lhs, self.rhs) if x.precision is not None]
-            if e < min(_low(self.lhs), _low(self.rhs), e0) or e >= self.order_verified or \
-                    any(e >= k for k in known):
-                continue
             e_out = e.numerator if e.denominator == 1 else e
             out.append((e_out, self.lhs.coefficient(e), self.rhs.coefficient(e)))
         return out
@@ -163,6 +236,58 @@ class CheckResult:
 def _low(s: Series) -> Fraction:
     v = s.valuation
     return Fraction(v) if v is not None else Fraction(0)
+
+
+def _nothing_compared(verified: Exponent, *sides: Series) -> bool:
+    """True when no coefficient lies in the compared range: from q^0 (or the first known
+    nonzero term of a side, when it is lower) up to the order verified."""
+    firsts = [Fraction(v) for v in (s.valuation for s in sides) if v is not None]
+    return Fraction(verified) <= min([Fraction(0)] + firsts)
+
+
+def _big_o_terms(node: Node) -> list[Node]:
+    """The O(q^k) terms of an expression (iteratively: sums of many terms are deep)."""
+    out, stack = [], [node]
+    while stack:
+        c = stack.pop()
+        if isinstance(c, BigO):
+            out.append(c)
+        stack.extend(children(c))
+    return out
+
+
+def _shortfall(order: int, verified: Exponent, known: tuple[Exponent, Exponent],
+               nodes: tuple[Node, Node]) -> str:
+    """Why fewer coefficients than the order asks were compared ("" when none were lost)."""
+    if Fraction(verified) >= order:
+        return ""
+    parts = []
+    for side, k, node in zip(("left", "right"), known, nodes, strict=True):
+        if Fraction(k) < order:
+            own = _big_o_terms(node)
+            why = (f"it carries its own {', '.join(show(o) for o in own[:3])}" if own else
+                   "negative powers of q cost precision")
+            parts.append(f"the {side} side is known only below q^{_text(k)} ({why})")
+    return " and ".join(parts) or "negative powers of q cost precision"
+
+
+def _portable(c: object) -> object:
+    """A coefficient in a form pickle can store: a Laurent polynomial (whose FLINT parts
+    cannot be pickled) travels as a constant series, which pickles as plain data."""
+    if isinstance(c, LaurentPoly):
+        return _Scalar(Series.constant(c, c.ring))
+    return c
+
+
+def _restored(c: object) -> object:
+    return c.series.coefficient(0) if isinstance(c, _Scalar) else c
+
+
+@dataclass(frozen=True)
+class _Scalar:
+    """A pickled coefficient in extra variables (see :func:`_portable`)."""
+
+    series: Series
 
 
 def _text(x: Exponent | Number | LaurentPoly) -> str:
@@ -203,8 +328,11 @@ def compare_series(lhs: Series, rhs: Series, order: int) -> tuple[Exponent, Mism
 AUTO_MODULAR_ORDER = 3000
 #: the same with extra variables, whose exact coefficients grow much faster
 AUTO_MODULAR_ORDER_EXTRA = 400
-#: the modular method draws primes from [2^61, 2^62); there are about this many
+#: the modular method draws primes from [2^61, 2^62); there are more than this many
+#: (about 5.40e16 by the logarithmic integral)
 PRIME_COUNT = 2**61 / (62 * 0.6931471805599453)
+#: most primes the modular method may use (as on the command line)
+MAX_PRIMES = 20
 
 
 def escape_bound(bits: int, k: int, degree: int = 0) -> float:
@@ -229,10 +357,11 @@ def random_primes(k: int, seed: int | None = None) -> tuple[int, ...]:
     rng = random.Random(seed)
     out: list[int] = []
     while len(out) < k:
+        # a draw that is not prime is drawn again (not replaced by the next prime, which
+        # would favour primes after long gaps): each prime is equally likely, as the escape
+        # bound assumes
         n = rng.randrange(2**61, 2**62) | 1
-        while not is_prime(n):
-            n += 2
-        if n < 2**62 and n not in out:
+        if is_prime(n) and n not in out:
             out.append(n)
     return tuple(out)
 
@@ -243,10 +372,11 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
           weights: dict[str, int] | None = None) -> CheckResult:
     """Evaluate both sides modulo q^order and compare every coefficient below q^order.
 
-    ``method="modular"`` compares modulo ``primes`` random primes near 2^62 (much faster at
-    high order) and recomputes the two coefficients exactly at a mismatch; ``"auto"`` uses
-    it above order 3000 (above 400 with extra variables).  ``progress`` (if given) is called
-    with a short text at each stage.
+    ``method="modular"`` compares modulo ``primes`` (1 to 20) random primes near 2^62 (much
+    faster at high order; ``seed`` makes the draw reproducible) and recomputes the two
+    coefficients exactly at a mismatch; ``"auto"`` uses it above order 3000 (above 400 with
+    extra variables).  ``ring`` is ZZ, QQ or GF(p); the modular method and extra variables
+    need ZZ or QQ.  ``progress`` (if given) is called with a short text at each stage.
 
     Extra variables (z, a, ...) make the coefficients Laurent polynomials in them; the
     modular method then also sets them to random residues (Schwartz-Zippel).  ``weights``
@@ -261,13 +391,13 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     >>> r.holds, r.weights
     (True, (1,))
     """
-    if isinstance(order, bool) or not isinstance(order, int) or order < 1:
-        raise QSeriesError(f"the order must be a positive integer, not {order!r}")
-    if method not in ("exact", "modular", "auto"):
-        raise QSeriesError(f"unknown method {method!r}: use exact, modular or auto")
+    _check_arguments(lhs, rhs, order, ring, method, primes, seed, progress)
     lnode = parse(lhs) if isinstance(lhs, str) else lhs
     rnode = parse(rhs) if isinstance(rhs, str) else rhs
     names = tuple(sorted(extra_variables(lnode) | extra_variables(rnode)))
+    if names and ring.modulus is not None:
+        raise ArgumentError(f"ring {ring} cannot hold the extra variables {', '.join(names)}: "
+                            f"their coefficients are compared over ZZ or QQ")
     if method == "auto":
         limit = AUTO_MODULAR_ORDER_EXTRA if names else AUTO_MODULAR_ORDER
         method = "modular" if order > limit and ring in (ZZ, QQ) else "exact"
@@ -291,7 +421,7 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
             return _check_exact(lnode, rnode, order, ring, t0, say, names, w)
         except QSeriesError as err:
             first_error = first_error or err
-            if not getattr(err, "weights_may_help", False):
+            if not err.weights_may_help:
                 raise first_error from None
             say("retrying with the extra variables weighted (z -> z*q)")
     assert first_error is not None
@@ -309,8 +439,33 @@ def _weights_needed(lnode: Node, rnode: Node, ring: Ring, names: tuple[str, ...]
         for node in (lnode, rnode):
             evaluate(node, WEIGHT_PROBE_ORDER, lring)
     except QSeriesError as err:
-        return bool(getattr(err, "weights_may_help", False))
+        return err.weights_may_help
     return False
+
+
+def _check_arguments(lhs: object, rhs: object, order: object, ring: object, method: object,
+                     primes: object, seed: object, progress: object) -> None:
+    """Refuse bad arguments of :func:`check` before any work, naming the argument."""
+    expression = "an expression (a string, or a syntax tree from qseries.parse)"
+    typed_argument("lhs", lhs, (str, Node), expression)
+    typed_argument("rhs", rhs, (str, Node), expression)
+    integer_argument("order", order, 1)
+    typed_argument("ring", ring, Ring, "a coefficient ring: qseries.ZZ, QQ or GF(p)")
+    assert isinstance(ring, Ring)
+    if ring != ZZ and ring != QQ and ring.modulus is None:
+        raise ArgumentError(f"ring must be ZZ, QQ or GF(p), not {ring} (the ring of the extra "
+                            f"variables is chosen from the expressions)")
+    if not isinstance(method, str) or method not in ("exact", "modular", "auto"):
+        raise ArgumentError(f"unknown method {method!r}: use exact, modular or auto")
+    if method == "modular" and ring.modulus is not None:
+        raise ArgumentError(f"the modular method compares modulo its own primes, which says "
+                            f"nothing about ring {ring}: use method='exact'")
+    integer_argument("primes", primes, 1, MAX_PRIMES)
+    if seed is not None:
+        integer_argument("seed", seed)
+    if progress is not None and not callable(progress):
+        raise ArgumentTypeError(f"progress must be a function of one string, not "
+                                f"{type(progress).__name__}")
 
 
 def _own(weights: dict[str, int] | None, node: Node) -> dict[str, int]:
@@ -329,9 +484,13 @@ def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
     say("evaluating the right side")
     right = evaluate(rnode, order, ring, _own(weights, rnode))
     verified, mismatch = compare_series(left, right, order)
-    return CheckResult(mismatch is None, order, verified, mismatch,
+    holds = None if mismatch is None and _nothing_compared(verified, left, right) else \
+        mismatch is None
+    shortfall = _shortfall(order, verified, (_known_to(left, order), _known_to(right, order)),
+                           (lnode, rnode))
+    return CheckResult(holds, order, verified, mismatch,
                        time.perf_counter() - t0, left, right, variables=names,
-                       weights=tuple(weights.get(v, 0) for v in names))
+                       weights=tuple(weights.get(v, 0) for v in names), shortfall=shortfall)
 
 
 #: from this order on, the modular method spreads its primes over worker processes
@@ -353,15 +512,13 @@ def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[st
         # q^order) would be known to less than the order: that side is divided out instead
         # (its numerator has valuation >= 0, so the quotient is known modulo q^order)
         if _below_one(left[0]) and right[1] is not None:
-            right = (Evaluator.quotient(*right, order), None)
+            right = (quotient(*right, order), None)
         if _below_one(right[0]) and left[1] is not None:
-            left = (Evaluator.quotient(*left, order), None)
+            left = (quotient(*left, order), None)
         return left, right
     except DomainError as err:
-        again = DomainError(f"{err} (modulo the prime {p}; try --method exact)")
-        if getattr(err, "weights_may_help", False):
-            weight_may_help(again)
-        raise again from None
+        raise DomainError(f"{err} (modulo the prime {p}; try --method exact)",
+                          weights_may_help=err.weights_may_help) from None
 
 
 def _below_one(s: Series) -> bool:
@@ -384,25 +541,36 @@ def compare_parts(lhs: Parts, rhs: Parts, order: int) -> tuple[Exponent, Exponen
     >>> compare_parts((Series.constant(1), one_minus_q), (geometric - Series.monomial(5), None), 9)
     (9, 5)
     """
-    (a, b), (c, d) = lhs, rhs
-    left = a if d is None else a * d
-    right = c if b is None else c * b
+    left, right = _cross(lhs, rhs)
     verified, mismatch = compare_series(left, right, order)
     return verified, None if mismatch is None else mismatch.exponent
 
 
+def _cross(lhs: Parts, rhs: Parts) -> tuple[Series, Series]:
+    """A*D and C*B for the sides A/B and C/D."""
+    (a, b), (c, d) = lhs, rhs
+    return (a if d is None else a * d), (c if b is None else c * b)
+
+
+#: what one prime tells: (order verified, first exponent where the sides differ or None,
+#: whether no coefficient could be compared, the orders to which each side is known)
+Outcome = tuple[Exponent, Exponent | None, bool, tuple[Exponent, Exponent]]
+
+
 def _modular_compare(lnode: Node, rnode: Node, order: int, p: int,
                      names: tuple[str, ...] = (), weights: dict[str, int] | None = None
-                     ) -> tuple[Exponent, Exponent | None]:
-    left, right = _modular_sides(lnode, rnode, order, p, names, weights)
-    return compare_parts(left, right, order)
+                     ) -> Outcome:
+    sides = _modular_sides(lnode, rnode, order, p, names, weights)
+    left, right = _cross(*sides)
+    verified, mismatch = compare_series(left, right, order)
+    known = tuple(min(_known_to(x, order) for x in side if x is not None) for side in sides)
+    return (verified, None if mismatch is None else mismatch.exponent,
+            _nothing_compared(verified, left, right), known)   # type: ignore[return-value]
 
 
 def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | None,
                    t0: float, say: Callable[[str], None], names: tuple[str, ...] = (),
                    weights: dict[str, int] | None = None) -> CheckResult:
-    if k < 1:
-        raise QSeriesError("the modular method needs at least one prime")
     ps = random_primes(k, seed)
     weights = weights or {}
     wt = tuple(weights.get(v, 0) for v in names)
@@ -429,13 +597,19 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
     finally:
         if pool:
             pool.shutdown(cancel_futures=True)
-    for v, e in outcomes:
+    known: list[Exponent] = [order, order]
+    nothing = False
+    for v, e, none_compared, sides in outcomes:
         verified = min(verified, v)
+        nothing = nothing or none_compared
+        known = [min(x, y) for x, y in zip(known, sides, strict=True)]
         if e is not None and (first is None or Fraction(e) < Fraction(first)):
             first = e
+    shortfall = _shortfall(order, verified, (known[0], known[1]), (lnode, rnode))
     if first is None:
-        return CheckResult(True, order, verified, None, time.perf_counter() - t0, None, None,
-                           "modular", ps, names, wt)
+        return CheckResult(None if nothing else True, order, verified, None,
+                           time.perf_counter() - t0, None, None, "modular", ps, names, wt,
+                           shortfall)
     # recompute both sides exactly just past the first mismatch, and report them
     say("recomputing the first mismatch exactly")
     f = Fraction(first)
@@ -444,5 +618,9 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
     exact_l = evaluate(lnode, upto, ring, _own(weights, lnode))
     exact_r = evaluate(rnode, upto, ring, _own(weights, rnode))
     _, mismatch = compare_series(exact_l, exact_r, upto)
+    if mismatch is None:
+        raise UnableError(f"the two sides differ modulo a prime first at q^{_text(f)}, but "
+                          f"their exact coefficients there could not be compared; try "
+                          f"method='exact'")
     return CheckResult(False, order, verified, mismatch, time.perf_counter() - t0,
-                       exact_l, exact_r, "modular", ps, names, wt)
+                       exact_l, exact_r, "modular", ps, names, wt, shortfall)

@@ -19,8 +19,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
+from ..engine import evaluate
 from ..errors import DomainError
-from ..lang import Node, evaluate
+from ..lang import Node
 from ..series import QQ, ZZ, Ring, Series
 from ..series.formatting import format_exponent
 

@@ -17,13 +17,24 @@ import math
 from dataclasses import dataclass
 from fractions import Fraction
 
-from ..errors import DomainError, QSeriesError, UnableError
-from ..lang import Evaluator, Node, parse
+from ..engine import Evaluator
+from ..errors import (
+    ArgumentError,
+    ArgumentTypeError,
+    DomainError,
+    QSeriesError,
+    UnableError,
+    integer_argument,
+    typed_argument,
+)
+from ..lang import Node, parse
 from ..lang.ast import extra_variables
 from ..series import LaurentPoly, laurent_ring
 
 #: largest size n for which distributions are computed
 MAX_SIZE = 100_000
+#: highest moment computed (exact rational powers beyond it cost more than they tell)
+MAX_MOMENT = 1000
 
 
 @dataclass(frozen=True)
@@ -56,6 +67,7 @@ class Distribution:
         >>> Distribution(3, {0: 1, 2: 1}).central_moment(2)
         Fraction(1, 1)
         """
+        integer_argument("the moment r", r, 0, MAX_MOMENT)
         m = self.mean
         return sum((Fraction(j) - m) ** r * c for j, c in self.counts.items()) / self.total
 
@@ -65,6 +77,7 @@ class Distribution:
         >>> Distribution(3, {0: 1, 2: 1}).standardised_moment(4)
         1.0
         """
+        integer_argument("the moment r", r, 0, MAX_MOMENT)
         v = self.variance
         if v == 0:
             return math.nan
@@ -82,6 +95,7 @@ def normal_moment(r: int) -> int:
     >>> [normal_moment(r) for r in range(1, 9)]
     [0, 1, 0, 3, 0, 15, 0, 105]
     """
+    integer_argument("the moment r", r, 0, MAX_MOMENT)
     if r % 2:
         return 0
     out = 1
@@ -94,32 +108,42 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
     """The distribution of the statistic marked by ``var`` at each size n in ``sizes``.
 
     The coefficient of q^n must be a Laurent polynomial in ``var`` with non-negative integer
-    coefficients (they count objects); other extra variables are refused.
+    coefficients (they count objects); other extra variables are refused.  ``sizes`` is a
+    list (or tuple, or range) of integers in 0 .. 100000.
 
     >>> [d.total for d in distributions("1/(z*q;q)_inf", "z", [5, 6])]   # p(5), p(6)
     [7, 11]
     """
+    typed_argument("expr", expr, (str, Node), "an expression (a string, or a syntax tree "
+                                              "from qseries.parse)")
+    typed_argument("var", var, str, "the name of an extra variable, such as 'z'")
+    if not isinstance(sizes, (list, tuple, range)):
+        raise ArgumentTypeError(f"sizes must be a list of integers, not "
+                                f"{type(sizes).__name__}")
+    if not sizes:
+        raise ArgumentError("sizes is empty: give at least one size n")
+    for i, n in enumerate(sizes):
+        if isinstance(n, bool) or not isinstance(n, int):
+            raise ArgumentTypeError(f"sizes must be integers, but sizes[{i}] is {n!r} "
+                                    f"({type(n).__name__})")
+        if not 0 <= n <= MAX_SIZE:
+            raise ArgumentError(f"sizes must lie in 0 .. {MAX_SIZE}, but sizes[{i}] is "
+                                f"{n if n.bit_length() < 100 else 'huge'}")
     node = parse(expr) if isinstance(expr, str) else expr
     names = extra_variables(node)
     if var not in names:
-        raise QSeriesError(f"the expression does not mention the variable {var!r} that should "
-                           f"mark the statistic")
+        raise ArgumentError(f"the expression does not mention the variable {var!r} (var) "
+                            f"that should mark the statistic")
     others = sorted(names - {var})
     if others:
-        raise QSeriesError(f"the expression has other extra variables ({', '.join(others)}); "
-                           f"only {var!r} may remain")
-    if not sizes:
-        raise QSeriesError("give at least one size n")
-    if any(isinstance(n, bool) or not isinstance(n, int) for n in sizes):
-        raise QSeriesError("sizes must be integers")
-    if min(sizes) < 0 or max(sizes) > MAX_SIZE:
-        raise QSeriesError(f"sizes must lie in 0 .. {MAX_SIZE}")
+        raise ArgumentError(f"the expression has other extra variables ({', '.join(others)}); "
+                            f"only {var!r} may remain")
     order = max(sizes) + 1
     ring = laurent_ring((var,))
     try:
         s = Evaluator(ring).evaluate(node, order)
     except QSeriesError as err:
-        if getattr(err, "weights_may_help", False):
+        if err.weights_may_help:
             raise DomainError(f"the coefficient of each q^n must be a Laurent polynomial in "
                               f"{var} (a finite distribution), but this expression has a "
                               f"power series in {var} (such as 1/(1 - {var})) or a sum that "

@@ -1,17 +1,29 @@
 """Identity files (TOML), their validation with file:line errors, and batch verification.
 
+The shipped catalogue, ``SHIPPED``, is the folder ``identities/`` at the top of the
+repository; a wheel carries the same files as ``qseries/catalogue/identities/`` (see
+``[tool.setuptools]`` in pyproject.toml), which is used when it is there.
+
 >>> from qseries.catalogue import SHIPPED
->>> SHIPPED.name
-'identities'
+>>> SHIPPED.name, (SHIPPED / "rogers_ramanujan.toml").is_file()
+('identities', True)
 """
 
 from pathlib import Path
 
-from .files import Entry, IdentityFileError, load_entries, select
-from .verify import EntryResult, verify_entries, verify_entry
+from ..errors import IdentityFileError, TemplateError
+from .files import Entry, load_entries, select
+from .verify import EntryResult, VerifyInterrupted, verify_entries, verify_entry
+
+
+def _shipped() -> Path:
+    here = Path(__file__).resolve().parent
+    installed = here / "identities"          # inside a wheel
+    return installed if installed.is_dir() else here.parent.parent / "identities"
+
 
 #: the catalogue shipped with qseries
-SHIPPED = Path(__file__).resolve().parent.parent.parent / "identities"
+SHIPPED = _shipped()
 
-__all__ = ["SHIPPED", "Entry", "EntryResult", "IdentityFileError", "load_entries", "select",
-           "verify_entries", "verify_entry"]
+__all__ = ["SHIPPED", "Entry", "EntryResult", "IdentityFileError", "TemplateError",
+           "VerifyInterrupted", "load_entries", "select", "verify_entries", "verify_entry"]

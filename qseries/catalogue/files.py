@@ -20,6 +20,14 @@ weights     weights of extra variables, ``{c = 2, z = 1}``: z stands for z*q^w (
             ``qseries check --weight``); by default 0, or 1 for all when 0 fails
 =========== ==========================================================================
 
+``fails_at`` is an integer, or a fraction in a string such as ``"23/24"``.
+
+Limits: only regular files are read (a FIFO, socket or device named ``*.toml`` is refused
+with an error instead of being waited on), at most ``MAX_FILE_BYTES`` each; a family has at
+most ``MAX_MEMBERS`` members, counted before any member is made; expanding the templates
+and reading the members of one entry may take ``templates.MAX_STEPS`` steps, and all the
+files loaded together ``MAX_LOAD_STEPS``.
+
 >>> import tempfile, pathlib
 >>> d = pathlib.Path(tempfile.mkdtemp())
 >>> _ = (d / "x.toml").write_text('''
@@ -37,26 +45,34 @@ weights     weights of extra variables, ``{c = 2, z = 1}``: z stands for z*q^w (
 
 from __future__ import annotations
 
+import os
 import re
+import stat
 import tomllib
 from dataclasses import dataclass, field
+from fractions import Fraction
 from pathlib import Path
 
-from ..errors import ParseError, QSeriesError
+from ..errors import IdentityFileError, ParseError, QSeriesError, TemplateError
 from ..lang import parse
 from ..lang.ast import extra_variables
 from ..lang.parser import is_extra_variable
-from .templates import TemplateError, expand_template, integer_expression
+from .templates import Budget, expand_template, integer_expression
 
 REQUIRED = ("key", "title", "left", "right", "order", "source")
 OPTIONAL = ("tags", "params", "expect", "fails_at", "note", "corrects", "weights")
 MAX_MEMBERS = 500
 MAX_ORDER = 100_000
+MAX_FILE_BYTES = 1_000_000
+MAX_LOAD_STEPS = 20_000_000
+#: steps charged per character of a family member's side, for parsing it
+PARSE_STEPS = 2
 _KEY = re.compile(r"^[a-z0-9][a-z0-9-]*$")
+_EXPONENT = re.compile(r"^-?[0-9]{1,18}(/[0-9]{1,18})?$")
+_ASSIGNS_IDENTITY = re.compile(r"^\s*identity\s*=")
 
-
-class IdentityFileError(QSeriesError):
-    """A malformed identity file; the message starts with ``file:line:``."""
+__all__ = ["MAX_FILE_BYTES", "MAX_LOAD_STEPS", "MAX_MEMBERS", "MAX_ORDER", "Entry",
+           "IdentityFileError", "identity_files", "load_entries", "load_file", "select"]
 
 
 @dataclass(frozen=True)
@@ -106,8 +122,9 @@ def _entry_lines(text: str) -> list[tuple[int, dict[str, int]]]:
     return out
 
 
-def _ranges(spec: dict, where: str) -> list[dict[str, int]]:
-    """All parameter assignments of a family, in order."""
+def _ranges(spec: dict, where: str, budget: Budget) -> list[dict[str, int]]:
+    """All parameter assignments of a family, in order; the members are counted before any
+    is made (a range such as 1..10^18 is refused at once)."""
     assignments: list[dict[str, int]] = [{}]
     for name, rng in spec.items():
         if not (isinstance(name, str) and name.isalpha() and name.isascii()):
@@ -115,33 +132,85 @@ def _ranges(spec: dict, where: str) -> list[dict[str, int]]:
         if not isinstance(rng, str) or ".." not in rng:
             raise IdentityFileError(f"{where}: parameter {name} needs a range such as \"1..k\"")
         lo_text, hi_text = rng.split("..", 1)
-        nxt: list[dict[str, int]] = []
+        bounds: list[tuple[dict[str, int], int, int]] = []
+        members = 0
         for a in assignments:
             try:
-                lo = integer_expression(lo_text.strip(), a)
-                hi = integer_expression(hi_text.strip(), a)
+                lo = integer_expression(lo_text.strip(), a, budget)
+                hi = integer_expression(hi_text.strip(), a, budget)
+            except TemplateError as err:
+                raise IdentityFileError(f"{where}: {err}") from None
             except QSeriesError as err:
                 raise IdentityFileError(f"{where}: range of {name}: {err}") from None
-            nxt.extend({**a, name: v} for v in range(lo, hi + 1))
-            if len(nxt) > MAX_MEMBERS:
+            members += max(0, hi - lo + 1)
+            if members > MAX_MEMBERS:
                 raise IdentityFileError(f"{where}: more than {MAX_MEMBERS} family members")
-        assignments = nxt
+            bounds.append((a, lo, hi))
+        assignments = [{**a, name: v} for a, lo, hi in bounds for v in range(lo, hi + 1)]
     return assignments
 
 
-def _check_side(text: str, where: str) -> None:
+def _check_side(text: str, where: str):
     try:
-        parse(text)
+        return parse(text)
     except ParseError as err:
         raise IdentityFileError(f"{where}: {err}") from None
 
 
-def load_file(path: Path) -> list[Entry]:
-    """Entries of one identity file, families expanded, every side parsed."""
+def _read(path: Path) -> str:
+    """The text of a regular file of at most MAX_FILE_BYTES bytes.  The file is opened
+    without blocking and checked after opening, so a FIFO (even one put in place of a file
+    after it was listed) is refused instead of waited on."""
+    flags = os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_NOCTTY", 0)
     try:
-        text = path.read_text(encoding="utf-8")
-    except (OSError, UnicodeDecodeError) as err:
-        raise IdentityFileError(f"{path}: cannot read: {err}") from None
+        fd = os.open(path, flags)
+    except OSError as err:
+        raise IdentityFileError(f"{path}: cannot read: {err.strerror or err}") from None
+    try:
+        info = os.fstat(fd)
+        if not stat.S_ISREG(info.st_mode):
+            raise IdentityFileError(f"{path}: not a regular file (a folder, FIFO, socket or "
+                                    f"device); identity files must be regular files")
+        if info.st_size > MAX_FILE_BYTES:
+            raise IdentityFileError(f"{path}: larger than {MAX_FILE_BYTES} bytes; split it "
+                                    f"into several identity files")
+        with os.fdopen(fd, "rb", closefd=True) as f:
+            fd = -1
+            data = f.read(MAX_FILE_BYTES + 1)
+    except OSError as err:
+        raise IdentityFileError(f"{path}: cannot read: {err.strerror or err}") from None
+    finally:
+        if fd >= 0:
+            os.close(fd)
+    if len(data) > MAX_FILE_BYTES:
+        raise IdentityFileError(f"{path}: larger than {MAX_FILE_BYTES} bytes; split it into "
+                                f"several identity files")
+    try:
+        return data.decode("utf-8")
+    except UnicodeDecodeError as err:
+        raise IdentityFileError(f"{path}: cannot read: not UTF-8 text ({err.reason} at byte "
+                                f"{err.start})") from None
+
+
+def _fails_at(value: object, where: str) -> int | str:
+    """An exponent: an integer, or a fraction in a string such as "23/24"."""
+    if isinstance(value, int) and not isinstance(value, bool):
+        return value
+    if isinstance(value, str) and _EXPONENT.match(value.strip()):
+        number = value.strip()
+        if number.partition("/")[2].strip("0") or "/" not in number:
+            exponent = Fraction(number)
+            return exponent.numerator if exponent.denominator == 1 else str(exponent)
+    shown = repr(value) if len(repr(value)) <= 40 else repr(value)[:37] + "..."
+    raise IdentityFileError(f"{where}: fails_at must be an integer or a fraction in a string "
+                            f"such as \"23/24\" (the exponent of the first mismatch), not "
+                            f"{shown}")
+
+
+def load_file(path: Path, budget: Budget | None = None) -> list[Entry]:
+    """Entries of one identity file, families expanded, every side parsed; template work
+    is spent from ``budget`` (each entry has ``templates.MAX_STEPS`` steps of its own)."""
+    text = _read(path)
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as err:
@@ -151,8 +220,11 @@ def load_file(path: Path) -> list[Entry]:
         raise IdentityFileError(f"{path}:1: unknown top-level field(s) {sorted(unknown_top)}; "
                                 f"entries are [[identity]] tables")
     tables = data.get("identity", [])
-    if not isinstance(tables, list):
-        raise IdentityFileError(f"{path}:1: 'identity' must be an array of tables")
+    if not isinstance(tables, list) or not all(isinstance(t, dict) for t in tables):
+        line = next((n for n, raw in enumerate(text.splitlines(), start=1)
+                     if _ASSIGNS_IDENTITY.match(raw)), 1)
+        raise IdentityFileError(f"{path}:{line}: 'identity' must be an array of tables: "
+                                f"[[identity]] sections")
     lines = _entry_lines(text)
     entries: list[Entry] = []
     for idx, table in enumerate(tables):
@@ -190,6 +262,8 @@ def load_file(path: Path) -> list[Entry]:
                                     f"fails_at (the exponent of the first mismatch)")
         if expect == "holds" and fails_at is not None:
             raise IdentityFileError(f"{at('fails_at')}: fails_at goes with expect = \"fails\"")
+        if fails_at is not None:
+            fails_at = _fails_at(fails_at, at("fails_at"))
         for name in ("note", "corrects"):
             if not isinstance(table.get(name, ""), str):
                 raise IdentityFileError(f"{at(name)}: {name} must be a string")
@@ -197,16 +271,22 @@ def load_file(path: Path) -> list[Entry]:
         params = table.get("params")
         if params is not None and not isinstance(params, dict):
             raise IdentityFileError(f"{at('params')}: params must be a table of ranges")
-        assignments = _ranges(params, at("params")) if params else [{}]
+        steps = Budget(parent=budget, what="expanding the templates of this entry")
+        assignments = _ranges(params, at("params"), steps) if params else [{}]
         for values in assignments:
             sides = []
+            trees = []
             for name in ("left", "right"):
                 try:
-                    side = expand_template(table[name], values) if params else table[name]
+                    if params:
+                        side = expand_template(table[name], values, steps)
+                        steps.spend(PARSE_STEPS * len(side))
+                    else:
+                        side = table[name]
                 except TemplateError as err:
                     raise IdentityFileError(f"{at(name)}: {err}") from None
                 label = f"{at(name)}" + (f" (with {values})" if values else "")
-                _check_side(side, label)
+                trees.append(_check_side(side, label))
                 sides.append(side)
             entries.append(Entry(
                 key=table["key"], title=table["title"], left=sides[0], right=sides[1],
@@ -216,7 +296,7 @@ def load_file(path: Path) -> list[Entry]:
                 corrects=table.get("corrects", ""), family=table["key"] if params else "",
                 weights=weights))
             if weights is not None:
-                names = extra_variables(parse(sides[0])) | extra_variables(parse(sides[1]))
+                names = extra_variables(trees[0]) | extra_variables(trees[1])
                 stray = sorted(dict(weights).keys() - names)
                 if stray:
                     raise IdentityFileError(f"{at('weights')}: {stray[0]!r} is not an extra "
@@ -236,12 +316,13 @@ def _weights(value: object, where: str) -> tuple[tuple[str, int], ...] | None:
 
 
 def identity_files(paths: list[Path]) -> list[Path]:
-    """The .toml files named, or found (recursively) in the folders named, in order."""
+    """The .toml files named, or found (recursively) in the folders named, in order.  Names
+    that are not regular files (a FIFO, a device) are listed too: reading them is refused."""
     files: list[Path] = []
     for p in paths:
         if p.is_dir():
-            files.extend(sorted(p.rglob("*.toml")))
-        elif p.is_file():
+            files.extend(sorted(f for f in p.rglob("*.toml") if not f.is_dir()))
+        elif p.exists():
             files.append(p)
         else:
             raise IdentityFileError(f"{p}: no such file or folder")
@@ -249,11 +330,13 @@ def identity_files(paths: list[Path]) -> list[Path]:
 
 
 def load_entries(paths: list[Path] | list[str]) -> list[Entry]:
-    """All entries of the given files and folders; keys must be unique across them."""
+    """All entries of the given files and folders; keys must be unique across them.  The
+    template work of all of them together is at most ``MAX_LOAD_STEPS`` steps."""
     entries: list[Entry] = []
     seen: dict[str, str] = {}
+    budget = Budget(MAX_LOAD_STEPS, what="expanding the templates of all the files")
     for f in identity_files([Path(p) for p in paths]):
-        for e in load_file(f):
+        for e in load_file(f, budget):
             if e.key in seen and seen[e.key] != f"{e.path}:{e.line}":
                 raise IdentityFileError(f"{e.path}:{e.line}: key {e.key!r} is already used at "
                                         f"{seen[e.key]}")

@@ -9,6 +9,13 @@ A side of a family member is written once with parameters:
 
 Nothing is executed: arithmetic goes through the notation's parser and evaluator.
 
+Limits: one ``$repeat`` runs over at most ``MAX_REPEAT`` values, one expansion is at most
+``MAX_OUTPUT`` characters long, and the total work is bounded by a :class:`Budget` of
+``MAX_STEPS`` steps (a step is a character scanned or produced; each template or repeated
+body expanded costs ``CALL_STEPS`` more, each integer expression ``ARITHMETIC_STEPS``; a
+whole budget is at most a second or two of work), so that nested ``$repeat`` forms end in a
+:class:`TemplateError` instead of running for hours.
+
 >>> expand_template("sum_{n>=0} q^(n^2 + $(k-1) n)", {"k": 3})
 'sum_{n>=0} q^(n^2 + 2 n)'
 >>> expand_template("$repeat(j=1..k; (q;q)_n$j; )", {"k": 2})
@@ -17,29 +24,63 @@ Nothing is executed: arithmetic goes through the notation's parser and evaluator
 
 from __future__ import annotations
 
-from ..errors import QSeriesError
+from ..engine import Evaluator
+from ..errors import TemplateError
 from ..lang import parse
-from ..lang.evaluator import Evaluator
+
+MAX_OUTPUT = 50_000
+MAX_REPEAT = 200
+MAX_STEPS = 2_000_000
+CALL_STEPS = 10
+ARITHMETIC_STEPS = 50
+_MAX_OUTPUT = MAX_OUTPUT      # the former names
+_MAX_REPEAT = MAX_REPEAT
+
+__all__ = ["MAX_OUTPUT", "MAX_REPEAT", "MAX_STEPS", "Budget", "TemplateError",
+           "expand_template", "integer_expression"]
 
 
-class TemplateError(QSeriesError):
-    """A malformed template; ``position`` is the offset in the template text."""
+class Budget:
+    """Steps of template work left; :meth:`spend` raises :class:`TemplateError` when they
+    run out.  A budget with a ``parent`` spends from it too (the identity files use one
+    budget per entry inside one for everything loaded together).
 
-    def __init__(self, message: str, position: int = 0) -> None:
-        self.position = position
-        super().__init__(message)
+    >>> b = Budget(100)
+    >>> b.spend(60); b.left
+    40
+    >>> b.spend(60)  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    qseries.errors.TemplateError: expanding the templates takes more than 100 steps (...
+    """
+
+    def __init__(self, steps: int = MAX_STEPS, parent: Budget | None = None,
+                 what: str = "expanding the templates") -> None:
+        self.steps = steps
+        self.left = steps
+        self.parent = parent
+        self.what = what
+
+    def spend(self, steps: int, position: int = 0) -> None:
+        """Use ``steps`` steps; past the budget, raise TemplateError at ``position``."""
+        self.left -= steps
+        if self.left < 0:
+            raise TemplateError(f"{self.what} takes more than {self.steps} steps (nested "
+                                f"$repeat, long ranges or many family members); simplify "
+                                f"them or split the family", position)
+        if self.parent is not None:
+            self.parent.spend(steps, position)
 
 
-_MAX_OUTPUT = 50_000
-_MAX_REPEAT = 200
-
-
-def integer_expression(text: str, values: dict[str, int]) -> int:
-    """Evaluate an integer expression in the parameters (no q), safely.
+def integer_expression(text: str, values: dict[str, int], budget: Budget | None = None) -> int:
+    """Evaluate an integer expression in the parameters (no q), safely, spending from
+    ``budget`` if one is given.
 
     >>> integer_expression("2k+1-i", {"k": 3, "i": 2})
     5
     """
+    if budget is not None:
+        budget.spend(ARITHMETIC_STEPS + len(text))
     ev = Evaluator()
     node = parse(text, bound=values.keys())
     v = ev.scalar(node, dict(values))
@@ -82,14 +123,29 @@ def _name_at(text: str, i: int) -> str:
     return text[i:j]
 
 
-def expand_template(text: str, values: dict[str, int]) -> str:
-    """Expand every ``$...`` form of ``text`` with the given parameter values."""
+def expand_template(text: str, values: dict[str, int], budget: Budget | None = None) -> str:
+    """Expand every ``$...`` form of ``text`` with the given parameter values, spending from
+    ``budget`` (by default a fresh one of ``MAX_STEPS`` steps).
+
+    >>> expand_template("$repeat(i=1..3; x$i; +)", {})
+    'x1 + x2 + x3'
+    >>> expand_template("$repeat(a=1..200;$repeat(b=1..200;$repeat(c=1..200;;););)",
+    ...                 {})  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    qseries.errors.TemplateError: expanding the templates takes more than 2000000 steps (...
+    """
+    if budget is None:
+        budget = Budget()
+    budget.spend(CALL_STEPS + len(text))
     out: list[str] = []
+    size = 0          # characters in out (summing them at every form took quadratic time)
     i = 0
     while i < len(text):
         ch = text[i]
         if ch != "$":
             out.append(ch)
+            size += 1
             i += 1
             continue
         if text.startswith("$repeat(", i):
@@ -104,30 +160,36 @@ def expand_template(text: str, values: dict[str, int]) -> str:
             lo_text, dots, hi_text = rng.partition("..")
             if not var.isalpha() or not dots:
                 raise TemplateError("$repeat needs a range such as j=1..k-1", i)
-            lo = integer_expression(lo_text.strip(), values)
-            hi = integer_expression(hi_text.strip(), values)
+            lo = integer_expression(lo_text.strip(), values, budget)
+            hi = integer_expression(hi_text.strip(), values, budget)
             body = body.strip()
-            if hi - lo + 1 > _MAX_REPEAT:
-                raise TemplateError(f"$repeat over {hi - lo + 1} values (at most {_MAX_REPEAT})",
+            if hi - lo + 1 > MAX_REPEAT:
+                raise TemplateError(f"$repeat over {hi - lo + 1} values (at most {MAX_REPEAT})",
                                     i)
             items = []
+            length = 0
             for j in range(lo, hi + 1):
-                items.append(expand_template(body, {**values, var: j}))
-                if sum(len(x) for x in items) > _MAX_OUTPUT:
+                item = expand_template(body, {**values, var: j}, budget)
+                items.append(item)
+                length += len(item)
+                if length > MAX_OUTPUT:
                     raise TemplateError("the expanded template is too long", i)
-            out.append(sep.join(items) if sep.strip() == "" else f" {sep.strip()} ".join(items))
+            piece = sep.join(items) if sep.strip() == "" else f" {sep.strip()} ".join(items)
             i = close + 1
         elif text.startswith("$(", i):
             close = _matching(text, i + 1)
-            out.append(str(integer_expression(text[i + 2:close], values)))
+            piece = str(integer_expression(text[i + 2:close], values, budget))
             i = close + 1
         else:
             name = _name_at(text, i + 1)
             if not name or name not in values:
                 raise TemplateError(f"unknown template parameter ${name or text[i + 1:i + 2]}",
                                     i)
-            out.append(str(values[name]))
+            piece = str(values[name])
             i += 1 + len(name)
-        if sum(len(s) for s in out) > _MAX_OUTPUT:
+        out.append(piece)
+        size += len(piece)
+        if size > MAX_OUTPUT:
             raise TemplateError("the expanded template is too long", i)
+    budget.spend(size)
     return "".join(out)

@@ -1,7 +1,8 @@
 """The ``qseries`` command line: parse arguments, call the library, format the output.
 
 Exit codes: 0 success (for ``check``: the sides agree to the order), 1 a mismatch,
-2 bad input (a message on stderr, never a traceback).
+2 bad input (a message on stderr, never a traceback), 3 (``check``) inconclusive: no
+coefficient could be compared.
 """
 
 from __future__ import annotations
@@ -17,9 +18,9 @@ from typing import TYPE_CHECKING, Annotated, Any
 import typer
 
 from ..analysis import Distribution, diagnose, distributions, normal_moment, product_form
-from ..analysis.compare import CheckResult, check
+from ..analysis.compare import MAX_PRIMES, CheckResult, check
+from ..engine import evaluate
 from ..errors import QSeriesError
-from ..lang import evaluate
 from ..lang.parser import NOTATION_FORMS, is_extra_variable
 from ..products import FUNCTIONS
 from ..series import MAX_LENGTH, Series
@@ -135,7 +136,9 @@ def expand(
 
 
 def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
-    if r.first_mismatch is None:
+    if r.holds is None:
+        typer.echo(f"INCONCLUSIVE  {r.verdict}")
+    elif r.first_mismatch is None:
         typer.echo(f"AGREES  {r.verdict}")
     else:
         m = r.first_mismatch
@@ -147,9 +150,9 @@ def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
             typer.echo(line)
     for hint in diagnose(r):
         typer.echo(f"  hint ({hint.kind}): {hint.message}")
-    if r.order_verified != r.order_requested:
-        typer.echo(f"note: negative powers cost precision: only the coefficients below "
-                   f"q^{r.order_verified} could be compared, not q^{r.order_requested}")
+    if r.order_verified != r.order_requested and r.holds is False:   # else in the verdict
+        typer.echo(f"note: only the coefficients below q^{_exp_json(r.order_verified)} could "
+                   f"be compared, not q^{r.order_requested}: {r.shortfall}")
     typer.echo(f"  ({r.seconds:.3f} s)")
 
 
@@ -183,11 +186,14 @@ def check_cmd(
              "mismatch); auto: exact up to order 3000 (400 with extra variables), modular "
              "above.")] = Method.auto,
     primes: Annotated[int, typer.Option(
-        "--primes", min=1, max=20, help="How many primes the modular method uses.")] = 3,
+        "--primes", min=1, max=MAX_PRIMES,
+        help="How many primes the modular method uses.")] = 3,
     weight: WeightOption = None,
     as_json: JsonOption = False,
 ) -> None:
-    """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch.
+    """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch, 3 if no
+    coefficient could be compared (inconclusive: a side carries its own O(q^k) below the
+    coefficients asked for), 2 for bad input.
 
     Example: qseries check "sum_{k>=0} q^(k^2)/(q;q)_k" "1/((q;q^5)_inf (q^4;q^5)_inf)" -n 500
     """
@@ -200,7 +206,10 @@ def check_cmd(
         m = r.first_mismatch
         typer.echo(json.dumps({
             "holds": r.holds,
+            "reason": r.reason,
             "order": _exp_json(r.order_verified),
+            "order_requested": r.order_requested,
+            "shortfall": r.shortfall or None,
             "first_mismatch": None if m is None else {
                 "index": _exp_json(m.exponent),
                 "lhs": r.unweighted_text(m.lhs, m.exponent) if r.weighted else _num_text(m.lhs),
@@ -214,7 +223,7 @@ def check_cmd(
         }))
     else:
         _print_check(r, lhs, rhs)
-    raise typer.Exit(0 if r.holds else 1)
+    raise typer.Exit(3 if r.holds is None else 0 if r.holds else 1)
 
 
 @app.command()
@@ -411,14 +420,17 @@ def verify(
         "--order", "-n", min=1, max=MAX_LENGTH,
         help="Override every entry's default order.")] = None,
     jobs: Annotated[int | None, typer.Option(
-        "--jobs", "-j", min=1, help="Worker processes (default: all cores).")] = None,
+        "--jobs", "-j", min=1,
+        help="Worker processes (default: all cores; never more than the cores or the "
+             "entries).")] = None,
     only: Annotated[list[str] | None, typer.Option(
         "--only", help="Run only entries with this key, member id or tag (repeatable).")] = None,
     as_json: JsonOption = False,
 ) -> None:
     """Verify every identity of the given files; exit 0 when every entry behaves as its file
     says (holds, or fails exactly where it is recorded to fail), 1 otherwise, 2 for
-    malformed files.
+    malformed files.  Ctrl-C stops the workers, prints the entries that finished and exits
+    with 130.
 
     Example: qseries verify identities --only rogers-ramanujan -n 1000
     """
@@ -428,12 +440,13 @@ def verify(
     from rich.progress import Progress
     from rich.table import Table
 
-    from ..catalogue import verify_entries
+    from ..catalogue import VerifyInterrupted, verify_entries
 
     entries = _load(paths, only or [])
     t0 = time.perf_counter()
     console = Console()
     show_bar = console.is_terminal and not as_json
+    interrupted = False
     try:
         if show_bar:
             with Progress(console=console, transient=True) as bar:
@@ -442,6 +455,8 @@ def verify(
                                          progress=lambda _r: bar.advance(task))
         else:
             results = verify_entries(entries, order, jobs)
+    except VerifyInterrupted as stop:     # the workers are stopped; show what finished
+        results, interrupted = stop.results, True
     except KeyboardInterrupt:
         typer.echo("qseries: interrupted", err=True)
         raise typer.Exit(130) from None
@@ -449,11 +464,13 @@ def verify(
     n_ok = sum(r.ok for r in results)
     n_err = sum(bool(r.error) for r in results)
     if as_json:
-        typer.echo(json.dumps({
-            "results": [_result_json(r) for r in results],
-            "summary": {"entries": len(results), "ok": n_ok, "not_ok": len(results) - n_ok,
-                        "errors": n_err, "seconds": round(elapsed, 3)},
-        }))
+        summary: dict[str, Any] = {"entries": len(results), "ok": n_ok,
+                                   "not_ok": len(results) - n_ok, "errors": n_err,
+                                   "seconds": round(elapsed, 3)}
+        if interrupted:
+            summary.update(entries=len(entries), finished=len(results), interrupted=True)
+        typer.echo(json.dumps({"results": [_result_json(r) for r in results],
+                               "summary": summary}))
     else:
         table = Table(title=None, show_lines=False)
         for col in ("identifier", "verdict", "order", "seconds", "first mismatch"):
@@ -463,9 +480,15 @@ def verify(
             entry = by_ident[r.ident]
             table.add_row(r.ident, _verdict_text(r, entry.expect), _exp_text(r.order),
                           f"{r.seconds:.2f}", _mismatch_text(r))
-        console.print(table)
-        console.print(f"{n_ok} of {len(results)} entries behave as recorded "
-                      f"({elapsed:.1f} s); agreement to O(q^N) is evidence, not a proof")
+        if results:
+            console.print(table)
+        console.print(f"{n_ok} of {len(results)} {'finished ' if interrupted else ''}entries "
+                      f"behave as recorded ({elapsed:.1f} s); agreement to O(q^N) is "
+                      f"evidence, not a proof")
+    if interrupted:
+        typer.echo(f"qseries: interrupted: {len(results)} of {len(entries)} entries finished",
+                   err=True)
+        raise typer.Exit(130)
     raise typer.Exit(0 if n_ok == len(results) else 1)
 
 

@@ -8,15 +8,18 @@ True
 
 from .pochhammer import (
     euler_product,
+    exp_log_factors,
     gaussian_binomial,
     monomial_parts,
     pochhammer,
+    pochhammer_euler,
+    pochhammer_exp_log,
     theta_pair_parts,
     theta_pair_power,
     triple_product_sum,
 )
 from .registry import FUNCTIONS, FunctionEntry
 
-__all__ = ["FUNCTIONS", "FunctionEntry", "euler_product", "gaussian_binomial",
-           "monomial_parts", "pochhammer", "theta_pair_parts", "theta_pair_power",
-           "triple_product_sum"]
+__all__ = ["FUNCTIONS", "FunctionEntry", "euler_product", "exp_log_factors",
+           "gaussian_binomial", "monomial_parts", "pochhammer", "pochhammer_euler",
+           "pochhammer_exp_log", "theta_pair_parts", "theta_pair_power", "triple_product_sum"]

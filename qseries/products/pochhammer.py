@@ -23,11 +23,6 @@ from ..series import Ring, Series
 MAX_FACTORS = 10_000_000
 
 
-#: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
-#: computed as the exponential of its logarithm instead of factor by factor
-EXP_FACTORS = 24
-
-
 def monomial_parts(s: Series) -> tuple[int | Fraction, Fraction] | None:
     """(c, e) when s is the exact monomial c q^e, else None.
 
@@ -150,8 +145,85 @@ def _times_factor(acc: Series, a: Series, mono: tuple | None, shift: int, invert
     return (acc * factor).truncate(order)
 
 
-def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None = None) -> Series:
-    """(a; q^t)_n modulo q^order (exact when the result is a short polynomial).
+def pochhammer_euler(a: Series, t: int, order: int) -> Series | None:
+    """(+-q^(kt); q^t)_inf modulo q^order from Euler's product (``euler_product``): the
+    parameter +1 is (q^t;q^t)_inf / (q^t;q^t)_(k-1), the parameter -1 uses
+    (-q^t;q^t)_inf = (q^2t;q^2t)_inf / (q^t;q^t)_inf, then k - 1 binomial divisions.  None
+    when the parameter is not of that form.
+
+    >>> from qseries.series import ZZ
+    >>> pochhammer_euler(Series.monomial(2, ZZ, -1), 1, 6)      # (-q^2;q)_inf
+    1 + q^2 + q^3 + q^4 + 2q^5 + O(q^6)
+    >>> pochhammer_euler(Series.monomial(2, ZZ, 3), 1, 6) is None
+    True
+    """
+    ring = a.ring
+    mono = monomial_parts(a)
+    sign = _sign(mono[0], ring) if mono is not None else None
+    if sign is None or mono is None or mono[1].denominator != 1 or mono[1] < t or \
+            mono[1] % t != 0:
+        return None
+    if sign == 1:
+        acc = euler_product(t, ring, order)
+    else:
+        acc = (euler_product(2 * t, ring, order)
+               * euler_product(t, ring, order).inverse()).truncate(order)
+    for i in range(1, int(mono[1]) // t):
+        if t * i >= order:
+            break
+        acc = acc.div_binomial(sign, t * i, order)
+    return acc
+
+
+def pochhammer_exp_log(a: Series, t: int, order: int) -> Series | None:
+    """(c q^e; q^t)_inf modulo q^order as the exponential of its logarithm (``euler_log``
+    and the ring's ``exp_integral``), for c = +-1, or any residue modulo p, and e >= 0.
+    None when the parameter is not of that form or the ring has no exponential (a prime not
+    above the order, extra variables).
+
+    >>> from qseries.series import ZZ
+    >>> pochhammer_exp_log(Series.monomial(1, ZZ), 2, 8)      # (q;q^2)_inf
+    1 - q - q^3 + q^4 - q^5 + q^6 - q^7 + O(q^8)
+    """
+    ring = a.ring
+    mono = monomial_parts(a)
+    if mono is None or mono[1].denominator != 1 or mono[1] < 0:
+        return None
+    sign = _sign(mono[0], ring)
+    # modulo p any number c is a residue, and c^m modulo p stays small
+    c_exp = sign if sign is not None else (
+        int(mono[0]) % ring.modulus if ring.modulus is not None and isinstance(mono[0], int)
+        else None)
+    if c_exp is None:
+        return None
+    e0 = int(mono[1])
+    first = 1 - c_exp if e0 == 0 else 1        # the factor 1 - c q^0 is a number
+    if first == 0:
+        return None
+    got = _euler_transform(c_exp, e0 or t, t, ring, order)
+    if got is None:
+        return None
+    return got * first if first != 1 else got
+
+
+def exp_log_factors(a: Series, t: int, order: int) -> int:
+    """How many factors of (a; q^t)_inf lie below q^order for a monomial parameter (the
+    measure the chooser compares with its threshold for ``pochhammer_exp_log``); 0 when the
+    parameter is not a monomial with an integer exponent.
+
+    >>> exp_log_factors(Series.monomial(3), 2, 11)
+    4
+    """
+    mono = monomial_parts(a)
+    if mono is None or mono[1].denominator != 1 or mono[1] < 0:
+        return 0
+    return max(int(order - mono[1]) // t, 0)
+
+
+def pochhammer(a: Series, t: int, n: int | None, order: int) -> Series:
+    """(a; q^t)_n modulo q^order factor by factor (exact when the result is a short
+    polynomial): the reference the fast variants ``pochhammer_euler`` and
+    ``pochhammer_exp_log`` are tested against.
 
     ``n = None`` is the infinite product; it needs val(a) > 0 or t > 0 to converge and stops
     when the remaining factors are 1 + O(q^order).
@@ -167,35 +239,7 @@ def pochhammer(a: Series, t: int, n: int | None, order: int, ring: Ring | None =
     """
     if t < 1:
         raise UnableError("the base of a q-Pochhammer symbol must be q^t with t >= 1")
-    ring = ring or a.ring
     mono = monomial_parts(a)
-    sign = _sign(mono[0], ring) if mono is not None and ring == a.ring else None
-    if mono is not None and n is None and sign is not None and \
-            mono[1].denominator == 1 and mono[1] >= t and mono[1] % t == 0:
-        # (+-q^(kt);q^t)_inf = (+-q^t;q^t)_inf / (+-q^t;q^t)_(k-1): Euler's product, and
-        # (-q^t;q^t)_inf = (q^2t;q^2t)_inf / (q^t;q^t)_inf, then k-1 binomial divisions
-        if sign == 1:
-            acc = euler_product(t, ring, order)
-        else:
-            acc = (euler_product(2 * t, ring, order)
-                   * euler_product(t, ring, order).inverse()).truncate(order)
-        for i in range(1, int(mono[1]) // t):
-            if t * i >= order:
-                break
-            acc = acc.div_binomial(sign, t * i, order)
-        return acc
-    # modulo p any number c is a residue, and c^m modulo p stays small
-    c_exp = sign if sign is not None else (
-        int(mono[0]) % ring.modulus if mono is not None and ring == a.ring and
-        ring.modulus is not None and isinstance(mono[0], int) else None)
-    if mono is not None and n is None and c_exp is not None and mono[1].denominator == 1 and \
-            0 <= mono[1] and (order - mono[1]) // t >= EXP_FACTORS:
-        e0 = int(mono[1])
-        first = 1 - c_exp if e0 == 0 else 1        # the factor 1 - c q^0 is a number
-        if first != 0:
-            got = _euler_transform(c_exp, e0 or t, t, ring, order)
-            if got is not None:
-                return got * first if first != 1 else got
     acc = _one(a.ring)
     if n is None:
         va = a.valuation

@@ -9,8 +9,8 @@ precision (``None`` when the series is an exact polynomial, such as ``q`` or ``1
 Every operation propagates the precision honestly: ``q^-5 * f`` loses 5, dividing by a series
 of valuation ``v > 0`` loses ``v``, adding takes the minimum.
 
-The coefficient ring is a backend of :mod:`qseries._flint` (ZZ, QQ or GF(p)); there is no
-global precision or ring.
+The coefficient ring is a backend of :mod:`qseries._flint` (ZZ, QQ, GF(p) or Laurent
+polynomials in extra variables); there is no global precision or ring.
 
 >>> from qseries.series import Series, ZZ
 >>> f = Series.from_coefficients([1, -1], ZZ)          # 1 - q, exact
@@ -19,16 +19,59 @@ global precision or ring.
 1 + q + q^2 + q^3 + q^4 + q^5 + O(q^6)
 >>> (g * Series.monomial(-2, ZZ)).precision            # q^-2 * g is known to O(q^4)
 4
+
+A series is indexed and sliced by exponents, not by positions: ``f[e]`` is the coefficient
+of q^e (any integer or Fraction e below the precision, zero where there is no term) and
+``f[a:b]`` is the exact polynomial of the terms with a <= e < b (``f[a:]``, the tail, keeps
+the precision).  Asking for anything at or beyond the precision raises
+:class:`~qseries.errors.PrecisionError`: it is unknown, not zero.
+
+>>> f = Series.from_coefficients([1, 0, 1, 1], start=-2, prec=5)
+>>> f[-2], f[3]
+(1, 0)
+>>> f[0:3]
+1 + q
+>>> f[1:]
+q + O(q^5)
+
+A series is not a Python container: ``iter``, ``len`` and ``in`` are refused with a
+TypeError, because no reading of them is both finite and faithful (an exact series has
+infinitely many coefficients, a truncated one may start below q^0 or at q^(1/24)).  Use
+``f.terms()`` (the known nonzero terms), ``f.coefficient_list(n, start)`` or ``f[a:b]``.
+
+>>> list(f.terms())
+[(-2, 1), (0, 1), (1, 1)]
+
+``f == g`` holds when both have the same precision (both exact, or the same O(q^N)) and the
+same known terms, their rings being combinable as in arithmetic (ZZ inside QQ); a number
+stands for the exact constant series.  So ``1 + O(q^5) != 1``: to compare below an order,
+use ``equal_to``, which refuses an order beyond what is known on either side.
+
+>>> Series.constant(1) == 1, Series.constant(1) + Series.zero(prec=5) == 1
+(True, False)
+>>> (Series.constant(1) + Series.zero(prec=5)).equal_to(1, 5)
+True
 """
 
 from __future__ import annotations
 
+import numbers
 from collections.abc import Iterator
 from fractions import Fraction
-from typing import Any
+from typing import Any, NoReturn, overload
 
-from .._flint import QQ, ZZ, LaurentPoly, Ring, join_rings
-from ..errors import DomainError, IncompatibleRingError, UnableError, weight_may_help
+from .._flint import GF, QQ, ZZ, LaurentPoly, Ring, join_rings, laurent_ring
+from ..errors import (
+    ArgumentError,
+    ArgumentTypeError,
+    DomainError,
+    IncompatibleRingError,
+    PrecisionError,
+    QSeriesError,
+    UnableError,
+    weight_may_help,
+)
+from .formatting import format_exponent
 
 Number = int | Fraction
 Exponent = int | Fraction
@@ -48,7 +91,38 @@ def _as_number(x: Any) -> Number:
         return x.numerator if x.denominator == 1 else x
     if isinstance(x, LaurentPoly):   # a coefficient involving extra variables
         return x
+    if isinstance(x, numbers.Rational):   # sympy's Integer and Rational, among others
+        return _exact(x)
     raise TypeError(f"cannot use {type(x).__name__} as a coefficient")
+
+
+def _exact(x: numbers.Rational) -> Number:
+    """A numbers.Rational as a Python int or Fraction."""
+    n, d = int(x.numerator), int(x.denominator)
+    return n if d == 1 else Fraction(n, d)
+
+
+def _as_exponent(x: Any, what: str = "an exponent") -> Exponent:
+    """x as an int or Fraction; floats (inexact), strings and booleans are refused."""
+    if isinstance(x, bool) or not isinstance(x, numbers.Rational):
+        text = repr(x)
+        text = text if len(text) <= 40 else text[:37] + "..."
+        raise ArgumentTypeError(f"{what} must be an integer or a Fraction, not {text} "
+                                f"({type(x).__name__})")
+    return x if type(x) is int else _exact(x)
+
+
+def _ceil(x: Exponent) -> int:
+    x = Fraction(x)
+    return -((-x.numerator) // x.denominator)
+
+
+def _power_text(e: Exponent) -> str:
+    return "q^0" if e == 0 else format_exponent(e)
+
+
+def _big_o(p: Exponent) -> str:
+    return f"O({_power_text(p)})"
 
 
 def _min_prec(*ps: int | None) -> int | None:
@@ -68,7 +142,7 @@ def _align_offsets(a: Series, b: Series) -> tuple[Series, Series]:
                 p = bound.numerator // bound.denominator
                 if p < bound:
                     p += 1
-                z = Series(y.ring, y.ring.zero(), p, y.offset, p)
+                z = Series(y.ring, y.ring.zero(), p, y.offset, p, x.precision)
             return (z, y) if x is a else (y, z)
     raise IncompatibleRingError(
         f"cannot add series whose exponents differ by a non-integer "
@@ -85,10 +159,10 @@ def _split_exponent(e: Exponent) -> tuple[int, Fraction]:
 class Series:
     """An immutable truncated series; see the module docstring for its meaning."""
 
-    __slots__ = ("ring", "poly", "start", "offset", "prec")
+    __slots__ = ("ring", "poly", "start", "offset", "prec", "cap")
 
     def __init__(self, ring: Ring, poly: Any, start: int, offset: Fraction | int = 0,
-                 prec: int | None = None) -> None:
+                 prec: int | None = None, cap: Exponent | None = None) -> None:
         offset = Fraction(offset)
         if not 0 <= offset < 1:
             raise ValueError("offset must lie in [0, 1)")
@@ -110,6 +184,11 @@ class Series:
         self.start = start
         self.offset = offset
         self.prec = prec
+        #: an absolute precision below offset + prec, where the exponents of the series' class
+        #: cannot express it: eta(q) + O(q^12) is known below q^12, not below q^(12+1/24)
+        self.cap: Fraction | None = None
+        if prec is not None and cap is not None and Fraction(cap) < offset + prec:
+            self.cap = Fraction(cap)
 
     # -- constructors ------------------------------------------------------------------
     @classmethod
@@ -183,7 +262,7 @@ class Series:
         """
         if self.prec is None:
             return None
-        p = self.prec + self.offset
+        p = self.prec + self.offset if self.cap is None else self.cap
         return p.numerator if p.denominator == 1 else p
 
     @property
@@ -211,15 +290,23 @@ class Series:
         return None if self.is_zero() else self.start
 
     def coefficient(self, e: Exponent) -> Number:
-        """The coefficient of q^e; an error if it lies beyond the precision.
+        """The coefficient of q^e (0 where the series has no term); a
+        :class:`~qseries.errors.PrecisionError` at or beyond the precision, where it is
+        unknown.
 
-        >>> Series.from_coefficients([1, 1, 2, 3, 5], prec=5).coefficient(4)
-        5
+        >>> f = Series.from_coefficients([1, 1, 2, 3, 5], prec=5)
+        >>> f.coefficient(4), f.coefficient(-1), f.coefficient(Fraction(1, 2))
+        (5, 0, 0)
+        >>> f.coefficient(5)  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        qseries.errors.PrecisionError: the coefficient of q^5 lies beyond the precision O(q^5): ...
         """
+        e = _as_exponent(e)
         n, f = _split_exponent(e)
-        if self.prec is not None and Fraction(e) >= self.prec + self.offset:
-            raise DomainError(f"the coefficient of q^{e} lies beyond the precision "
-                              f"O(q^{self.precision})")
+        if self.prec is not None and e >= self.prec + self.offset:
+            raise PrecisionError(f"the coefficient of {_power_text(e)} lies beyond the "
+                                 f"precision {_big_o(self.precision)}: it is not known")
         if f != self.offset:
             return 0
         i = n - self.start
@@ -227,8 +314,93 @@ class Series:
             return 0
         return self.ring.to_number(self.ring.coeff(self.poly, i))
 
-    def __getitem__(self, e: Exponent) -> Number:
+    @overload
+    def __getitem__(self, e: slice) -> Series: ...
+
+    @overload
+    def __getitem__(self, e: Exponent) -> Number: ...
+
+    def __getitem__(self, e: slice | Exponent) -> Series | Number:
+        """``f[e]`` is ``f.coefficient(e)``; ``f[a:b]`` is the exact polynomial of the terms
+        with exponents a <= e < b (refused when b lies beyond the precision); ``f[a:]`` is
+        the tail from q^a on, with the precision of f (and at least a).
+
+        >>> f = Series.monomial(Fraction(1, 2)) * Series.from_coefficients([1, 2, 3], prec=3)
+        >>> f[Fraction(3, 2)], f[0:2], f[2:]
+        (2, q^(1/2) + 2q^(3/2), 3q^(5/2) + O(q^(7/2)))
+        >>> f[0:4]  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        qseries.errors.PrecisionError: f[0:4] reaches q^4, beyond the precision O(q^(7/2)): ...
+        """
+        if isinstance(e, slice):
+            return self._slice(e)
         return self.coefficient(e)
+
+    def _slice(self, sl: slice) -> Series:
+        if sl.step is not None:
+            raise ArgumentError("a series is sliced by exponents, f[a:b], without a step")
+        lo = None if sl.start is None else _as_exponent(sl.start, "a slice bound")
+        hi = None if sl.stop is None else _as_exponent(sl.stop, "a slice bound")
+        if hi is not None and self.prec is not None and hi > self.prec + self.offset:
+            shown = f"{'' if lo is None else lo}:{hi}"
+            raise PrecisionError(f"f[{shown}] reaches {_power_text(hi)}, beyond the precision "
+                                 f"{_big_o(self.precision)}: coefficients from there on are "
+                                 f"not known")
+        R, poly, prec = self.ring, self.poly, self.prec
+        if hi is not None:        # exponents offset + k with k < ceil(hi - offset)
+            poly = R.truncate(poly, _ceil(hi - self.offset) - self.start)
+            prec = None
+        if lo is not None:
+            k_lo = _ceil(lo - self.offset)
+            if k_lo > self.start:
+                poly = poly - R.truncate(poly, k_lo - self.start)
+            if prec is not None:  # the tail is known to vanish below q^lo
+                prec = max(prec, k_lo)
+        return Series(R, poly, self.start, self.offset, prec)
+
+    def __iter__(self) -> NoReturn:
+        """Refused: a series is not a sequence (see the module docstring).
+
+        >>> iter(Series.constant(1))  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        TypeError: a series is not iterable: iterate over f.terms() (its known nonzero terms), ...
+        """
+        raise TypeError("a series is not iterable: iterate over f.terms() (its known nonzero "
+                        "terms), or use f.coefficient_list(n, start) or f[a:b]")
+
+    def __contains__(self, item: object) -> NoReturn:
+        """Refused: ``x in f`` could mean an exponent, a coefficient or a term.
+
+        >>> 5 in Series.constant(1)  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        TypeError: `x in series` is not defined (an exponent? a coefficient? a term?): use ...
+        """
+        raise TypeError("`x in series` is not defined (an exponent? a coefficient? a term?): "
+                        "use f.coefficient(e), f.terms() or f.valuation")
+
+    def __len__(self) -> NoReturn:
+        """Refused: an exact series has infinitely many coefficients, and a truncated one
+        need not start at q^0.
+
+        >>> len(Series.zero(prec=3))  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        TypeError: a series has no length: use f.coefficient_list(n, start), ...
+        """
+        raise TypeError("a series has no length: use f.coefficient_list(n, start), "
+                        "f.precision or f.terms()")
+
+    def __bool__(self) -> bool:
+        """Always True, as for any object (``s or t`` picks s whenever s is a series); whether
+        a series vanishes is ``is_zero()`` (to its precision) or ``s == 0`` (exactly).
+
+        >>> bool(Series.zero()), Series.zero() == 0
+        (True, True)
+        """
+        return True
 
     def terms(self) -> Iterator[tuple[Exponent, Number]]:
         """The nonzero known terms as (exponent, coefficient), in increasing order.
@@ -241,31 +413,79 @@ class Series:
                 e = self.start + i + self.offset
                 yield (e.numerator if e.denominator == 1 else e), c
 
-    def coefficient_list(self, n: int) -> list[Number]:
-        """Coefficients of q^(offset + k) for k = 0 .. n-1 (the offset must be 0 or given).
+    def coefficient_list(self, n: int, start: Exponent = 0) -> list[Number]:
+        """The coefficients of q^start, q^(start+1), ..., q^(start+n-1): the whole series
+        below q^(start+n).  Refused (:class:`~qseries.errors.ArgumentError`) when the series
+        has a known nonzero term that the list would not show: below ``start``, or at an
+        exponent that differs from ``start`` by a non-integer (pass ``start=f.valuation``);
+        a :class:`~qseries.errors.PrecisionError` when q^(start+n-1) lies beyond the
+        precision.  For a window that drops terms, slice: ``f[a:b]``.
 
         >>> Series.from_coefficients([1, 2], prec=5).coefficient_list(4)
         [1, 2, 0, 0]
+        >>> f = Series.from_coefficients([1, 0, 1, 1], start=-2)        # q^-2 + 1 + q
+        >>> f.coefficient_list(3)  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentError: the series has a term in q^-2, below start=0, ...
+        >>> f.coefficient_list(5, start=-2)
+        [1, 0, 1, 1, 0]
+        >>> (Series.monomial(Fraction(1, 24)) * f).coefficient_list(3, start=Fraction(-47, 24))
+        [1, 0, 1]
         """
-        if self.prec is not None and n > self.prec:
-            raise DomainError(f"only {self.prec} coefficients are known (asked for {n})")
-        coeffs = self.ring.coefficients(self.poly)
-        out: list[Number] = [0] * max(n, 0)
-        for i, c in enumerate(coeffs):
-            k = self.start + i
-            if 0 <= k < n:
-                out[k] = c
+        if isinstance(n, bool) or not isinstance(n, numbers.Integral):
+            raise ArgumentTypeError(f"n must be an integer, not {type(n).__name__}")
+        n = int(n)
+        s = _as_exponent(start, "start")
+        if n <= 0:
+            return []
+        last = s + n - 1
+        if self.prec is not None and last >= self.prec + self.offset:
+            raise PrecisionError(f"the coefficients of {_power_text(s)} .. "
+                                 f"{_power_text(last)} are asked for, but the series is known "
+                                 f"only to {_big_o(self.precision)}")
+        if self.is_zero():
+            return [0] * n
+        v = self.valuation
+        assert v is not None
+        if Fraction(v - s).denominator != 1 or v < s:
+            where = "below" if v < s else "off the exponents listed from"
+            raise ArgumentError(f"the series has a term in {_power_text(v)}, {where} "
+                                f"start={s}, that the list would not show: pass start={v} "
+                                f"(its valuation), or slice f[a:b] for a window")
+        base = int(v - s)             # the position of the first term in the list
+        R = self.ring
+        coeffs = R.coefficients(R.truncate(self.poly, n - base))
+        out: list[Number] = [0] * n
+        out[base:base + len(coeffs)] = coeffs
         return out
 
     # -- internal helpers ------------------------------------------------------------------
     def _with(self, poly: Any, start: int, offset: Fraction, prec: int | None,
-              ring: Ring | None = None) -> Series:
-        return Series(ring or self.ring, poly, start, offset, prec)
+              ring: Ring | None = None, cap: Exponent | None = None) -> Series:
+        return Series(ring or self.ring, poly, start, offset, prec, cap)
+
+    def _capped(self, absolute: Exponent | None) -> Series:
+        """self with its absolute precision at most ``absolute`` where the class of its
+        exponents cannot express it (see ``cap``)."""
+        p = self.precision
+        if absolute is None or p is None or absolute >= p:
+            return self
+        return Series(self.ring, self.poly, self.start, self.offset, self.prec, absolute)
+
+    def _operand(self, other: Any) -> Series | None:
+        """other as a series (numbers become exact constants in a ring holding them), or None
+        for an object arithmetic does not know (the caller returns NotImplemented)."""
+        if isinstance(other, Series):
+            return other
+        if isinstance(other, bool) or not isinstance(other, (numbers.Rational, LaurentPoly)):
+            return None
+        return self._coerce(other)
 
     def _coerce(self, other: Any) -> Series:
         if isinstance(other, Series):
             return other
-        if isinstance(other, (int, Fraction, LaurentPoly)) and not isinstance(other, bool):
+        if isinstance(other, (numbers.Rational, LaurentPoly)) and not isinstance(other, bool):
             c = _as_number(other)
             ring = self.ring
             if isinstance(c, Fraction) and c.denominator != 1:
@@ -283,7 +503,8 @@ class Series:
         """
         if ring == self.ring:
             return self
-        return self._with(ring.convert(self.poly), self.start, self.offset, self.prec, ring)
+        return self._with(ring.convert(self.poly), self.start, self.offset, self.prec, ring,
+                          cap=self.cap)
 
     def _joined(self, other: Series) -> tuple[Series, Series]:
         ring = join_rings(self.ring, other.ring)
@@ -291,13 +512,15 @@ class Series:
 
     # -- arithmetic ------------------------------------------------------------------------
     def __neg__(self) -> Series:
-        return self._with(-self.poly, self.start, self.offset, self.prec)
+        return self._with(-self.poly, self.start, self.offset, self.prec, cap=self.cap)
 
     def __pos__(self) -> Series:
         return self
 
     def __add__(self, other: Any) -> Series:
-        other = self._coerce(other)
+        other = self._operand(other)
+        if other is None:
+            return NotImplemented
         a, b = self._joined(other)
         if a.offset != b.offset:
             a, b = _align_offsets(a, b)
@@ -316,18 +539,23 @@ class Series:
         for x in (a, b):
             px = x.poly if prec is None else R.truncate(x.poly, prec - x.start)
             polys.append(R.shift_up(px, x.start - s) if R.length(px) else px)
-        return Series(R, polys[0] + polys[1], s, a.offset, prec)
+        return Series(R, polys[0] + polys[1], s, a.offset, prec)._capped(
+            _min_prec(a.precision, b.precision))
 
     __radd__ = __add__
 
     def __sub__(self, other: Any) -> Series:
-        return self + (-self._coerce(other))
+        other = self._operand(other)
+        return NotImplemented if other is None else self + (-other)
 
     def __rsub__(self, other: Any) -> Series:
-        return self._coerce(other) + (-self)
+        other = self._operand(other)
+        return NotImplemented if other is None else other + (-self)
 
     def __mul__(self, other: Any) -> Series:
-        other = self._coerce(other)
+        other = self._operand(other)
+        if other is None:
+            return NotImplemented
         a, b = self._joined(other)
         R = a.ring
         va, vb = a._val_int(), b._val_int()
@@ -352,7 +580,7 @@ class Series:
         carry = 1 if off >= 1 else 0
         off -= carry
         if va is None or vb is None:
-            return Series(R, R.zero(), 0, 0, prec + carry if prec is not None else None)
+            return Series(R, R.zero(), 0, off, prec + carry if prec is not None else None)
         start = va + vb + carry
         if prec is None:
             if R.length(a.poly) + R.length(b.poly) > MAX_LENGTH:
@@ -361,7 +589,12 @@ class Series:
         else:
             prec += carry
             poly = R.mul_low(a.poly, b.poly, prec - start)
-        return Series(R, poly, start, off, prec)
+        out = Series(R, poly, start, off, prec)
+        if a.cap is None and b.cap is None:
+            return out
+        absolute = [x.precision + y.valuation for x, y in ((a, b), (b, a))  # type: ignore[operator]
+                    if x.precision is not None and y.valuation is not None]
+        return out._capped(min(absolute, default=None))
 
     __rmul__ = __mul__
 
@@ -402,7 +635,8 @@ class Series:
             off -= 1
             n += 1
         prec = None if self.prec is None else self.prec + n
-        return self._with(self.poly, self.start + n, off, prec)
+        return self._with(self.poly, self.start + n, off, prec,
+                          cap=None if self.cap is None else self.cap + Fraction(e))
 
     def truncate(self, order: int) -> Series:
         """The series modulo q^order (precision becomes at most ``order``, measured from the
@@ -415,7 +649,7 @@ class Series:
             return self
         if self.prec is None and self.start + self.ring.length(self.poly) <= order:
             return self
-        return self._with(self.poly, self.start, self.offset, order)
+        return self._with(self.poly, self.start, self.offset, order, cap=self.cap)
 
     def _unit_part(self) -> tuple[int, Any, int | None]:
         """(v, u, r): self = q^(offset+v) * u(q) with u[0] != 0, u known to relative length r."""
@@ -465,11 +699,12 @@ class Series:
         return Series(R, R.inv_series(u, r), -v - carry, neg_off, prec)
 
     def __truediv__(self, other: Any) -> Series:
-        other = self._coerce(other)
-        return self * other.inverse()
+        other = self._operand(other)
+        return NotImplemented if other is None else self * other.inverse()
 
     def __rtruediv__(self, other: Any) -> Series:
-        return self._coerce(other) * self.inverse()
+        other = self._operand(other)
+        return NotImplemented if other is None else other * self.inverse()
 
     def divide(self, other: Series, order: int | None = None) -> Series:
         """self/other, with ``order`` bounding the expansion where other is a polynomial.
@@ -485,7 +720,9 @@ class Series:
         return (self * other.inverse(inv_order)).truncate(order) if order is not None else \
             self * other.inverse()
 
-    def __pow__(self, e: int) -> Series:
+    def __pow__(self, e: Any) -> Series:
+        if isinstance(e, bool) or not isinstance(e, numbers.Number):
+            return NotImplemented
         return self.power(e)
 
     def power(self, e: int, order: int | None = None) -> Series:
@@ -494,6 +731,8 @@ class Series:
         >>> Series.from_coefficients([1, 1], prec=4).power(3)
         1 + 3q + 3q^2 + q^3 + O(q^4)
         """
+        if isinstance(e, numbers.Integral) and not isinstance(e, bool):
+            e = int(e)
         if isinstance(e, bool) or not isinstance(e, int):
             raise UnableError(f"only integer powers of a series are supported (got {e})")
         if e < 0:
@@ -550,11 +789,11 @@ class Series:
         >>> Series.constant(1).limit_precision(3)
         1 + O(q^3)
         """
-        if self.prec is not None and self.prec + self.offset <= order:
+        if self.prec is not None and self.precision <= order:  # type: ignore[operator]
             return self
         k = Fraction(order) - self.offset
         prec = k.numerator // k.denominator + (1 if k.denominator != 1 else 0)
-        return Series(self.ring, self.poly, self.start, self.offset, prec)
+        return Series(self.ring, self.poly, self.start, self.offset, prec, order)
 
     def mul_binomial(self, c: Number, j: int, order: int | None = None) -> Series:
         """self * (1 - c q^j) for an integer j >= 1 in O(length) work.
@@ -607,15 +846,88 @@ class Series:
 
     # -- comparison --------------------------------------------------------------------------
     def __eq__(self, other: object) -> bool:
-        """Structural equality: same ring, offset, precision and known coefficients."""
-        if not isinstance(other, Series):
+        """The same truncated series: the same precision (both exact, or the same O(q^N))
+        and the same known terms, compared in the ring joining both rings (ZZ inside QQ).
+        Series over rings that arithmetic cannot combine (ZZ and GF(p)) are unequal.  A
+        number (or a scalar in extra variables) stands for the exact constant series in this
+        series' ring, as in arithmetic (over GF(7), 8 is 1).
+
+        >>> one = Series.constant(1)
+        >>> one == 1, one == Series.constant(1, QQ), one == one + Series.zero(prec=3)
+        (True, True, False)
+        """
+        if isinstance(other, Series):
+            return self._same(other)
+        if isinstance(other, bool) or not isinstance(other, (numbers.Rational, LaurentPoly)):
             return NotImplemented
-        return (self.ring == other.ring and self.offset == other.offset
-                and self.prec == other.prec and self.start == other.start
-                and self.poly == other.poly)
+        try:
+            return self._same(self._coerce(other))
+        except QSeriesError:     # a number this ring cannot hold (1/7 in GF(7))
+            return False
+
+    def _same(self, other: Series) -> bool:
+        if self.precision != other.precision:
+            return False
+        try:
+            R = join_rings(self.ring, other.ring)
+        except QSeriesError:
+            return False
+        if self.is_zero() or other.is_zero():
+            return self.is_zero() and other.is_zero()
+        if self.offset != other.offset or self.start != other.start or \
+                self.ring.length(self.poly) != other.ring.length(other.poly):
+            return False
+        return bool(R.convert(self.poly) == R.convert(other.poly))
 
     def __hash__(self) -> int:
-        return hash((self.start, self.offset, self.prec, str(self.poly)))
+        """Equal series hash alike, and an exact constant c hashes as c (except that over
+        GF(p) c hashes as its residue only, as modular numbers do elsewhere)."""
+        if self.is_zero():
+            return hash(0) if self.prec is None else hash(("O", self.precision))
+        R = self.ring
+        lead = R.to_number(R.coeff(self.poly, 0))
+        n = R.length(self.poly)
+        if self.prec is None and self.start == 0 and self.offset == 0 and n == 1:
+            return hash(lead)
+        return hash((self.valuation, self.precision, n, lead))
+
+    def equal_to(self, other: Series | Number, order: Exponent) -> bool:
+        """Whether self and other have the same coefficients below q^order.  Both must be
+        known to that order: a :class:`~qseries.errors.PrecisionError` otherwise (an unknown
+        coefficient is neither equal nor unequal); an
+        :class:`~qseries.errors.IncompatibleRingError` for rings that cannot be combined.
+
+        >>> f = Series.from_coefficients([1, 1, 0, 5], prec=4)
+        >>> f.equal_to(Series.from_coefficients([1, 1]), 3), f.equal_to(1, 2)
+        (True, False)
+        >>> f.equal_to(1, 5)
+        Traceback (most recent call last):
+        ...
+        qseries.errors.PrecisionError: the left series is known only to O(q^4), not to O(q^5)
+        """
+        o = self._operand(other)
+        if o is None:
+            raise ArgumentTypeError(f"cannot compare a series with {type(other).__name__}")
+        n = _as_exponent(order, "order")
+        for side, s in (("left", self), ("right", o)):
+            if s.prec is not None and s.prec + s.offset < n:
+                raise PrecisionError(f"the {side} series is known only to "
+                                     f"{_big_o(s.precision)}, not to {_big_o(n)}")
+        a, b = self._joined(o)
+        return a[:n]._same(b[:n])
+
+    def __reduce__(self) -> tuple[Any, tuple[Any, ...]]:
+        """Pickled as plain data (the ring's name, modulus or variable names, and the
+        coefficients as Python numbers), so that it unpickles to an equal series over the
+        same ring object in any process."""
+        return _unpickle, (_ring_key(self.ring), _poly_data(self.ring, self.poly),
+                           self.start, self.offset, self.prec, self.cap)
+
+    def __copy__(self) -> Series:
+        return self          # immutable
+
+    def __deepcopy__(self, memo: dict[int, Any]) -> Series:
+        return self
 
     def __repr__(self) -> str:
         from .formatting import format_series
@@ -623,3 +935,68 @@ class Series:
 
     def __str__(self) -> str:
         return self.__repr__()
+
+
+# -- pickling ------------------------------------------------------------------------------
+def _ring_key(ring: Ring) -> tuple[Any, ...]:
+    if ring is ZZ:
+        return ("ZZ",)
+    if ring is QQ:
+        return ("QQ",)
+    if ring.modulus is not None:
+        return ("GF", ring.modulus)
+    names = getattr(ring, "names", None)
+    if names is not None:
+        return ("L", tuple(names), bool(getattr(ring, "rational", False)))
+    raise UnableError(f"cannot pickle a series over {ring.name}")
+
+
+def _ring_from_key(key: tuple[Any, ...]) -> Ring:
+    kind = key[0]
+    if kind == "ZZ":
+        return ZZ
+    if kind == "QQ":
+        return QQ
+    if kind == "GF":
+        return GF(key[1])
+    if kind == "L":
+        return laurent_ring(tuple(key[1]), rational=key[2])
+    raise UnableError(f"unknown ring {key!r} in pickled data")
+
+
+def _poly_data(ring: Ring, poly: Any) -> list[Any]:
+    """The polynomial as Python numbers: its coefficients, or for a Laurent ring its terms
+    ((exponents of q and the extra variables), coefficient)."""
+    if isinstance(poly, LaurentPoly):
+        return poly.terms()
+    return ring.coefficients(poly)
+
+
+def _laurent_poly(ring: Ring, terms: list[Any]) -> Any:
+    powers: dict[tuple[str, int], Any] = {}
+    monomials = []
+    for exps, c in terms:
+        x = ring.coerce(c)
+        for name, e in zip(ring.names, exps[1:], strict=True):  # type: ignore[attr-defined]
+            if e:
+                p = powers.get((name, e))
+                if p is None:
+                    p = powers[(name, e)] = ring.gen(name) ** e  # type: ignore[attr-defined]
+                x = x * p
+        monomials.append(ring.shift_up(x, exps[0]))
+    while len(monomials) > 1:        # pairwise, so that the sum costs O(T log T)
+        monomials = [sum(monomials[i:i + 2][1:], monomials[i])
+                     for i in range(0, len(monomials), 2)]
+    return monomials[0] if monomials else ring.zero()
+
+
+def _unpickle(key: tuple[Any, ...], data: list[Any], start: int, offset: Fraction,
+              prec: int | None, cap: Fraction | None = None) -> Series:
+    ring = _ring_from_key(key)
+    if key[0] == "L":
+        poly = _laurent_poly(ring, data)
+    elif ring.int_coefficients:
+        poly = ring.poly_from_ints(list(data))
+    else:
+        poly = ring.poly(list(data))
+    return Series(ring, poly, start, offset, prec, cap)

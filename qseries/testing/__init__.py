@@ -16,27 +16,46 @@ AssertionError: the two sides differ: first at q^3, where the left side has 1 an
 from __future__ import annotations
 
 from ..analysis import CheckResult, check
+from ..errors import typed_argument
 from ..lang import Node
 from ..series import ZZ, Ring
 
 
 def mismatch_report(r: CheckResult, radius: int = 2) -> str:
-    """The verdict and a table of coefficients around the first mismatch."""
+    """The verdict, a table of coefficients around the first mismatch, and why fewer
+    coefficients than asked were compared (if they were).
+
+    >>> print(mismatch_report(check("1/(1-q) + O(q^3)", "1/(1-q)", order=5)))
+    ... # doctest: +NORMALIZE_WHITESPACE
+    the two sides agree to O(q^3) (every coefficient below q^3 compared; fewer than the q^5
+    asked, because the left side is known only below q^3 (it carries its own O(q^3));
+    evidence, not a proof)
+      (only the coefficients below q^3 were compared, not q^5)
+    """
+    typed_argument("r", r, CheckResult, "a CheckResult from qseries.check")
     lines = [r.verdict] + r.table(radius)
     if r.order_verified != r.order_requested:
-        lines.append(f"  (only the coefficients below q^{r.order_verified} were known)")
+        lines.append(f"  (only the coefficients below q^{r.order_verified} were compared, not "
+                     f"q^{r.order_requested})")
     return "\n".join(lines)
 
 
 def assert_identity(lhs: str | Node, rhs: str | Node, order: int = 100,
                     ring: Ring = ZZ, weights: dict[str, int] | None = None) -> CheckResult:
     """Assert that both sides agree to O(q^order), with the order really verified; on failure
-    the message shows the first mismatch and its neighbouring coefficients.  ``weights`` is
-    passed to :func:`qseries.check` (for extra variables).
+    the message shows the first mismatch and its neighbouring coefficients.  An inconclusive
+    check (no coefficient compared) fails too.  ``weights`` is passed to
+    :func:`qseries.check` (for extra variables).
 
     >>> _ = assert_identity("sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", order=20)
+    >>> assert_identity("O(q^-1)", "1")
+    Traceback (most recent call last):
+    ...
+    AssertionError: the check is inconclusive, not a pass: no coefficient could be compared, ...
     """
     r = check(lhs, rhs, order=order, ring=ring, weights=weights)
+    if r.holds is None:
+        raise AssertionError(f"the check is inconclusive, not a pass: {r.reason}")
     if not r.holds or r.order_verified != order:
         raise AssertionError(mismatch_report(r))
     return r

@@ -24,25 +24,44 @@ except ImportError as err:  # pragma: no cover - depends on the environment
                       "pip install 'qseries[test]'") from err
 
 from ..catalogue import SHIPPED, Entry, load_entries
+from ..errors import ArgumentError, ArgumentTypeError, integer_argument, typed_argument
+
+
+def _paths(paths: object) -> list[Path]:
+    if paths is None:
+        return [SHIPPED]
+    if not isinstance(paths, (list, tuple)) or not all(isinstance(p, (str, Path))
+                                                       for p in paths):
+        raise ArgumentTypeError("paths must be a list of identity files or folders (str or "
+                                "Path)")
+    return [Path(p) for p in paths]
 
 
 def catalogue_entries(paths: list[Path] | None = None) -> st.SearchStrategy[Entry]:
     """Entries (family members included) of the given identity files or folders."""
-    entries = load_entries(paths or [SHIPPED])
+    entries = load_entries(_paths(paths))
     return st.sampled_from(entries)
 
 
 def family_members(key: str, paths: list[Path] | None = None) -> st.SearchStrategy[Entry]:
     """Members of the parametrised family ``key`` (e.g. ``"andrews-gordon"``)."""
-    members = [e for e in load_entries(paths or [SHIPPED]) if e.key == key]
+    typed_argument("key", key, str, "the key of a catalogue family")
+    members = [e for e in load_entries(_paths(paths)) if e.key == key]
     if not members:
-        raise ValueError(f"no family {key!r} in the catalogue")
+        raise ArgumentError(f"no family {key!r} in the catalogue")
     return st.sampled_from(members)
 
 
+def q_products(max_factors: int = 4, max_modulus: int = 8) -> st.SearchStrategy[str]:
+    """Text of a product of powers of (q^a;q^m)_inf with 1 <= a <= m, with at most
+    ``max_factors`` factors and moduli m up to ``max_modulus``."""
+    integer_argument("max_factors", max_factors, 1)
+    integer_argument("max_modulus", max_modulus, 1)
+    return _q_products(max_factors, max_modulus)
+
+
 @st.composite
-def q_products(draw: st.DrawFn, max_factors: int = 4, max_modulus: int = 8) -> str:
-    """Text of a product of powers of (q^a;q^m)_inf with 1 <= a <= m."""
+def _q_products(draw: st.DrawFn, max_factors: int, max_modulus: int) -> str:
     n = draw(st.integers(1, max_factors))
     parts = []
     for _ in range(n):

@@ -80,7 +80,8 @@ def test_exact_and_modular_checks_give_the_same_verdict(lhs, rhs):
 def test_numerator_over_denominator_is_the_value(text):
     # the modular method compares sides as A*D = C*B from evaluate_parts; the quotient of the
     # parts must be the value itself, to the same precision
-    from qseries.lang import Evaluator, parse
+    from qseries.engine import Evaluator
+    from qseries.lang import parse
     for ring in (GF(PRIME),):
         node = parse(text)
         num, den = Evaluator(ring).evaluate_parts(node, 90)

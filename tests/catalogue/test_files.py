@@ -1,10 +1,14 @@
 """Identity files: loading, family expansion, and file:line errors for malformed files."""
 
+import os
 from pathlib import Path
 
 import pytest
 
 from qseries.catalogue import SHIPPED, IdentityFileError, load_entries, select
+from qseries.catalogue.files import MAX_FILE_BYTES, MAX_MEMBERS
+
+from .limits import deadline, memory_cap
 
 GOOD = '''
 [[identity]]
@@ -107,3 +111,109 @@ source = "geometric series (from memory)"
     entries = load_entries([write(tmp_path, text)])
     assert entries[-1].weights == (("b", 1), ("c", 2))
     assert all(r.ok for r in verify_entries(entries[-1:], jobs=1))
+
+
+# -- inputs that used to exhaust the machine or end in a traceback (issue 11 section 4) --
+
+FAMILY = '''[[identity]]
+key = "fam"
+title = "a family"
+left = "1/(1-q^$m)"
+right = "1/(1-q^$m)"
+params = PARAMS
+order = 10
+source = "invented for this test"
+'''
+
+
+@pytest.mark.parametrize("params", [
+    '{ m = "1..10^9" }', '{ m = "1..10^18" }', '{ m = "1..2^62" }', '{ m = "-10^18..10^18" }',
+    '{ a = "1..30", m = "1..30" }', '{ a = "1..10^18", m = "1..a" }',
+    '{ a = "1..2", m = "1..10^18" }',
+])
+def test_huge_families_are_counted_before_they_are_expanded(tmp_path, params):
+    path = write(tmp_path, FAMILY.replace("PARAMS", params))
+    with deadline(20), pytest.raises(IdentityFileError) as info, memory_cap():
+        load_entries([path])
+    assert str(info.value).startswith(f"{path}:6:"), info.value
+    assert f"more than {MAX_MEMBERS} family members" in str(info.value)
+
+
+def test_the_largest_allowed_family_and_an_empty_one(tmp_path):
+    largest = FAMILY.replace("PARAMS", f'{{ m = "1..{MAX_MEMBERS}" }}')
+    entries = load_entries([write(tmp_path, largest)])
+    assert len(entries) == MAX_MEMBERS and entries[-1].ident == f"fam[m={MAX_MEMBERS}]"
+    assert load_entries([write(tmp_path, FAMILY.replace("PARAMS", '{ m = "3..1" }'))]) == []
+
+
+def test_template_work_is_bounded_across_the_members_of_a_family(tmp_path):
+    # each member's template is cheap, 500 of them together are not
+    text = FAMILY.replace("PARAMS", '{ m = "1..500" }').replace(
+        'left = "1/(1-q^$m)"', 'left = "1/(1-q^$m) $repeat(j=1..200; $repeat(l=1..40;;);)"')
+    path = write(tmp_path, text)
+    with deadline(20), pytest.raises(IdentityFileError) as info:
+        load_entries([path])
+    assert str(info.value).startswith(f"{path}:4:"), info.value
+    assert "steps" in str(info.value)
+
+
+def test_a_fifo_is_refused_not_waited_on(tmp_path):
+    write(tmp_path, GOOD, "good.toml")
+    fifo = tmp_path / "pipe.toml"
+    os.mkfifo(fifo)
+    for paths in ([tmp_path], [fifo]):
+        with deadline(10), pytest.raises(IdentityFileError) as info:
+            load_entries(paths)
+        assert str(info.value).startswith(f"{fifo}: not a regular file"), info.value
+
+
+def test_devices_and_oversized_files_are_refused(tmp_path):
+    dev = tmp_path / "zero.toml"
+    dev.symlink_to("/dev/zero")
+    with deadline(10), pytest.raises(IdentityFileError, match="not a regular file"):
+        load_entries([dev])
+    big = write(tmp_path, "#" * (MAX_FILE_BYTES + 1), "big.toml")
+    with pytest.raises(IdentityFileError, match=f"larger than {MAX_FILE_BYTES} bytes"):
+        load_entries([big])
+
+
+@pytest.mark.parametrize("text, line, message", [
+    ("identity = [5]\n", 1, "array of tables"),
+    ("\n\nidentity = [[1]]\n", 3, "array of tables"),
+    ("identity = [{}]\n", 1, "missing field 'key'"),
+])
+def test_identity_must_hold_tables(tmp_path, text, line, message):
+    path = write(tmp_path, text)
+    with pytest.raises(IdentityFileError) as info:
+        load_entries([path])
+    assert str(info.value).startswith(f"{path}:{line}:"), info.value
+    assert message in str(info.value)
+
+
+@pytest.mark.parametrize("value", ['"inf"', '"nan"', "1e400", "nan", "2.5", "[1]", "{a = 1}",
+                                   "1979-05-27", "07:32:00", "true", '"1/0"', '"x"', '""',
+                                   '"' + "9" * 100 + '"'])
+def test_fails_at_must_be_an_exponent(tmp_path, value):
+    text = GOOD.replace("order = 50", f"order = 50\nexpect = \"fails\"\nfails_at = {value}", 1)
+    path = write(tmp_path, text)
+    with pytest.raises(IdentityFileError) as info:
+        load_entries([path])
+    assert str(info.value).startswith(f"{path}:9:"), info.value
+    assert "fails_at must be" in str(info.value)
+
+
+@pytest.mark.parametrize("value, exponent", [("7", 7), ('"7"', 7), ('"-23/24"', "-23/24")])
+def test_fails_at_as_integer_or_fraction(tmp_path, value, exponent):
+    text = GOOD.replace("order = 50", f"order = 50\nexpect = \"fails\"\nfails_at = {value}", 1)
+    entry = load_entries([write(tmp_path, text)])[0]
+    assert entry.fails_at == exponent
+
+
+def test_errors_live_in_the_error_module():
+    from qseries import errors
+    from qseries.catalogue import files, templates
+    assert files.IdentityFileError is errors.IdentityFileError is IdentityFileError
+    assert templates.TemplateError is errors.TemplateError
+    assert issubclass(errors.IdentityFileError, errors.QSeriesError)
+    assert issubclass(errors.TemplateError, errors.QSeriesError)
+    assert errors.TemplateError("x", 3).position == 3

@@ -2,7 +2,9 @@
 
 import pytest
 
-from qseries.catalogue.templates import TemplateError, expand_template
+from qseries.catalogue.templates import MAX_STEPS, Budget, TemplateError, expand_template
+
+from .limits import deadline
 
 
 def test_substitution_and_arithmetic():
@@ -22,3 +24,33 @@ def test_bad_templates(text):
     with pytest.raises(Exception) as info:
         expand_template(text, {"k": 2})
     assert isinstance(info.value, (TemplateError,)) or "qseries" in type(info.value).__module__
+
+
+def _nested(levels: int, size: int, body: str = "") -> str:
+    text = body
+    for depth in range(levels):
+        var = "abcdefgh"[depth]
+        text = f"$repeat({var}=1..{size};{text};)"
+    return text
+
+
+@pytest.mark.parametrize("levels, size", [(3, 100), (4, 200), (8, 200)])
+def test_nested_repeats_have_a_bounded_total_work(levels, size):
+    # three levels of 100 took 11 s, four levels of 200 would have taken hours
+    with deadline(10), pytest.raises(TemplateError, match=f"more than {MAX_STEPS} steps"):
+        expand_template(_nested(levels, size), {})
+
+
+def test_a_budget_is_shared_between_expansions():
+    budget = Budget()
+    text = _nested(2, 100)
+    with pytest.raises(TemplateError, match="steps"):
+        for _ in range(1000):
+            expand_template(text, {}, budget)
+    assert budget.left < 0
+
+
+def test_many_substitutions_take_linear_time():
+    # each $k used to re-add the lengths of everything expanded so far
+    with deadline(5):
+        assert expand_template("$k" * 40_000, {"k": 1}) == "1" * 40_000

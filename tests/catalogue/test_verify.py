@@ -6,6 +6,8 @@ import pytest
 from qseries.catalogue import SHIPPED, load_entries, verify_entries, verify_entry
 from qseries.catalogue.files import Entry
 
+from .limits import deadline
+
 ENTRIES = load_entries([SHIPPED])
 
 
@@ -43,3 +45,61 @@ def test_parallel_run_keeps_the_order():
     results = verify_entries(some, jobs=2)
     assert [r.ident for r in results] == [e.ident for e in some]
     assert all(r.ok for r in results)
+
+
+# -- worker processes (issue 11 section 5) --
+
+def test_jobs_are_capped_by_the_entries_and_the_cores(monkeypatch):
+    from qseries.catalogue import verify
+    cores = verify.available_cores()
+    assert cores >= 1
+    assert verify.worker_count(30, 3) == min(3, cores)
+    assert verify.worker_count(None, 100) == cores
+    assert verify.worker_count(1, 100) == 1
+    started = []
+    real = verify._start_pool
+
+    def spy(workers):
+        started.append(workers)
+        return real(workers)
+
+    monkeypatch.setattr(verify, "_start_pool", spy)
+    some = ENTRIES[:3]
+    results = verify_entries(some, jobs=30)
+    assert [r.ident for r in results] == [e.ident for e in some]
+    assert started == ([min(3, cores)] if cores > 1 else [])
+
+
+def _slow(key):
+    # about 8 s at order 20000 on the development machine, far longer at 40000
+    return Entry(key, "slow", "sum_{n>=0} q^n/(q;q)_n", "1/(q;q)_inf", 40_000, "test", "-", 1)
+
+
+def test_an_interrupt_stops_the_workers_and_keeps_what_finished():
+    import multiprocessing
+    import time
+
+    from qseries.catalogue import VerifyInterrupted
+    fast = next(x for x in ENTRIES if x.key == "rogers-ramanujan-1")
+    entries = [fast] + [_slow(f"slow-{i}") for i in range(6)]
+    seen = []
+
+    def progress(r):
+        seen.append(r.ident)
+        raise KeyboardInterrupt       # as if Ctrl-C came while the first result is shown
+
+    before = {p.pid for p in multiprocessing.active_children()}
+    t0 = time.monotonic()
+    with deadline(60), pytest.raises(KeyboardInterrupt) as info:
+        verify_entries(entries, jobs=2, progress=progress)
+    assert isinstance(info.value, VerifyInterrupted)
+    assert time.monotonic() - t0 < 30          # six slow entries would take minutes
+    assert seen == ["rogers-ramanujan-1"]
+    assert [r.ident for r in info.value.results] == ["rogers-ramanujan-1"]
+    assert info.value.total == len(entries)
+    assert {p.pid for p in multiprocessing.active_children()} <= before   # workers ended
+
+
+def test_bad_fails_at_in_a_hand_made_entry_is_an_error_not_a_crash():
+    r = verify_entry(_misprint("inf"))
+    assert not r.ok and "fails_at" in r.error

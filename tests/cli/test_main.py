@@ -53,8 +53,10 @@ def test_check_json_shape():
     r = run("check", RR1[0], RR1[1] + " - q^150", "--order", "151", "--json")
     assert r.exit_code == 1
     data = json.loads(r.stdout)
-    assert set(data) == {"holds", "order", "first_mismatch", "seconds", "hints", "method",
-                         "primes", "variables", "weights"}
+    assert set(data) == {"holds", "reason", "order", "order_requested", "shortfall",
+                         "first_mismatch", "seconds", "hints", "method", "primes", "variables",
+                         "weights"}
+    assert data["reason"] is None and data["shortfall"] is None
     assert data["method"] == "exact" and data["primes"] == []
     assert data["holds"] is False and data["order"] == 151
     fm = data["first_mismatch"]
@@ -67,6 +69,40 @@ def test_check_json_shape():
 def test_check_reports_the_order_really_verified():
     r = run("check", "q^-3 (1/(1-q) + O(q^10))", "q^-3/(1-q)", "-n", "20", "--json")
     assert json.loads(r.stdout)["order"] == 7
+
+
+@pytest.mark.parametrize("method", ["exact", "modular"])
+def test_check_that_compares_nothing_is_inconclusive_exit_3(method):
+    r = run("check", "O(q^-5) + 1", "2", "-m", method)
+    assert r.exit_code == 3, r.output
+    assert r.stdout.startswith("INCONCLUSIVE") and "AGREES" not in r.stdout
+    assert "no coefficient could be compared" in r.stdout and "O(q^" in r.stdout
+    r = run("check", "O(q^-5) + 1", "2", "-m", method, "--json")
+    assert r.exit_code == 3
+    data = json.loads(r.stdout)
+    assert data["holds"] is None and data["order"] == -5 and data["first_mismatch"] is None
+    assert "no coefficient could be compared" in data["reason"]
+
+
+@pytest.mark.parametrize("method", ["exact", "modular"])
+def test_check_says_when_a_side_carries_its_own_order(method):
+    lhs, rhs = "1/(1-q) + O(q^10)", "1/(1-q)"
+    r = run("check", lhs, rhs, "-n", "20", "-m", method)
+    assert r.exit_code == 0
+    assert "fewer than the q^20 asked" in r.stdout and "O(q^10)" in r.stdout
+    data = json.loads(run("check", lhs, rhs, "-n", "20", "-m", method, "--json").stdout)
+    assert data["holds"] is True and data["reason"] is None
+    assert data["order"] == 10 and data["order_requested"] == 20
+    assert "the left side is known only below q^10" in data["shortfall"]
+    r = run("check", lhs, rhs + " + q^5", "-n", "20", "-m", method)
+    assert r.exit_code == 1 and "the left side is known only below q^10" in r.stdout
+
+
+def test_check_help_describes_every_exit_code():
+    text = " ".join(run("check", "--help").stdout.split())
+    assert "exit 0 if they agree, 1 at a mismatch, 3 if no coefficient could be compared" \
+        in text
+    assert "2 for bad input" in text
 
 
 @pytest.mark.parametrize("args", [
@@ -84,6 +120,7 @@ def test_check_reports_the_order_really_verified():
     ["expand", "(" * 500 + "q" + ")" * 500],
     ["expand", "2^(10^9)"],
     ["expand", "q^(-10^8) (q;q)_inf"],
+    ["check", "q", "q", "-m", "modular", "--primes", "21"],
 ])
 def test_bad_input_exits_2_without_traceback(args):
     r = run(*args)
@@ -117,6 +154,9 @@ def test_module_entry_point_and_real_process_exit_codes():
     bad = subprocess.run([sys.executable, "-m", "qseries", "expand", "q +"],
                          capture_output=True, text=True)
     assert bad.returncode == 2 and "Traceback" not in bad.stderr and "column" in bad.stderr
+    unknown = subprocess.run([sys.executable, "-m", "qseries", "check", "O(q^-1)", "1"],
+                             capture_output=True, text=True)
+    assert unknown.returncode == 3 and "INCONCLUSIVE" in unknown.stdout
 
 
 def test_verify_shipped_catalogue_subset_and_json():

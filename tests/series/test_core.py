@@ -7,7 +7,7 @@ import sympy
 from hypothesis import given
 from hypothesis import strategies as st
 
-from qseries.errors import DomainError, IncompatibleRingError, UnableError
+from qseries.errors import DomainError, IncompatibleRingError, PrecisionError, UnableError
 from qseries.series import GF, QQ, ZZ, Series
 from qseries.series.reference import ref_inverse, ref_mul, ref_pow
 
@@ -156,7 +156,7 @@ def test_modular_ring_agrees_with_integers():
 def test_coefficient_beyond_precision_is_an_error():
     f = Series.from_coefficients([1, 2], prec=3)
     assert f[2] == 0
-    with pytest.raises(DomainError):
+    with pytest.raises(PrecisionError):
         f[3]
 
 

@@ -23,6 +23,22 @@ def test_assert_identity_refuses_reduced_precision():
         assert_identity("q^-3 (1/(1-q) + O(q^10))", "q^-3/(1-q)", order=20)
 
 
+@pytest.mark.parametrize(("lhs", "rhs"), [("O(q^-5) + 1", "2"), ("O(q^-1)", "O(q^-1)")])
+def test_assert_identity_fails_an_inconclusive_check(lhs, rhs):
+    # nothing compared is not a pass, and the message says why instead of "agree"
+    with pytest.raises(AssertionError, match="inconclusive") as info:
+        assert_identity(lhs, rhs, order=50)
+    assert "no coefficient could be compared" in str(info.value)
+    assert "agree" not in str(info.value)
+
+
+def test_mismatch_report_says_why_fewer_coefficients_were_compared():
+    from qseries import check
+    from qseries.testing import mismatch_report
+    text = mismatch_report(check("1/(1-q) + O(q^3)", "1/(1-q)", order=5))
+    assert "the left side is known only below q^3" in text and "not q^5" in text
+
+
 @settings(max_examples=10, deadline=None)
 @given(family_members("andrews-gordon"))
 def test_andrews_gordon_members_hold(entry):

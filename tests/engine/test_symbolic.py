@@ -5,7 +5,7 @@ from fractions import Fraction
 from hypothesis import given
 from hypothesis import strategies as st
 
-from qseries.lang import symbolic as sym
+from qseries.engine import symbolic as sym
 
 
 def brute_force(poly: tuple, target: int, start: int, beyond: int) -> int:

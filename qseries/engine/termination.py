@@ -11,7 +11,7 @@ Every rule is sound (a true lower bound, "exact" only when it is the valuation i
 rule applies, :class:`NoBound` says why and the caller refuses to truncate.
 
 >>> from qseries.lang.parser import parse
->>> from qseries.lang.evaluator import Evaluator
+>>> from qseries.engine import Evaluator
 >>> tb = TermBounds(Evaluator())
 >>> body = parse("sum_{k>=0} q^(k^2)/(q;q)_k").body
 >>> b = tb.lower(body, "k", {"k": 1}, {}, 50)
@@ -26,9 +26,9 @@ from fractions import Fraction
 from typing import Any
 
 from ..errors import DomainError
+from ..lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch
 from ..products import FUNCTIONS
 from . import symbolic as sym
-from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch
 
 
 class NoBound(Exception):

@@ -1,0 +1,111 @@
+"""The one place that holds the order of preference among the evaluation strategies and every
+threshold that decides between them.
+
+A strategy is named, public and tested against the reference it replaces: for sums the
+``direct`` reference (every term from scratch, through the general walk) and for q-Pochhammer
+symbols the ``factors`` reference (factor by factor).  ``Evaluator(strategies=...)`` takes a
+collection of these names to force or exclude strategies; the references stay available as the
+last resort.
+
+>>> allowed_strategies(["direct"]) == frozenset({"direct", "factors"})
+True
+>>> allowed_strategies(["spliting"])  # doctest: +ELLIPSIS
+Traceback (most recent call last):
+...
+qseries.errors.ArgumentError: unknown evaluation strategy 'spliting'; the strategies are ...
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+
+from ..errors import ArgumentError
+from ..products import exp_log_factors, pochhammer, pochhammer_euler, pochhammer_exp_log
+from ..series import Series
+
+#: strategies for a sum, in the order of preference (the first that applies and succeeds wins)
+SUM_STRATEGIES = ("monomials", "splitting", "lambert", "stepping", "direct")
+#: strategies for products: Jacobi's triple product for pairs of factors, then for a single
+#: infinite q-Pochhammer symbol Euler's product, the exponential of the logarithm, and the
+#: reference factor by factor
+PRODUCT_STRATEGIES = ("triple-pairs", "euler", "exp-log", "factors")
+STRATEGIES = SUM_STRATEGIES + PRODUCT_STRATEGIES
+#: the references, always allowed
+REFERENCES = frozenset({"direct", "factors"})
+
+# -- thresholds ----------------------------------------------------------------------------
+#: finite ranges longer than this are cut by the valuation analysis where it applies
+SPLIT_RANGE = 256
+#: a finite range the analysis cannot cut is evaluated in full only up to this length
+FALLBACK_RANGE = 20_000
+#: binary splitting needs at least this many terms
+SPLIT_MIN_TERMS = 8
+#: binary splitting is used while the binomials' exponents add up to at most this many times
+#: the order (beyond, the tree's nodes are all dense and stepping term by term is cheaper)
+SPLIT_DEGREE = 8
+#: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
+#: computed as the exponential of its logarithm instead of factor by factor
+EXP_FACTORS = 24
+#: ``check(method="auto")`` goes modular from this order on (series in q alone) ...
+AUTO_MODULAR_ORDER = 3000
+#: ... and from this order on when there are extra variables (exact Laurent coefficients
+#: grow fast)
+AUTO_MODULAR_ORDER_EXTRA = 400
+#: the modular method evaluates the primes after the first in worker processes from here on
+PARALLEL_ORDER = 50_000
+
+
+def allowed_strategies(strategies: Iterable[str] | None) -> frozenset[str]:
+    """The strategy names an evaluator may use: all of them for None, else the given ones
+    (validated) together with the references."""
+    if strategies is None:
+        return frozenset(STRATEGIES)
+    if isinstance(strategies, str):
+        raise ArgumentError("strategies must be a collection of names, not one string")
+    names = frozenset(strategies)
+    for name in sorted(names):
+        if name not in STRATEGIES:
+            raise ArgumentError(f"unknown evaluation strategy {name!r}; the strategies are "
+                                f"{', '.join(STRATEGIES)}")
+    return names | REFERENCES
+
+
+def sum_strategies(allowed: frozenset[str], *, monomials: bool, steppable_only: bool,
+                   lambert_shape: bool, terms: int) -> list[str]:
+    """The sum strategies to try, in order, for a sum of ``terms`` terms whose factors are
+    all monomials (``monomials``), or all monomials and q-Pochhammer symbols that step
+    (``steppable_only``), or that has no stepping symbol and coefficients where sparse
+    Lambert-type terms apply (``lambert_shape``).
+
+    >>> sum_strategies(frozenset(STRATEGIES), monomials=False, steppable_only=True,
+    ...                lambert_shape=False, terms=40)
+    ['splitting', 'stepping', 'direct']
+    """
+    shape = {
+        "monomials": monomials,
+        "splitting": steppable_only and terms >= SPLIT_MIN_TERMS,
+        "lambert": lambert_shape,
+        "stepping": "stepping" in allowed,
+        "direct": True,
+    }
+    return [name for name in SUM_STRATEGIES if name in allowed and shape[name]]
+
+
+def pochhammer_value(a: Series, t: int, n: int | None, order: int,
+                     allowed: frozenset[str]) -> Series:
+    """(a; q^t)_n modulo q^order by the first strategy that applies: Euler's product, the
+    exponential of the logarithm (from ``EXP_FACTORS`` factors on), factor by factor.
+
+    >>> q = Series.monomial(1)
+    >>> pochhammer_value(q, 1, None, 6, frozenset(STRATEGIES))
+    1 - q - q^2 + q^5 + O(q^6)
+    """
+    if n is None and "euler" in allowed:
+        got = pochhammer_euler(a, t, order)
+        if got is not None:
+            return got
+    if n is None and "exp-log" in allowed and exp_log_factors(a, t, order) >= EXP_FACTORS:
+        got = pochhammer_exp_log(a, t, order)
+        if got is not None:
+            return got
+    return pochhammer(a, t, n, order)

@@ -1,0 +1,149 @@
+"""The ``splitting`` strategy for sums: binary splitting on the ratio of consecutive terms,
+for sums whose factors are numbers, powers of q and q-Pochhammer symbols with subscripts
+linear in the variable.
+
+>>> from qseries.lang import parse
+>>> from qseries.engine import Evaluator
+>>> ev = Evaluator(strategies=["splitting"])
+>>> ev.evaluate(parse("sum_{k>=0} q^(k^2)/(q;q)_k"), 8)
+1 + q + q^2 + q^3 + 2q^4 + 2q^5 + 3q^6 + 3q^7 + O(q^8)
+"""
+
+from __future__ import annotations
+
+from fractions import Fraction
+from typing import TYPE_CHECKING
+
+from ..lang.ast import BigOp, Node, Poch
+from ..products import monomial_parts
+from ..series import LaurentPoly, Series
+from .chooser import SPLIT_DEGREE
+from .sum_stepping import step
+from .terms import Parts, ceil_int, floor_int, rational_power
+
+if TYPE_CHECKING:
+    from .evaluator import Evaluator
+    from .sums import SumPlan
+
+
+def sum_splitting(ev: Evaluator, plan: SumPlan, parts: bool) -> Series | Parts | None:
+    """The sum (with its constant factors) by binary splitting, as (numerator, denominator)
+    with ``parts``; None when the terms do not have the shape (or the splitting tree would
+    be dense beyond ``SPLIT_DEGREE`` times the order)."""
+    target, order = plan.target, plan.order
+    split = split_ratio_sum(ev, plan.node, plan.ks, plan.env, target, plan.sign, plan.scalars,
+                            plan.steppable, plan.shifts, order if parts else 0)
+    if split is None:
+        return None
+    if isinstance(split, Series):
+        return plan.finish(split)
+    term_a, top, den, w = split
+    if parts:
+        num = (term_a * top).truncate(target).limit_precision(target)
+        return plan.finish(num), den
+    ratio_sum = (top * den.inverse(order=w)).truncate(w).limit_precision(w)
+    return plan.finish((term_a * ratio_sum).truncate(target).limit_precision(target))
+
+
+def split_ratio_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],
+                    target: int, sign: int, scalars: list[tuple[Node, int]],
+                    stepping: list[tuple[Poch, int]], shifts: list[Fraction],
+                    den_order: int = 0
+                    ) -> Series | tuple[Series, Series, Series, int] | None:
+    """Binary splitting for a sum whose consecutive terms have a ratio P(k)/Q(k) of
+    polynomials (a power of q, a number, binomials 1 - c q^j): with
+    P(l,r), Q(l,r) the products over [l, r) and T(l,r) = T(l,m) Q(m,r) + P(l,m) T(m,r),
+    the sum is term_a (Q + T)/Q over the whole range, in O(M(N) log K) instead of
+    K divisions by binomials.  Returns (term_a, Q + T, Q, w) with Q + T and Q known
+    modulo q^w, w at least ``den_order``; the sum itself when it is one term; None when
+    the terms do not have that shape (the caller then steps term by term)."""
+    var = node.var
+    coeffs: list[Fraction] = []
+    for k in ks:
+        c = Fraction(sign)
+        for f, p in scalars:
+            v = ev.scalar(f, {**env, var: k})
+            if v == 0:
+                return None
+            c *= rational_power(v, Fraction(p))
+        coeffs.append(c)
+    for i in range(1, len(ks)):
+        d = shifts[i] - shifts[i - 1]
+        if d.denominator != 1 or d < 0:
+            return None
+    steps = []
+    for f, p in stepping:
+        t = ev._base_step(f, env, 1)
+        params = []
+        for prm in f.params:
+            if not ev.has_q(prm):           # a number c: the factors 1 - c q^(tj)
+                params.append((ev.scalar(prm, env), 0))
+                continue
+            parts = monomial_parts(m) if (m := ev._exact_monomial(prm, env)) else None
+            if parts is None or parts[1].denominator != 1:
+                return None
+            params.append((parts[0], int(parts[1])))
+        ns = [ev.integer(f.length, {**env, var: k}, "a subscript")  # type: ignore[arg-type]
+              for k in ks]
+        steps.append((t, params, p, ns))
+    width = max(target - ceil_int(shifts[0]), 1)
+    ring = ev.ring
+    first = Series.constant(1, ring)
+    for f, p in stepping:
+        first = (first * step(ev, f, p, None, None, ks[0], env, var, width)).truncate(width)
+    if first.is_zero():
+        return None
+    term_a = (first * coeffs[0]).shift(shifts[0])
+    va = term_a.valuation
+    w = target - (floor_int(va) if va is not None else 0)
+    if w <= 0:
+        return term_a.truncate(target)
+    w = max(w, den_order)
+    one = Series.constant(1, ring)
+    # the splitting tree holds polynomials of total degree up to the sum of the
+    # binomials' exponents: far beyond the order (a sum of about N terms such as
+    # sum q^n/(q;q)_n) every node is a dense length-N product, and term-by-term stepping
+    # is cheaper
+    degree, budget = 0, SPLIT_DEGREE * w
+    num: list[Series] = []
+    den: list[Series] = []
+    for i in range(1, len(ks)):
+        pn = one.shift(int(shifts[i] - shifts[i - 1])).truncate(w) * (coeffs[i] / coeffs[i - 1])
+        qd = one
+        for t, params, p, ns in steps:
+            lo, hi = sorted((ns[i - 1], ns[i]))
+            times = p if ns[i] > ns[i - 1] else -p
+            for c, e in params:
+                # factors 1 - c q^x with x >= w are 1 modulo q^w
+                top = hi if e < 0 else min(hi, max(lo, -((e - w) // t)))
+                for j in range(lo, top):
+                    x = e + t * j
+                    if x < 0:
+                        return None
+                    if x == 0:
+                        if c == 1 or isinstance(c, LaurentPoly):
+                            return None
+                        pn = pn * rational_power(Fraction(1 - Fraction(c)), Fraction(times))
+                        continue
+                    degree += x * abs(times)
+                    if degree > budget:
+                        return None
+                    for _ in range(abs(times)):
+                        if times > 0:
+                            pn = pn.mul_binomial(c, x, w)
+                        else:
+                            qd = qd.mul_binomial(c, x, w)
+        num.append(pn.truncate(w))
+        den.append(qd.truncate(w))
+
+    def split(lo: int, hi: int) -> tuple[Series, Series, Series]:
+        if hi - lo == 1:
+            return num[lo], den[lo], num[lo]
+        mid = (lo + hi) // 2
+        p1, q1, t1 = split(lo, mid)
+        p2, q2, t2 = split(mid, hi)
+        return (p1.mul_trunc(p2, w), q1.mul_trunc(q2, w),
+                (t1.mul_trunc(q2, w) + p1.mul_trunc(t2, w)).truncate(w))
+
+    _, qq, tt = split(0, len(num))
+    return term_a, (qq + tt).truncate(w), qq, w

@@ -1,0 +1,36 @@
+"""Ranges of sums and products: which terms are kept, and whether a cut was made (a cut
+range leaves the result known modulo q^N only)."""
+
+from fractions import Fraction
+
+import pytest
+
+from qseries.engine import Evaluator
+from qseries.engine.chooser import SPLIT_RANGE
+from qseries.engine.ranges import numbers, term_range
+from qseries.errors import DomainError, UnableError
+from qseries.lang import parse
+
+
+@pytest.mark.parametrize("text, order, expected, cut", [
+    ("sum_{k>=0} q^(k^2)", 10, [0, 1, 2, 3], True),
+    ("sum_{k=-inf}^{inf} q^(k^2)", 5, [-2, -1, 0, 1, 2], True),
+    ("sum_{k=0}^{5} q^k", 3, [0, 1, 2, 3, 4, 5], False),          # short: kept whole
+    (f"sum_{{k=0}}^{{{SPLIT_RANGE}}} q^k", 3, [0, 1, 2], True),   # long: cut
+    (f"sum_{{k=0}}^{{{SPLIT_RANGE - 1}}} q^k", 3, list(range(SPLIT_RANGE)), False),
+    ("sum_{k=5}^{2} q^k", 3, [], False),
+])
+def test_kept_terms_and_cuts(text, order, expected, cut):
+    assert term_range(Evaluator(), parse(text), {}, order, False) == (expected, cut)
+
+
+def test_divergent_ranges_are_refused():
+    with pytest.raises(DomainError, match="does not converge"):
+        term_range(Evaluator(), parse("sum_{k>=0} q"), {}, 5, False)
+
+
+def test_sums_of_numbers():
+    # 1 + 1/2 + 1/3 = 11/6
+    assert numbers(Evaluator(), parse("sum_{k=1}^{3} (1/k)"), {}) == Fraction(11, 6)
+    with pytest.raises(UnableError):
+        numbers(Evaluator(), parse("sum_{k=1}^{10^6} (1/k)"), {})
