@@ -31,6 +31,7 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 
 from ..engine import Evaluator, Parts, check_weights, evaluate, quotient
+from ..engine.chooser import AUTO_MODULAR_ORDER, AUTO_MODULAR_ORDER_EXTRA, PARALLEL_ORDER
 from ..errors import (
     ArgumentError,
     ArgumentTypeError,
@@ -324,10 +325,6 @@ def compare_series(lhs: Series, rhs: Series, order: int) -> tuple[Exponent, Mism
     return verified, Mismatch(e, lhs.coefficient(e), rhs.coefficient(e))
 
 
-#: orders above this use the modular method under ``method="auto"``
-AUTO_MODULAR_ORDER = 3000
-#: the same with extra variables, whose exact coefficients grow much faster
-AUTO_MODULAR_ORDER_EXTRA = 400
 #: the modular method draws primes from [2^61, 2^62); there are more than this many
 #: (about 5.40e16 by the logarithmic integral)
 PRIME_COUNT = 2**61 / (62 * 0.6931471805599453)
@@ -493,8 +490,6 @@ def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
                        weights=tuple(weights.get(v, 0) for v in names), shortfall=shortfall)
 
 
-#: from this order on, the modular method spreads its primes over worker processes
-PARALLEL_ORDER = 50_000
 
 
 def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[str, ...] = (),
