@@ -180,19 +180,25 @@ def _start_pool(workers: int) -> ProcessPoolExecutor:
 
 
 def _stop_pool(pool: ProcessPoolExecutor) -> None:
-    """Cancel the queued entries and end the workers now."""
+    """Cancel the queued entries and end the workers now.
+
+    The pool's manager thread also joins the workers once it sees them end, and
+    two threads waiting on one process race; so the workers are terminated here,
+    the manager thread is left to reap them, and only those still running after it
+    are killed and joined here."""
     with _interrupts_held():            # a second Ctrl-C must not leave workers behind
         processes = list((getattr(pool, "_processes", None) or {}).values())
+        manager = getattr(pool, "_executor_manager_thread", None)
         pool.shutdown(wait=False, cancel_futures=True)
         for p in processes:
             p.terminate()
+        if manager is not None:
+            manager.join(timeout=10)
         for p in processes:
             p.join(timeout=5)
             if p.is_alive():
                 p.kill()
                 p.join(timeout=5)
-        if not any(p.is_alive() for p in processes):
-            pool.shutdown(wait=True)    # the pool's own thread ends once the workers have
 
 
 def _run(entries: list[Entry], order: int | None, workers: int,
