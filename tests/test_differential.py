@@ -116,7 +116,6 @@ def _claim(s: qseries.Series) -> tuple[Fraction | None, dict[Fraction, Fraction]
     return (None if p is None else Fraction(p)), terms
 
 
-@pytest.mark.xfail(strict=False, reason="open, see the issue 11 note")
 @SETTINGS
 @example(EvalCase(PROD_FROM_4, 5, must_evaluate=True))
 @example(EvalCase(SUM_FROM_10, 5, must_evaluate=True))

@@ -316,7 +316,6 @@ SLOW = [
 ]
 
 
-@pytest.mark.xfail(strict=False, reason="open, see the issue 11 note")
 @pytest.mark.parametrize(("args", "node", "right", "order"), SLOW,
                          ids=[" ".join(p[0]) for p in SLOW])
 def test_pinned_slow_inputs(args, node, right, order):
@@ -335,7 +334,6 @@ def test_pinned_inputs(args, node, right, order):
     assert runner.invoke(app, args).exit_code == expected
 
 
-@pytest.mark.xfail(strict=False, reason="open, see the issue 11 note")
 def test_fuzz_the_command_line():
     problems = []
     for args, node, right, order in _cases(SEED, INPUTS):

@@ -20,7 +20,13 @@ from __future__ import annotations
 from collections.abc import Iterable
 
 from ..errors import ArgumentError
-from ..products import exp_log_factors, pochhammer, pochhammer_euler, pochhammer_exp_log
+from ..products import (
+    exp_log_factors,
+    has_zero_factor,
+    pochhammer,
+    pochhammer_euler,
+    pochhammer_exp_log,
+)
 from ..series import Series
 
 #: strategies for a sum, in the order of preference (the first that applies and succeeds wins)
@@ -100,6 +106,8 @@ def pochhammer_value(a: Series, t: int, n: int | None, order: int,
     >>> pochhammer_value(q, 1, None, 6, frozenset(STRATEGIES))
     1 - q - q^2 + q^5 + O(q^6)
     """
+    if (n is None or n >= 0) and has_zero_factor(a, t, n):
+        return Series.zero(a.ring)       # a factor 1 - 1: exactly 0, whatever the strategy
     if n is None and "euler" in allowed:
         got = pochhammer_euler(a, t, order)
         if got is not None:

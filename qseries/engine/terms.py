@@ -111,20 +111,39 @@ def poly_text(p: sym.Poly, var: str, sign: int) -> str:
 
 def factors_of(node: Node, p: int = 1) -> list[tuple[Node, int]]:
     """Flatten a product/quotient chain into (factor, power) pairs; constant integer powers
-    of q-Pochhammer symbols become powers of the factor."""
+    of q-Pochhammer symbols become powers of the factor.
+
+    A factor inverted twice (a quotient in a denominator, a negative power of a symbol in
+    a denominator) is not flattened: 1/(1/f) is defined only where f is not 0, which the
+    pair (f, 1) would no longer check, so the inverted part stays one factor.
+
+    >>> from qseries.lang import parse
+    >>> [(type(n).__name__, k) for n, k in factors_of(parse("q/(q;q)_inf^2"))]
+    [('Q', 1), ('Poch', -2)]
+    >>> [(type(n).__name__, k) for n, k in factors_of(parse("1/(1/(q;q)_inf)"))]
+    [('Num', 1), ('BinOp', -1)]
+    """
     if isinstance(node, BinOp) and node.op == "*":
         return factors_of(node.left, p) + factors_of(node.right, p)
     if isinstance(node, BinOp) and node.op == "/":
+        if p < 0:
+            return [(node, p)]
         return factors_of(node.left, p) + factors_of(node.right, -p)
-    if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Poch) and \
-            isinstance(node.right, Num) and node.right.value.denominator == 1 and \
-            abs(node.right.value) <= 64:
-        return [(node.left, p * int(node.right.value))]
-    if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Poch) and \
-            isinstance(node.right, Neg) and isinstance(node.right.operand, Num) and \
-            node.right.operand.value.denominator == 1 and abs(node.right.operand.value) <= 64:
-        return [(node.left, -p * int(node.right.operand.value))]
+    if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Poch):
+        k = _small_integer(node.right)
+        if k is not None and (k > 0 or p > 0):
+            return [(node.left, p * k)]
     return [(node, p)]
+
+
+def _small_integer(node: Node) -> int | None:
+    """The integer k with |k| <= 64 that node writes as k or -k, else None."""
+    sign = 1
+    if isinstance(node, Neg):
+        sign, node = -1, node.operand
+    if isinstance(node, Num) and node.value.denominator == 1 and abs(node.value) <= 64:
+        return sign * int(node.value)
+    return None
 
 
 def signed_factors(node: Node) -> tuple[int, list[tuple[Node, int]]]:

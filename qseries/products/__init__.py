@@ -10,6 +10,7 @@ from .pochhammer import (
     euler_product,
     exp_log_factors,
     gaussian_binomial,
+    has_zero_factor,
     monomial_parts,
     pochhammer,
     pochhammer_euler,
@@ -21,5 +22,6 @@ from .pochhammer import (
 from .registry import FUNCTIONS, FunctionEntry
 
 __all__ = ["FUNCTIONS", "FunctionEntry", "euler_product", "exp_log_factors",
-           "gaussian_binomial", "monomial_parts", "pochhammer", "pochhammer_euler",
-           "pochhammer_exp_log", "theta_pair_parts", "theta_pair_power", "triple_product_sum"]
+           "gaussian_binomial", "has_zero_factor", "monomial_parts", "pochhammer",
+           "pochhammer_euler", "pochhammer_exp_log", "theta_pair_parts", "theta_pair_power",
+           "triple_product_sum"]

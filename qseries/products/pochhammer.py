@@ -35,6 +35,22 @@ def monomial_parts(s: Series) -> tuple[int | Fraction, Fraction] | None:
     return s.ring.to_number(s.ring.coeff(s.poly, 0)), Fraction(s.start) + s.offset
 
 
+def has_zero_factor(a: Series, t: int, n: int | None) -> bool:
+    """True when one of the factors 1 - a q^(tj), 0 <= j < n (all j >= 0 for n = None), of
+    (a;q^t)_n is exactly 1 - 1 = 0: a is the monomial q^(-tj) itself.  The product is then
+    exactly 0, whatever the other factors are.
+
+    >>> from qseries.series import Series
+    >>> has_zero_factor(Series.monomial(-4), 2, 3), has_zero_factor(Series.monomial(-4), 2, 2)
+    (True, False)
+    """
+    mono = monomial_parts(a)
+    if mono is None or mono[0] != 1 or mono[1].denominator != 1 or mono[1] > 0:
+        return False
+    steps, rest = divmod(-int(mono[1]), t)
+    return rest == 0 and (n is None or steps < n)
+
+
 def euler_product(d: int, ring: Ring, order: int) -> Series:
     """(q^d; q^d)_inf modulo q^order from Euler's pentagonal number theorem,
     sum_k (-1)^k q^(d k(3k-1)/2) (see G. E. Andrews, The Theory of Partitions, 1976, ch. 1).
@@ -241,6 +257,8 @@ def pochhammer(a: Series, t: int, n: int | None, order: int) -> Series:
         raise UnableError("the base of a q-Pochhammer symbol must be q^t with t >= 1")
     mono = monomial_parts(a)
     acc = _one(a.ring)
+    if (n is None or n >= 0) and has_zero_factor(a, t, n):
+        return Series.zero(a.ring)
     if n is None:
         va = a.valuation
         if a.is_zero():

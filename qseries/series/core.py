@@ -149,6 +149,13 @@ def _align_offsets(a: Series, b: Series) -> tuple[Series, Series]:
         f"(offsets {a.offset} and {b.offset})")
 
 
+def _valuation_bound(x: Series) -> Fraction:
+    """A lower bound of the absolute valuation of an inexact or nonzero series: its
+    valuation, or its precision when no known term is nonzero."""
+    v = x.valuation
+    return Fraction(x.precision if v is None else v)  # type: ignore[arg-type]
+
+
 def _split_exponent(e: Exponent) -> tuple[int, Fraction]:
     """Write e = n + f with n an integer and 0 <= f < 1."""
     e = Fraction(e)
@@ -576,11 +583,16 @@ class Series:
             else:
                 cands.append(b.prec + va)
         prec = min(cands) if cands else None
+        # the same bound on absolute exponents, which the integer one above cannot express
+        # when a factor carries a cap
+        absolute = min((x.precision + _valuation_bound(y)  # type: ignore[operator]
+                        for x, y in ((a, b), (b, a)) if x.precision is not None), default=None)
         off = a.offset + b.offset
         carry = 1 if off >= 1 else 0
         off -= carry
         if va is None or vb is None:
-            return Series(R, R.zero(), 0, off, prec + carry if prec is not None else None)
+            return Series(R, R.zero(), 0, off,
+                          prec + carry if prec is not None else None)._capped(absolute)
         start = va + vb + carry
         if prec is None:
             if R.length(a.poly) + R.length(b.poly) > MAX_LENGTH:
@@ -589,12 +601,7 @@ class Series:
         else:
             prec += carry
             poly = R.mul_low(a.poly, b.poly, prec - start)
-        out = Series(R, poly, start, off, prec)
-        if a.cap is None and b.cap is None:
-            return out
-        absolute = [x.precision + y.valuation for x, y in ((a, b), (b, a))  # type: ignore[operator]
-                    if x.precision is not None and y.valuation is not None]
-        return out._capped(min(absolute, default=None))
+        return Series(R, poly, start, off, prec)._capped(absolute)
 
     __rmul__ = __mul__
 
@@ -694,9 +701,12 @@ class Series:
         elif order is not None:
             r = min(r, order + v + carry)
         prec = r - v - carry
+        # 1/(q^v (u + O(q^r))) is known below -v + r, i.e. P - 2v on absolute exponents
+        absolute = None if self.prec is None else \
+            self.precision - 2 * self.valuation  # type: ignore[operator]
         if r <= 0:
-            return Series.zero(R, prec)
-        return Series(R, R.inv_series(u, r), -v - carry, neg_off, prec)
+            return Series(R, R.zero(), prec, neg_off, prec)._capped(absolute)
+        return Series(R, R.inv_series(u, r), -v - carry, neg_off, prec)._capped(absolute)
 
     def __truediv__(self, other: Any) -> Series:
         other = self._operand(other)
@@ -749,7 +759,8 @@ class Series:
                 return Series.zero(R)
             # (O(q^p))^e = O(q^(e p)): every product of e unknown series of valuation >= p
             p = self.prec * e
-            return Series.zero(R, p + n_off if order is None else min(p + n_off, order))
+            p = p + n_off if order is None else min(p + n_off, order)
+            return Series(R, R.zero(), p, f_off, p)._capped(e * self.precision)
         start = v * e + n_off
         bits = R.coefficient_bits(self.poly)
         if bits and e * (bits + R.length(self.poly).bit_length()) > MAX_COEFFICIENT_BITS:
@@ -767,7 +778,9 @@ class Series:
         prec = start + rel
         if order is not None:
             prec = min(prec, order)
-        return Series(R, R.pow_low(self.poly, e, prec - start), start, f_off, prec)
+        absolute = self.precision + (e - 1) * _valuation_bound(self)  # type: ignore[operator]
+        return Series(R, R.pow_low(self.poly, e, prec - start), start, f_off,
+                      prec)._capped(absolute)
 
     # -- fast paths --------------------------------------------------------------------------
     def _holding(self, c: Any) -> tuple[Series, Any]:
@@ -810,7 +823,8 @@ class Series:
                 self.start + R.length(self.poly) + j <= prec:
             prec = None  # the exact product is short enough to stay exact
         n = None if prec is None else prec - self.start
-        return Series(R, R.binomial_mul(self.poly, c, j, n), self.start, self.offset, prec)
+        return Series(R, R.binomial_mul(self.poly, c, j, n), self.start, self.offset, prec,
+                      self.cap)
 
     def div_binomial(self, c: Number, j: int, order: int | None = None) -> Series:
         """self / (1 - c q^j) for an integer j >= 1 in O(length * log) work.
@@ -829,8 +843,9 @@ class Series:
             raise UnableError("1/(1 - c q^j) is an infinite series: give an order")
         n = prec - self.start
         if n <= 0:
-            return Series(R, R.zero(), prec, self.offset, prec)
-        return Series(R, R.binomial_div(self.poly, c, j, n), self.start, self.offset, prec)
+            return Series(R, R.zero(), prec, self.offset, prec, self.cap)
+        return Series(R, R.binomial_div(self.poly, c, j, n), self.start, self.offset, prec,
+                      self.cap)
 
     def inflate(self, d: int) -> Series:
         """The substitution q -> q^d for an integer d >= 1.
@@ -842,7 +857,8 @@ class Series:
             raise UnableError("q -> q^d needs an integer d >= 1")
         n, f = _split_exponent(self.offset * d)
         prec = None if self.prec is None else self.prec * d + n
-        return Series(self.ring, self.ring.inflate(self.poly, d), self.start * d + n, f, prec)
+        return Series(self.ring, self.ring.inflate(self.poly, d), self.start * d + n, f, prec,
+                      None if self.cap is None else self.cap * d)
 
     # -- comparison --------------------------------------------------------------------------
     def __eq__(self, other: object) -> bool:

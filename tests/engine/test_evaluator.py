@@ -96,6 +96,10 @@ def test_unprovable_convergence_is_refused_not_truncated():
 @pytest.mark.parametrize("text", [
     "1/0", "1/(1;q)_inf", "1/(q-q)", "q/(q^2-q^2)", "(q;q)_(-1)", "0^(-1)",
     "sum_{k=0}^{2} 1/k",
+    # a zero inverted twice is still a division by zero (issue 11: these gave 0 once the
+    # chain of factors was flattened into (1;q)_inf^1)
+    "1/(1;q)_inf^(-1)", "1/((1;q)_inf^(-1))", "1/(1/(1;q)_inf)", "2/(1/(1-1))",
+    "1/(1;q)_2^(-3)", "sum_{k=0}^{2} q^k/(1/(1;q)_k)",
 ])
 def test_division_by_zero(text):
     with pytest.raises(DomainError):
@@ -247,3 +251,11 @@ def test_double_sum_with_a_factor_in_both_indices_keeps_its_precision():
         assert a.precision == order
         assert a == evaluate(factored, order)
     assert Evaluator(ZZ).value(parse(double), {}, 10).precision == 10
+
+
+def test_a_quotient_inverted_again_keeps_its_value():
+    # 1/(q/(q;q)_inf) = (q;q)_inf / q, the same expansion written without the double inversion
+    for text, plain in [("1/(q/(q;q)_inf)", "q^-1 (q;q)_inf"),
+                        ("1/((q;q)_inf^(-2))", "(q;q)_inf^2"),
+                        ("sum_{k=1}^{3} q^k/(1/(q;q)_k)", "sum_{k=1}^{3} q^k (q;q)_k")]:
+        assert evaluate(text, 12) == evaluate(plain, 12)

@@ -4,6 +4,7 @@ import pytest
 
 from qseries.products import (
     euler_product,
+    has_zero_factor,
     pochhammer,
     pochhammer_euler,
     pochhammer_exp_log,
@@ -128,3 +129,23 @@ def test_any_parameter_modulo_p_through_the_logarithm(c, e, t):
         acc = acc.mul_binomial(c, x, n) if x else acc * (1 - c)
     fast = pochhammer_exp_log(Series.monomial(e, c=c, ring=ring), t, n)
     assert fast == acc.truncate(n)
+
+
+def test_a_factor_one_minus_one_makes_the_product_exactly_zero_without_multiplying(monkeypatch):
+    # (q^-999;q)_1000 has the factor 1 - q^-999 q^999 = 0 (issue 11: 1/(q;q)_(-1000), which is
+    # this product by the convention (a;q)_n = 1/(a q^n;q)_(-n), took minutes to give 0)
+    import importlib
+    module = importlib.import_module("qseries.products.pochhammer")
+    calls = []
+    real = module._checked
+    monkeypatch.setattr(module, "_checked", lambda *a: calls.append(1) or real(*a))
+    q = Series.monomial(1)
+    assert has_zero_factor(Series.monomial(-999), 1, 1000)
+    got = pochhammer(Series.monomial(-999), 1, 1000, order=30)
+    assert got.is_exact and got.is_zero() and calls == []
+    # (q^-6;q^3)_inf has the factor j = 2, (q^-6;q^3)_2 does not, (2q^-6;q^3)_inf neither
+    assert pochhammer(Series.monomial(-6), 3, None, order=5) == Series.zero()
+    assert not has_zero_factor(Series.monomial(-6), 3, 2)
+    assert not has_zero_factor(Series.monomial(-6, c=2), 3, None)
+    assert not has_zero_factor(Series.monomial(-5), 3, None)
+    assert not has_zero_factor(q, 1, None)

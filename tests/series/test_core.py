@@ -183,3 +183,85 @@ def test_exponential_of_a_logarithm_in_each_ring():
                                            for c in expected]
     # dividing by k < 30 modulo 29 is impossible: the ring says so instead of guessing
     assert GF(29).exp_integral(s, n) is None
+
+
+# -- absolute precision through every operation (issue 11: the cap of a series with a
+#    fractional offset was lost in products, powers and inverses) ------------------------
+# The rules are those of truncated series: writing P for the absolute precision and v for
+# the valuation (v >= P for a series with no known term), f*g is known below
+# min(Pf + vg, Pg + vf), f^e below P + (e-1) v, 1/f below P - 2v, q^s f below P + s, and
+# f(q^d) below d P.
+
+_OFFSETS = [Fraction(0), Fraction(1, 2), Fraction(1, 3), Fraction(5, 8)]
+
+
+@st.composite
+def _capped_series(draw):
+    offset = draw(st.sampled_from(_OFFSETS))
+    start = draw(st.integers(-2, 3))
+    coeffs = draw(st.lists(st.integers(-3, 3), max_size=4))
+    if draw(st.booleans()):                       # exact, unless it is the zero series
+        if not any(coeffs):
+            coeffs = [1]
+        return Series(ZZ, ZZ.poly(coeffs), start, offset)
+    prec = start + draw(st.integers(0, 6))
+    cap = offset + prec - Fraction(draw(st.integers(0, 5)), 6)   # between two exponents
+    return Series(ZZ, ZZ.poly(coeffs), start, offset, prec, cap)
+
+
+def _val_bound(f):
+    return f.precision if f.valuation is None else f.valuation
+
+
+def _expected_product_precision(f, g):
+    cands = [x.precision + _val_bound(y) for x, y in ((f, g), (g, f)) if x.precision is not None]
+    return min(cands, default=None)
+
+
+@given(_capped_series(), _capped_series())
+def test_product_precision_follows_the_absolute_rule(f, g):
+    if (f.is_exact and f.is_zero()) or (g.is_exact and g.is_zero()):
+        return
+    assert (f * g).precision == _expected_product_precision(f, g)
+
+
+@given(_capped_series(), st.integers(1, 4))
+def test_power_precision_follows_the_absolute_rule(f, e):
+    if f.is_exact:
+        return
+    assert f.power(e).precision == f.precision + (e - 1) * _val_bound(f)
+
+
+@given(_capped_series())
+def test_inverse_precision_follows_the_absolute_rule(f):
+    if f.is_exact or f.is_zero():
+        return
+    assert f.inverse().precision == f.precision - 2 * f.valuation
+
+
+@given(_capped_series(), st.integers(1, 4), st.sampled_from(_OFFSETS), st.integers(-3, 3))
+def test_inflate_and_shift_move_the_precision(f, d, frac, n):
+    if f.is_exact:
+        return
+    assert f.inflate(d).precision == d * f.precision
+    assert f.shift(frac + n).precision == f.precision + frac + n
+
+
+@given(_capped_series(), st.integers(-2, 2), st.integers(1, 3))
+def test_binomial_factors_keep_the_precision(f, c, j):
+    if f.is_exact:
+        return
+    assert f.mul_binomial(c, j).precision == f.precision
+    assert f.div_binomial(c, j, order=20).precision == f.precision
+
+
+def test_cap_kept_in_the_fuzzing_cases():
+    # the cases of issue 11, worked by hand
+    half = Fraction(1, 2)
+    one_plus = Series.constant(1) + Series.zero(prec=1).shift(-half)   # 1 + O(q^(1/2))
+    assert one_plus.precision == half
+    assert (one_plus ** 2).precision == half
+    f = Series.monomial(1) + Series.zero(prec=2).shift(half)            # q + O(q^(5/2))
+    assert f.inverse().precision == half                                # q^-1 (1 + O(q^(3/2)))
+    g = Series.zero(prec=2) + Series.monomial(Fraction(7, 2))           # O(q^2)
+    assert (g * 1).precision == 2
