@@ -321,7 +321,10 @@ class Evaluator:
         cap = RETRY_FACTOR * max(order, 1) + RETRY_SLACK
         while isinstance(v, Series) and v.is_zero() and not v.is_exact and work < cap:
             work = min(2 * work + 8, cap)
+            known = v.precision
             v = self.value(node, env, work)
+            if isinstance(v, Series) and v.is_zero() and v.precision == known:
+                break        # an O(q^k) written in the input: a higher order cannot help
         return v
 
     def _exact_monomial(self, node: Node, env: dict[str, int]) -> Series | None:

@@ -259,3 +259,19 @@ def test_a_quotient_inverted_again_keeps_its_value():
                         ("1/((q;q)_inf^(-2))", "(q;q)_inf^2"),
                         ("sum_{k=1}^{3} q^k/(1/(q;q)_k)", "sum_{k=1}^{3} q^k (q;q)_k")]:
         assert evaluate(text, 12) == evaluate(plain, 12)
+
+
+def test_a_divisor_with_a_written_o_term_is_not_recomputed_to_ever_higher_orders(monkeypatch):
+    # issue 11: (O(q^26) * P)^(-1) was computed again at order 2n + 8, 4n + 24, ... up to the
+    # retry cap before the refusal; the O(q^26) does not move, so one retry shows it
+    seen = []
+    real = Evaluator.value
+
+    def spy(self, node, env, order):
+        seen.append(order)
+        return real(self, node, env, order)
+
+    monkeypatch.setattr(Evaluator, "value", spy)
+    with pytest.raises(DomainError, match="vanishes to O"):
+        evaluate("(O(q^26)*(prod_{n>=1}(1+q^n)^(-1)))^(-1)", 100)
+    assert max(seen) == 2 * 100 + 8
