@@ -30,6 +30,9 @@ from .product_form import product_form
 MAX_POLY_TERMS = 6
 #: a product factor is "short" when its printed form has at most this many q-Pochhammer symbols
 MAX_FACTOR_SYMBOLS = 3
+#: the product-factor hint looks at the first this many terms of the ratio (its product
+#: form costs more than the check itself at high order)
+HINT_PRODUCT_TERMS = 3000
 
 
 @dataclass(frozen=True)
@@ -42,6 +45,14 @@ def _to_known(s: Series, n: Fraction) -> Series:
     if s.offset:
         return s
     return s.truncate(int(n)) if n.denominator == 1 else s
+
+
+def _leading(s: Series, terms: int) -> Series:
+    """``s`` known to at most ``terms`` terms past its valuation."""
+    v = s.valuation
+    if v is None or s.offset or Fraction(v).denominator != 1:
+        return s
+    return s.truncate(int(v) + terms)
 
 
 def _text(x: Fraction) -> str:
@@ -104,17 +115,22 @@ def diagnose(r: CheckResult) -> list[Hint]:
     # a short product factor
     if not hints and cl == cr:
         try:
-            ratio_pf = product_form(lhs / rhs, int(n))
+            ratio = _leading(lhs, HINT_PRODUCT_TERMS) / _leading(rhs, HINT_PRODUCT_TERMS)
+            ratio_pf = product_form(ratio, int(n))
             expr = ratio_pf.expression or ""
+            where = ("to the order compared" if ratio.precision is None
+                     or ratio.precision >= n - vr else
+                     f"to q^{_text(Fraction(ratio.precision) - vl + vr)} (the first "
+                     f"{HINT_PRODUCT_TERMS} terms)")
             if ratio_pf.period and expr.count(";") <= MAX_FACTOR_SYMBOLS:
                 hints.append(Hint("product-factor",
-                                  f"the ratio left/right is {ratio_pf.expression} to the "
-                                  f"order compared ({ratio_pf.repetitions} periods of "
-                                  f"{ratio_pf.period} seen): a factor is missing or extra"))
+                                  f"the ratio left/right is {ratio_pf.expression} {where} "
+                                  f"({ratio_pf.repetitions} periods of {ratio_pf.period} "
+                                  f"seen): a factor is missing or extra"))
             elif expr and not ratio_pf.period and 0 < len(ratio_pf.nonzero()) <= MAX_FACTOR_SYMBOLS:
                 hints.append(Hint("product-factor",
-                                  f"the ratio left/right is {ratio_pf.expression} to the "
-                                  f"order compared: a finite factor is missing or extra"))
+                                  f"the ratio left/right is {ratio_pf.expression} {where}: "
+                                  f"a finite factor is missing or extra"))
         except (QSeriesError, ZeroDivisionError):
             pass
     return hints

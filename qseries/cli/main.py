@@ -20,10 +20,12 @@ import typer
 from ..analysis import Distribution, diagnose, distributions, normal_moment, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
 from ..engine import evaluate
+from ..engine.chooser import AUTO_MODULAR_ORDER, COST_LIMIT_BYTES, COST_LIMIT_SECONDS
+from ..engine.cost import CostEstimate, estimate_cost
 from ..errors import QSeriesError
 from ..lang.parser import NOTATION_FORMS, is_extra_variable
 from ..products import FUNCTIONS
-from ..series import MAX_LENGTH, Series
+from ..series import GF, MAX_LENGTH, Series
 from ..series.formatting import coefficient_text, format_series, number_text
 from .demo import DEMO_CASES
 
@@ -52,6 +54,34 @@ OrderOption = Annotated[int, typer.Option(
     "--order", "-n", min=1, max=MAX_LENGTH,
     help="Compare/expand modulo q^N: the coefficients of q^0 .. q^(N-1).")]
 JsonOption = Annotated[bool, typer.Option("--json", help="Print machine-readable JSON.")]
+AllowLongOption = Annotated[bool, typer.Option(
+    "--allow-long",
+    help=f"Run even when the estimate made first (from order 50000 on, by probes at small "
+         f"orders) says it would take more than {COST_LIMIT_SECONDS / 60:.0f} minutes or "
+         f"{COST_LIMIT_BYTES / 1e9:.0f} GB.")]
+
+
+def _refuse_long(allow: bool, exprs: list[str], order: int, ring: Any = None,
+                 weights: dict[str, int] | None = None, times: int = 1,
+                 then: Any = None, smaller: str = "a smaller --order") -> None:
+    """Exit 2 with the estimate when evaluating ``exprs`` at ``order`` (``times`` over,
+    followed by ``then`` on each series) would take too long or too much memory, unless
+    ``allow``; ``smaller`` names the option to lower."""
+    if allow:
+        return
+    seconds, size, shown = 0.0, 0, None
+    for e in exprs:
+        est = _guarded(estimate_cost, e, order, ring, weights, then)
+        if est is None:
+            continue
+        seconds += times * est.seconds
+        size += est.bytes
+        shown = est if shown is None else shown
+    if shown is None or (seconds <= COST_LIMIT_SECONDS and size <= COST_LIMIT_BYTES):
+        return
+    total = CostEstimate(order, seconds, size, shown.probe_order, shown.probe_seconds)
+    _fail(f"order {order} would take {total.text()}; pass --allow-long to run it anyway, or "
+          f"choose {smaller}")
 
 
 def _exp_json(e: int | Fraction) -> int | str:
@@ -113,6 +143,7 @@ def expand(
     order: OrderOption = 100,
     weight: WeightOption = None,
     as_json: JsonOption = False,
+    allow_long: AllowLongOption = False,
 ) -> None:
     """Expand EXPR modulo q^N and print its coefficients.  Letters other than q that no sum
     binds are extra variables: coefficients are then Laurent polynomials in them, printed
@@ -121,6 +152,7 @@ def expand(
     Example: qseries expand "sum_{k>=0} q^(k^2)/(q;q)_k" --order 20
     """
     weights = _weights(weight)
+    _refuse_long(allow_long, [expr], order, None, weights)
     s: Series = _guarded(evaluate, expr, order, None, weights)
     known = s.precision if s.precision is not None else order
     known = min(known, order)
@@ -190,6 +222,7 @@ def check_cmd(
         help="How many primes the modular method uses.")] = 3,
     weight: WeightOption = None,
     as_json: JsonOption = False,
+    allow_long: AllowLongOption = False,
 ) -> None:
     """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch, 3 if no
     coefficient could be compared (inconclusive: a side carries its own O(q^k) below the
@@ -198,6 +231,9 @@ def check_cmd(
     Example: qseries check "sum_{k>=0} q^(k^2)/(q;q)_k" "1/((q;q^5)_inf (q^4;q^5)_inf)" -n 500
     """
     weights = _weights(weight)
+    modular = method == Method.modular or (method == Method.auto and order >= AUTO_MODULAR_ORDER)
+    _refuse_long(allow_long, [lhs, rhs], order, _probe_field() if modular else None, weights,
+                 times=primes if modular else 1)
     r: CheckResult = _guarded(lambda: _with_status(
         lambda say: check(lhs, rhs, order, method=method.value, primes=primes, progress=say,
                           weights=weights),
@@ -226,11 +262,18 @@ def check_cmd(
     raise typer.Exit(3 if r.holds is None else 0 if r.holds else 1)
 
 
+def _probe_field() -> Any:
+    """The field the modular method's estimate probes in: GF(p) for a prime near 2^62, as
+    the method's own primes."""
+    return GF(2**61 - 1)
+
+
 @app.command()
 def product(
     expr: Annotated[str, typer.Argument(help="The series, e.g. a sum side.")],
     order: OrderOption = 100,
     as_json: JsonOption = False,
+    allow_long: AllowLongOption = False,
 ) -> None:
     """Find c, s and integers e_n with EXPR = c q^s prod_{n>=1} (1-q^n)^(e_n) + O(q^N); print
     the product in the notation (periodic exponents as (q^a;q^m)_inf powers, and as an eta
@@ -238,6 +281,7 @@ def product(
 
     Example: qseries product "sum_{k>=0} q^(k^2)/(q;q)_k" --order 200
     """
+    _refuse_long(allow_long, [expr], order, then=product_form)
     series: Series = _guarded(evaluate, expr, order)
     if getattr(series.ring, "names", ()):
         _fail("product forms are recovered for series in q alone; this expression has the "
@@ -303,6 +347,7 @@ def distribution(
         "--out", help="Write the --trend-upto table to this file (default: standard output).")
                    ] = None,
     as_json: JsonOption = False,
+    allow_long: AllowLongOption = False,
 ) -> None:
     """The distribution of the statistic marked by VAR among the objects of size n (the
     coefficient of q^n), with its mean, variance and standardised moments next to those of
@@ -314,6 +359,8 @@ def distribution(
         _fail("give a size with --at N, or --trend-upto N for the mean/variance table")
     sizes = list(at or [])
     trend = list(range(1, trend_upto + 1)) if trend_upto else []
+    _refuse_long(allow_long, [expr], max(sizes + trend) + 1,
+                 smaller="smaller sizes (--at, --trend-upto)")
     dists = _guarded(distributions, expr, var, sorted(set(sizes + trend)))
     by_n = {d.n: d for d in dists}
     if sizes and as_json:

@@ -59,6 +59,15 @@ AUTO_MODULAR_ORDER = 3000
 AUTO_MODULAR_ORDER_EXTRA = 400
 #: the modular method evaluates the primes after the first in worker processes from here on
 PARALLEL_ORDER = 50_000
+#: from this order on the command line estimates the cost of a run before starting it
+#: (``engine.cost``): probes from ``PROBE_FIRST_ORDER`` on, doubled until one takes
+#: ``PROBE_SECONDS``
+COST_CHECK_ORDER = 50_000
+PROBE_FIRST_ORDER = 1024
+PROBE_SECONDS = 0.25
+#: a run estimated above these is refused on the command line unless --allow-long is given
+COST_LIMIT_SECONDS = 600.0
+COST_LIMIT_BYTES = 2_000_000_000
 
 
 def allowed_strategies(strategies: Iterable[str] | None) -> frozenset[str]:

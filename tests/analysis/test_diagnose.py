@@ -1,4 +1,5 @@
 """Each diagnosis kind, exercised by a deliberately broken published identity."""
+import importlib
 
 from qseries import check
 from qseries.analysis.diagnose import diagnose
@@ -59,3 +60,36 @@ def test_hints_after_a_modular_check_claim_only_what_was_computed():
     assert r.first_mismatch.lhs == 190569292
     for hint in diagnose(r):
         assert "6000" not in hint.message
+
+
+def test_the_product_factor_hint_looks_at_a_bounded_number_of_terms(monkeypatch):
+    # issue 11 (hangs): a sum of valuation -250000 checked to order 30 has 250030 known
+    # terms; the ratio's product form over all of them ran for minutes after the verdict.
+    # The hint examines at most HINT_PRODUCT_TERMS terms of the ratio.
+    dg = importlib.import_module("qseries.analysis.diagnose")
+
+    seen = []
+    real = dg.product_form
+
+    def spy(s, order=100):
+        seen.append(s.precision - s.valuation)
+        return real(s, order)
+
+    monkeypatch.setattr(dg, "product_form", spy)
+    r = check("sum_{k>=0} q^(k^2-1000k)", "q^(-250000)", 30, method="exact")
+    assert not r.holds
+    dg.diagnose(r)
+    assert seen and max(seen) <= dg.HINT_PRODUCT_TERMS
+
+
+def test_a_hint_from_a_bounded_look_says_how_far_it_looked():
+    # the Rogers-Ramanujan sum against G(q) with a missing (q^20;q^20)_inf factor, compared
+    # beyond HINT_PRODUCT_TERMS: the ratio is still recognised, and the hint says where
+    dg = importlib.import_module("qseries.analysis.diagnose")
+
+    n = dg.HINT_PRODUCT_TERMS + 500
+    r = check("sum_{k>=0} q^(k^2)/(q;q)_k",
+              "1/((q;q^5)_inf (q^4;q^5)_inf (q^20;q^20)_inf)", n, method="exact")
+    hints = dg.diagnose(r)
+    assert [h.kind for h in hints] == ["product-factor"]
+    assert f"q^{dg.HINT_PRODUCT_TERMS}" in hints[0].message

@@ -285,3 +285,57 @@ def test_weighted_mismatch_is_shown_in_q_and_z():
     assert r.exit_code == 1
     assert "right side z^3*q (difference -z^3*q)" in r.stdout
     assert "7     0  z^3*q      -z^3*q" in r.stdout
+
+
+# -- an estimate before a long run (issue 11: --order up to 10^7 ran for minutes) ----------
+def test_an_order_out_of_reach_is_refused_up_front_with_the_estimate():
+    r = run("expand", "-n", "10000000", "1/(q;q)_inf")
+    assert r.exit_code == 2
+    assert "would take about" in r.output and "--allow-long" in r.output
+    assert "GB" in r.output or "TB" in r.output
+
+
+@pytest.mark.parametrize("args", [
+    ["expand", "q"],
+    ["check", "q", "q"],
+    ["product", "(q;q)_inf"],
+    ["distribution", "1/(z*q;q)_inf", "--at", "5"],
+])
+def test_every_command_with_an_order_estimates_and_allow_long_skips_it(monkeypatch, args):
+    import qseries.cli.main as cli
+    from qseries.engine.cost import CostEstimate
+
+    asked = []
+
+    def huge(expr, order, ring=None, weights=None, then=None):
+        asked.append(order)
+        return CostEstimate(order, 10**6, 10**12, 1024, 0.5)
+
+    monkeypatch.setattr(cli, "estimate_cost", huge)
+    r = run(*args)
+    # 10^6 s is 11.6 days; check evaluates both sides
+    assert r.exit_code == 2 and ("would take about 11.6 days" in r.output
+                                 or "would take about 23.1 days" in r.output), r.output
+    assert asked
+    asked.clear()
+    r = run(*args, "--allow-long")
+    assert r.exit_code in (0, 1) and asked == []
+
+
+def test_the_product_estimate_includes_the_recovery_of_the_exponents():
+    # (q;q)_inf itself is cheap at order 10^7 (Euler's pentagonal numbers), but recovering
+    # its exponents means the log-derivative of a series with coefficients of thousands of
+    # digits: the estimate must time that work too, not only the evaluation
+    r = run("product", "-n", "9999999", "(q;q)_inf")
+    assert r.exit_code == 2, r.output
+    assert "would take about" in r.output and "--allow-long" in r.output
+
+
+def test_the_distribution_refusal_names_the_options_that_set_the_sizes(monkeypatch):
+    import qseries.cli.main as cli
+    from qseries.engine.cost import CostEstimate
+
+    monkeypatch.setattr(cli, "estimate_cost", lambda e, n, *a: CostEstimate(n, 1e6, 1, 9, 1.0))
+    r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "100000")
+    assert r.exit_code == 2
+    assert "--trend-upto" in r.output and "--order" not in r.output
