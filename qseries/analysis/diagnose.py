@@ -20,7 +20,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from ..errors import QSeriesError
+from ..errors import QSeriesError, typed_argument
 from ..series import Series
 from ..series.formatting import format_term
 from .compare import CheckResult
@@ -69,6 +69,7 @@ def _same(a: Series, b: Series, order: Fraction) -> bool:
 
 def diagnose(r: CheckResult) -> list[Hint]:
     """Hints for a check that found a mismatch (an empty list when it holds)."""
+    typed_argument("r", r, CheckResult, "a CheckResult (from qseries.check)")
     if r.first_mismatch is None or r.variables or r.lhs is None or r.rhs is None:
         return []   # the hints look at series in q alone
     # only what both computed sides know counts (after a modular check they are recomputed

@@ -33,7 +33,7 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from fractions import Fraction
 
-from ..errors import ParseError
+from ..errors import ArgumentTypeError, ParseError, typed_argument
 from ..products import FUNCTIONS
 from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var
 
@@ -434,4 +434,11 @@ def parse(text: str, bound: Iterable[str] = ()) -> Node:
     >>> parse("(q;q)_inf") == parse("(q)_∞")
     True
     """
+    typed_argument("text", text, str, "a string in the notation")
+    if isinstance(bound, (str, bytes)) or not isinstance(bound, Iterable):
+        raise ArgumentTypeError(f"bound must be a list of variable names, not "
+                                f"{type(bound).__name__}")
+    bound = tuple(bound)
+    for i, name in enumerate(bound):
+        typed_argument(f"bound[{i}]", name, str, "a variable name")
     return _Parser(text, bound).parse()

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
+from ..errors import typed_argument
 from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var
 
 # precedence levels: 1 sums, 2 products, 3 signed, 4 powers, 5 atoms
@@ -119,4 +120,5 @@ def show(node: Node) -> str:
     >>> show(parse("-q^-2 (1-q)^-1"))
     '-q^-2 * (1 - q)^-1'
     """
+    typed_argument("node", node, Node, "a syntax tree (from qseries.parse)")
     return _bare(node)

@@ -147,3 +147,24 @@ def test_argument_errors_are_exported():
     assert qseries.ArgumentError is ArgumentError
     assert qseries.ArgumentTypeError is ArgumentTypeError
     assert issubclass(qseries.PrecisionError, qseries.QSeriesError)
+
+
+@pytest.mark.parametrize(("call", "name"), [
+    (lambda: qseries.parse(5), "text"),
+    (lambda: qseries.parse(b"q"), "text"),
+    (lambda: qseries.parse("q", 5), "bound"),
+    (lambda: qseries.parse("q", "k"), "bound"),       # a string, not a list of names
+    (lambda: qseries.parse("q", [1]), "bound[0]"),
+    (lambda: qseries.lang.show("q"), "node"),
+    (lambda: qseries.lang.show(None), "node"),
+    (lambda: qseries.analysis.diagnose(5), "r"),
+    (lambda: qseries.product_form(5), "expr"),
+    (lambda: qseries.product_form("q", "x"), "order"),
+])
+def test_syntax_and_analysis_helpers_refuse_bad_types(call, name):
+    # issue 12: parse/show/diagnose raised TypeError or AttributeError from deep inside
+    refused(call, name, ArgumentTypeError)
+
+
+def test_parse_takes_any_iterable_of_bound_names():
+    assert qseries.parse("k q", ("k",)) == qseries.parse("k q", iter(["k"]))
