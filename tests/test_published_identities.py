@@ -56,7 +56,7 @@ IDENTITIES = [
         # second Rogers-Ramanujan identity; Andrews (1976), ch. 7
     ),
     pytest.param(
-        "theta3(q)", "(q^2;q^2)_inf (-q;q^2)_inf^2", 500,
+        "theta_3(q)", "(q^2;q^2)_inf (-q;q^2)_inf^2", 500,
         id="jacobi-triple-product-theta3",
         # Jacobi's triple product at z = 1; Andrews (1976), Thm. 2.8 (from memory)
     ),
@@ -108,15 +108,15 @@ def _r2(n: int) -> int:
 
 
 def test_theta3_squared_counts_sums_of_two_squares():
-    # the coefficient of q^n in theta3(q)^2 is r_2(n), counted here by brute force
-    s = evaluate("theta3(q)^2", 400)
+    # the coefficient of q^n in theta_3(q)^2 is r_2(n), counted here by brute force
+    s = evaluate("theta_3(q)^2", 400)
     assert s.coefficient_list(400) == [_r2(n) for n in range(400)]
 
 
 def test_jacobi_four_square_theorem():
     # Jacobi: r_4(n) = 8 * sum of the divisors d of n with 4 not dividing d (n >= 1);
     # Hardy and Wright, ch. 20 (from memory)
-    s = evaluate("theta3(q)^4", 300)
+    s = evaluate("theta_3(q)^4", 300)
     expected = [1] + [8 * sum(d for d in range(1, n + 1) if n % d == 0 and d % 4)
                       for n in range(1, 300)]
     assert s.coefficient_list(300) == expected

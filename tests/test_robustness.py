@@ -47,7 +47,7 @@ def test_large_finite_sums_are_cut_correctly():
 
 
 def test_theta_and_eta_of_high_powers_of_q():
-    assert evaluate("theta3(q^60)", 50).coefficient_list(50) == [1] + [0] * 49
+    assert evaluate("theta_3(q^60)", 50).coefficient_list(50) == [1] + [0] * 49
     # eta(60 tau) = q^(5/2) (q^60;q^60)_inf: only its first term lies below q^50
     assert list(evaluate("eta(q^60)", 50).terms()) == [(Fraction(5, 2), 1)]
 
@@ -362,7 +362,7 @@ def test_a_sum_of_monomials_with_a_deep_negative_valuation():
 # -- issue 11 §2: a precision never claims more than an O(q^k) or the order asked -----------
 @pytest.mark.parametrize("text, order, expected", [
     ("eta(q) + O(q^12)", 30, 12), ("eta(q) + O(q^17)", 30, 17), ("eta(q)", 3, 3),
-    ("theta2(q) + O(q^13)", 30, 13), ("-eta(q^2) + O(q^4)", 30, 4),
+    ("theta_2(q) + O(q^13)", 30, 13), ("-eta(q^2) + O(q^4)", 30, 4),
     ("2 (eta(q) + O(q^5))", 30, 5), ("q^3 (eta(q) + O(q^5))", 30, 8),
 ])
 def test_precision_with_fractional_offsets_is_not_overstated(text, order, expected):

@@ -26,7 +26,7 @@ import math
 import os
 import random
 import time
-from collections.abc import Callable
+from collections.abc import Callable, Iterable, Mapping
 from dataclasses import dataclass, field
 from fractions import Fraction
 
@@ -44,6 +44,8 @@ from ..errors import (
 )
 from ..lang import Node, parse, show
 from ..lang.ast import BigO, children, extra_variables
+from ..lang.definitions import Definition
+from ..lang.parser import definitions_of
 from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring, laurent_text
 from ..series.formatting import coefficient_text
 
@@ -366,7 +368,8 @@ def random_primes(k: int, seed: int | None = None) -> tuple[int, ...]:
 def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
           method: str = "exact", primes: int = 3, seed: int | None = None,
           progress: Callable[[str], None] | None = None,
-          weights: dict[str, int] | None = None) -> CheckResult:
+          weights: dict[str, int] | None = None,
+          definitions: Mapping[str, Definition] | Iterable[str] | None = None) -> CheckResult:
     """Evaluate both sides modulo q^order and compare every coefficient below q^order.
 
     ``method="modular"`` compares modulo ``primes`` (1 to 20) random primes near 2^62 (much
@@ -389,8 +392,9 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     (True, (1,))
     """
     _check_arguments(lhs, rhs, order, ring, method, primes, seed, progress)
-    lnode = parse(lhs) if isinstance(lhs, str) else lhs
-    rnode = parse(rhs) if isinstance(rhs, str) else rhs
+    defs = definitions_of(definitions)
+    lnode = parse(lhs, definitions=defs) if isinstance(lhs, str) else lhs
+    rnode = parse(rhs, definitions=defs) if isinstance(rhs, str) else rhs
     names = tuple(sorted(extra_variables(lnode) | extra_variables(rnode)))
     if names and ring.modulus is not None:
         raise ArgumentError(f"ring {ring} cannot hold the extra variables {', '.join(names)}: "

@@ -15,7 +15,7 @@ qseries.errors.DomainError: sum_{k>=0} does not converge as a formal power serie
 
 from __future__ import annotations
 
-from collections.abc import Iterable
+from collections.abc import Iterable, Mapping
 from fractions import Fraction
 from typing import Any
 
@@ -37,6 +37,7 @@ from ..lang.ast import (
     free_names,
     mentions_q,
 )
+from ..lang.definitions import Definition
 from ..lang.parser import parse
 from ..products import FUNCTIONS, monomial_parts
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
@@ -352,13 +353,17 @@ class Evaluator:
                 return c, e
         return None
 
-    def _base_step(self, node: Poch, env: dict[str, int], order: int) -> int:
+    def _base_step(self, node: Poch, env: dict[str, int], order: int,
+                   signed: bool = False) -> int:
+        """t for the base q^t; with ``signed``, -t for a base -q^t (as after q -> -q)."""
         base = self._exact_monomial(node.base, env) or self.value(node.base, env, order)
         mono = monomial_parts(base) if isinstance(base, Series) else None
-        if mono is None or mono[0] != 1 or mono[1].denominator != 1 or mono[1] < 1:
+        if mono is None or mono[1].denominator != 1 or mono[1] < 1 \
+                or mono[0] not in ((1, -1) if signed else (1,)):
             raise DomainError(f"the base of the q-Pochhammer symbol at column {node.pos + 1} "
-                              f"must be q^t with t a positive integer")
-        return int(mono[1])
+                              f"must be q^t with t a positive integer"
+                              + (" (or -q^t)" if signed else ""))
+        return int(mono[1]) * (1 if mono[0] == 1 else -1)
 
     def _param(self, node: Node, env: dict[str, int], order: int) -> Series:
         return self._exact_monomial(node, env) or self._as_series(self.value(node, env, order))
@@ -394,16 +399,36 @@ class Evaluator:
         return v.power(p, order) if p != 1 else v.truncate(order)
 
     def _poch(self, node: Poch, env: dict[str, int], order: int) -> Series:
-        t = self._base_step(node, env, order)
+        t = self._base_step(node, env, order, signed=True)
         n = None if node.length is None else self.integer(node.length, env,
                                                             "the subscript of (a;q)_n")
         acc: Series | None = None
         for p in node.params:
             a = self._param(p, env, order)
-            f = chooser.pochhammer_value(a, t, n, order, self.allowed)
+            if t > 0:
+                f = chooser.pochhammer_value(a, t, n, order, self.allowed)
+            else:
+                f = self._signed_poch(a, -t, n, order, node)
             acc = f if acc is None else (acc * f).truncate(order)
         assert acc is not None
         return acc
+
+    def _signed_poch(self, a: Series, t: int, n: int | None, order: int, node: Poch
+                     ) -> Series:
+        """(a;-q^t)_n = (a;q^(2t))_(ceil(n/2)) (-a q^t;q^(2t))_(floor(n/2)): the factors
+        1 - a (-q^t)^k for even and odd k (a base -q^t comes from q -> -q in (a;q)_n).
+
+        >>> Evaluator(ZZ).evaluate(parse("(q;-q)_inf"), 6)
+        1 - q + q^2 - 2q^3 + 2q^4 - 3q^5 + O(q^6)
+        """
+        if n is not None and n < 0:
+            raise UnableError(f"(a;-q^t)_n with n < 0 (column {node.pos + 1}) is not "
+                              f"supported; write it as 1/(a (-q^t)^n;-q^t)_(-n)")
+        even = None if n is None else (n + 1) // 2
+        odd = None if n is None else n // 2
+        first = chooser.pochhammer_value(a, 2 * t, even, order, self.allowed)
+        second = chooser.pochhammer_value(-a.shift(t), 2 * t, odd, order, self.allowed)
+        return (first * second).truncate(order)
 
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):
@@ -457,10 +482,13 @@ class Evaluator:
 
 # -- entry points --------------------------------------------------------------------------
 def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
-             weights: dict[str, int] | None = None) -> Series:
+             weights: dict[str, int] | None = None,
+             definitions: Mapping[str, Definition] | Iterable[str] | None = None) -> Series:
     """Parse (if needed) and evaluate an expression modulo q^order over ``ring`` (default:
     ZZ, or Laurent polynomials in the extra variables when there are any).  ``weights``
     maps extra variables z to w >= 0: z stands for z*q^w (see :class:`Evaluator`).
+    ``definitions`` are functions defined in the notation (texts ``"NAME(q) = ..."``) that
+    ``expr`` may call.
 
     >>> evaluate("(q;q)_inf^3", 11)
     1 - 3q + 5q^3 - 7q^6 + 9q^10 + O(q^11)
@@ -468,6 +496,8 @@ def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
     q^(1/24) - q^(25/24) - q^(49/24) + O(q^3)
     >>> evaluate("(z*q;q)_inf", 4)
     1 - z*q - z*q^2 + (z^2 - z)*q^3 + O(q^4)
+    >>> evaluate("F(-q)", 5, definitions=["F(q) = 1/(q;q)_inf"])
+    1 - q + 2q^2 - 3q^3 + 5q^4 + O(q^5)
     """
     from ..errors import integer_argument, typed_argument  # checks at the public surface
 
@@ -475,7 +505,7 @@ def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
     integer_argument("order", order, 0)
     if ring is not None:
         typed_argument("ring", ring, Ring, "a coefficient ring such as qseries.ZZ or GF(p)")
-    node = parse(expr) if isinstance(expr, str) else expr
+    node = parse(expr, definitions=definitions) if isinstance(expr, str) else expr
     names = extra_variables(node)
     check_weights(weights, names)
     if ring is None:

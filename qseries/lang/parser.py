@@ -1,4 +1,6 @@
-"""A hand-written recursive-descent parser for the notation of papers, in ASCII.
+r"""A hand-written recursive-descent parser for the notation of papers: plain ASCII, Unicode
+as PDFs print it, or LaTeX (:mod:`qseries.lang.tokens` reads all three into one token
+stream, so one grammar serves them).
 
 Grammar (informally; juxtaposition is multiplication)::
 
@@ -11,7 +13,14 @@ Grammar (informally; juxtaposition is multiplication)::
              | "(" expr ")" "_" subscript                            -- (a)_n = (a;q)_n
              | ("sum" | "prod") "_" "{" name (">=" expr | "=" bound) "}" ("^" upper)? term
              | function "(" expr ("," expr)* ")" | "O" "(" expr ")"
+             | \frac{expr}{expr} | \binom{expr}{expr} ("_" "q")?
+             | \begin{bmatrix} expr \\ expr \end{bmatrix} "_" "q"
     subscript := "inf" | "∞" | number | name | "(" expr ")" | "{" expr "}"
+
+A function is a registry builder (``eta``, ``theta_3``, ...), a registry function defined in
+the notation (``phi``, ``psi``, ``chi``, ``f``) or a user definition; the latter two are
+expanded in place when parsed (:mod:`qseries.lang.definitions`).  A name written directly
+before ``(`` is a function call, never a product: an unknown one is an error.
 
 No text is ever evaluated as code: the parser builds a tree of :mod:`qseries.lang.ast`
 nodes, and every error names the position with a caret.
@@ -29,20 +38,25 @@ qseries.errors.ParseError: unexpected ')' at column 3
 
 from __future__ import annotations
 
-from collections.abc import Iterable
-from dataclasses import dataclass
+import difflib
+from collections.abc import Iterable, Mapping
 from fractions import Fraction
+from functools import cache
+from math import factorial
 
 from ..errors import ArgumentTypeError, ParseError, typed_argument
 from ..products import FUNCTIONS
 from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var
+from .definitions import Definition, parse_definitions, split_head, substitute
+from .tokens import MAX_DIGITS, MAX_TEXT, Token, tokenize
 
-#: longest accepted input, in characters
-MAX_TEXT = 100_000
+__all__ = ["MAX_DEPTH", "MAX_DIGITS", "MAX_TEXT", "NOTATION_FORMS", "Token", "is_extra_variable",
+           "parse", "parse_body", "parse_definitions", "tokenize"]
+
 #: deepest accepted nesting of parentheses, operators and sums
 MAX_DEPTH = 100
-#: most digits in one integer literal
-MAX_DIGITS = 2_000
+#: largest k in an ordinary binomial \binom{n}{k} (a polynomial of degree k in n)
+MAX_BINOM_K = 24
 
 KEYWORDS = {"q", "sum", "prod", "inf", "O"}
 #: one line per construction of the notation; ``qseries notation`` and the README show it
@@ -55,75 +69,29 @@ NOTATION_FORMS = [
     ("sum_{k=-inf}^{inf} T", "bilateral sum"),
     ("prod_{n>=1} T   prod_{n=1}^{inf} T", "products"),
     ("O(q^N)", "an unknown remainder of order N"),
+    ("sum_{i,j>=0} T", "a multi-sum: each index over the same range"),
+    ("eta(q^5)  eta(5tau)  theta_3(-q)  phi(q^2)", "named functions (below) at q^d or -q^d; "
+                                                   "the ones defined by a sum at any argument"),
+    ("\\sum_{n\\ge0}\\frac{q^{n^2}}{(q;q)_n}", "LaTeX as papers print it (\\frac, \\binom{n}{k}_q, "
+                                           "\\infty, \\eta(\\tau), \\theta_3, ...)"),
+    ("Σ ∏ ≥ ≤ η θ φ ψ χ τ", "Unicode as PDFs print it"),
     ("z, a, b, x1  (z q;q)_inf  z^-1", "extra variables: letters other than q that no sum "
                                       "binds; coefficients become Laurent polynomials in them"),
 ]
 
-_DIGITS = frozenset("0123456789")
-_SYMBOLS = ["**", ">=", "<=", "+", "-", "*", "/", "^", "(", ")", "{", "}", ",", ";", "_", "=",
-            "∞", "<", ">", "[", "]"]
-
-
-@dataclass(frozen=True)
-class Token:
-    kind: str  # "num", "name", "sym", "end"
-    text: str
-    pos: int
-
-
-def tokenize(text: str) -> list[Token]:
-    """Split text into tokens; ``\\infty`` and ``oo`` are not accepted, ``∞`` is.
-
-    >>> [t.text for t in tokenize("2q^3 (q;q)_inf")]
-    ['2', 'q', '^', '3', '(', 'q', ';', 'q', ')', '_', 'inf', '']
-    """
-    if len(text) > MAX_TEXT:
-        raise ParseError(f"the expression is longer than {MAX_TEXT} characters",
-                         text[:200], 200)
-    out: list[Token] = []
-    i, n = 0, len(text)
-    while i < n:
-        ch = text[i]
-        if ch.isspace():
-            i += 1
-            continue
-        if ch in _DIGITS:
-            j = i
-            while j < n and text[j] in _DIGITS:
-                j += 1
-            if j < n and text[j] == "." and j + 1 < n and text[j + 1].isdigit():
-                raise ParseError("decimal numbers are not accepted; write a fraction such as 3/2",
-                                 text, j)
-            if j - i > MAX_DIGITS:
-                raise ParseError(f"number with more than {MAX_DIGITS} digits", text, i)
-            out.append(Token("num", text[i:j], i))
-            i = j
-            continue
-        if ch.isascii() and ch.isalpha():
-            j = i
-            while j < n and text[j].isascii() and (text[j].isalnum()):
-                j += 1
-            out.append(Token("name", text[i:j], i))
-            i = j
-            continue
-        for sym in _SYMBOLS:
-            if text.startswith(sym, i):
-                out.append(Token("sym", "^" if sym == "**" else sym, i))
-                i += len(sym)
-                break
-        else:
-            raise ParseError(f"unexpected character {ch!r}", text, i)
-    out.append(Token("end", "", n))
-    return out
-
 
 class _Parser:
-    def __init__(self, text: str, bound: Iterable[str] = ()) -> None:
+    def __init__(self, text: str, bound: Iterable[str] = (),
+                 definitions: Mapping[str, Definition] | None = None,
+                 params: Iterable[str] = ()) -> None:
         self.text = text
         self.toks = tokenize(text)
         self.i = 0
         self.depth = 0
         self.bound: list[str] = list(bound)
+        self.defs: Mapping[str, Definition] = definitions or {}
+        #: the parameters of a definition being parsed (extra-variable names)
+        self.params = frozenset(params)
         # set when a sum or product has just taken the rest of the term as its body
         self.tail_taken = False
 
@@ -180,11 +148,16 @@ class _Parser:
 
     def starts_factor(self) -> bool:
         t = self.tok
-        if t.kind == "num":
+        if t.kind in ("num", "name"):
             return True
-        if t.kind == "name":
-            return True
+        if t.kind == "cmd":
+            return not t.text.startswith("end")
         return t.kind == "sym" and t.text in ("(", "{", "∞")
+
+    def adjacent(self, offset: int = 1) -> bool:
+        """True when the token ``offset`` ahead touches the current one (no space between)."""
+        t, u = self.tok, self.toks[self.i + offset]
+        return u.pos == t.pos + len(t.text) and u.kind != "end"
 
     def term(self) -> Node:
         node = self.signed()
@@ -237,6 +210,8 @@ class _Parser:
             return Num(Fraction(int(t.text)), t.pos)
         if t.kind == "end":
             raise self.error("the expression ends too early")
+        if t.kind == "cmd":
+            return self.latex_command()
         if t.kind == "sym":
             if t.text == "(":
                 return self.paren()
@@ -263,31 +238,163 @@ class _Parser:
                 raise ParseError("O(...) takes a power of q, such as O(q^50)", self.text, t.pos)
             exponent = inner.right if isinstance(inner, BinOp) else Num(Fraction(1), t.pos)
             return BigO(exponent, t.pos)
-        if name in FUNCTIONS:
-            return self.call()
         if name in self.bound:
             self.take()
             return Name(name, t.pos)
+        if name == "theta" and self.toks[self.i + 1].text == "_":
+            return self.call(self.subscripted_name())
+        if name in FUNCTIONS or name in self.defs:
+            self.take()
+            return self.call(name, t)
         if name == "inf":
             raise self.error("'inf' may only stand as a subscript or a bound of a sum or product")
-        if is_extra_variable(name):
+        if self.toks[self.i + 1].text == "(" and self.adjacent():
+            raise self.error(_unknown_function_message(name, list(self.defs)))
+        if name in self.params or is_extra_variable(name):
             self.take()
             return Var(name, t.pos)
-        raise self.error(_unknown_name_message(name, self.bound))
+        if self.letters_of_a_product(name):
+            # "zq", "ij": letters side by side multiply, as in papers (and in LaTeX, where a
+            # run of letters is a run of one-letter symbols); a word close to a known name
+            # ("Sum", "infty") is refused with a suggestion instead
+            self.toks[self.i:self.i + 1] = [Token("name", ch, t.pos + k)
+                                            for k, ch in enumerate(name)]
+            return self.atom()
+        raise self.error(_unknown_name_message(name, self.bound, list(self.defs)))
 
-    def call(self) -> Node:
+    def letters_of_a_product(self, name: str) -> bool:
+        return (len(name) > 1 and name.isascii() and name.isalpha()
+                and _suggestion(name, list(self.defs)) is None
+                and all(ch == "q" or ch in self.bound or ch in self.params
+                        or is_extra_variable(ch) for ch in name))
+
+    def subscripted_name(self) -> tuple[str, Token]:
+        """theta_3, theta_{3}: the function's name and its first token."""
         t = self.take()
-        entry = FUNCTIONS[t.text]
-        self.expect("(", f" after {t.text}")
-        args = [self.expr()]
-        while self.at(","):
+        self.expect("_")
+        braced = self.at("{")
+        if braced:
             self.take()
-            args.append(self.expr())
-        self.expect(")")
-        if len(args) != len(entry.arguments):
-            raise ParseError(f"{t.text} takes {len(entry.arguments)} argument(s): "
-                             f"{t.text}({', '.join(entry.arguments)})", self.text, t.pos)
-        return Call(t.text, tuple(args), t.pos)
+        num = self.tok
+        if num.kind != "num":
+            raise self.error("expected the number of the theta function: theta_2, theta_3 "
+                             "or theta_4")
+        self.take()
+        if braced:
+            self.expect("}")
+        name = f"{t.text}_{num.text}"
+        if name not in FUNCTIONS:
+            raise ParseError(f"{name} is not a function of the notation (theta_2, theta_3 and "
+                             f"theta_4 are)", self.text, t.pos)
+        return name, t
+
+    def call(self, name: str | tuple[str, Token], t: Token | None = None) -> Node:
+        if isinstance(name, tuple):
+            name, t = name
+        assert t is not None
+        entry = FUNCTIONS.get(name)
+        self.expect("(", f" after {name}")
+        tau = self.tau_argument() if name == "eta" else None
+        if tau is not None:
+            args = [tau]
+        else:
+            args = [self.expr()]
+            while self.at(","):
+                self.take()
+                args.append(self.expr())
+            self.expect(")")
+        if entry is not None and entry.build is not None:
+            if len(args) != len(entry.arguments):
+                raise ParseError(f"{name} takes {len(entry.arguments)} argument(s): "
+                                 f"{name}({', '.join(entry.arguments)})", self.text, t.pos)
+            return Call(name, tuple(args), t.pos)
+        if entry is not None:
+            defn = _builtin_definition(name, len(args))
+            if defn is None:
+                forms = " or ".join(d.split(" = ")[0] for d in entry.definitions)
+                raise ParseError(f"{name} takes {forms}", self.text, t.pos)
+        else:
+            defn = self.defs[name]
+            if len(args) != len(defn.params):
+                raise ParseError(f"{name} takes {len(defn.params)} argument(s): "
+                                 f"{name}({', '.join(defn.params)})", self.text, t.pos)
+        return substitute(defn, tuple(args), t.pos)
+
+    def tau_argument(self) -> Node | None:
+        """eta(tau), eta(5tau), eta(5 tau), eta(5*tau): the argument q^5 (after the '(')."""
+        j = self.i
+        d = 1
+        if self.toks[j].kind == "num":
+            d = int(self.toks[j].text)
+            j += 1
+            if self.toks[j].text == "*":
+                j += 1
+        if self.toks[j].text != "tau" or self.toks[j + 1].text != ")" or d < 1:
+            return None
+        pos = self.tok.pos
+        self.i = j + 2
+        return Q(pos) if d == 1 else BinOp("^", Q(pos), Num(Fraction(d), pos), pos)
+
+    def braced(self, what: str) -> Node:
+        self.expect("{", f" (the argument of {what})")
+        node = self.expr()
+        self.expect("}", f" (closing the argument of {what})")
+        return node
+
+    def latex_command(self) -> Node:
+        t = self.take()
+        if t.text == "frac":
+            num = self.braced("\\frac")
+            den = self.braced("\\frac")
+            return BinOp("/", num, den, t.pos)
+        if t.text == "binom":
+            top = self.braced("\\binom")
+            bottom = self.braced("\\binom")
+            return self.binomial(top, bottom, t)
+        if t.text == "begin-matrix":
+            top = self.expr()
+            self.expect("\\\\", " between the rows of a Gaussian binomial")
+            bottom = self.expr()
+            if not (self.tok.kind == "cmd" and self.tok.text == "end-matrix"):
+                raise self.error("expected \\end{bmatrix} after the two rows of a Gaussian "
+                                 "binomial")
+            self.take()
+            if not self.gaussian_subscript():
+                raise self.error("a matrix stands for a Gaussian binomial here: write "
+                                 "\\begin{bmatrix} n \\\\ k \\end{bmatrix}_q")
+            return Call("gaussian", (top, bottom), t.pos)
+        raise self.error(f"unexpected {t.text}")
+
+    def gaussian_subscript(self) -> bool:
+        """Take ``_q`` or ``_{q}`` after a binomial when it follows."""
+        if not self.at("_"):
+            return False
+        j = self.i + 1
+        if self.toks[j].text == "q":
+            self.i = j + 1
+            return True
+        if self.toks[j].text == "{" and self.toks[j + 1].text == "q" \
+                and self.toks[j + 2].text == "}":
+            self.i = j + 3
+            return True
+        return False
+
+    def binomial(self, top: Node, bottom: Node, t: Token) -> Node:
+        """\\binom{n}{k}_q is the Gaussian binomial; \\binom{n}{k} with k a number the
+        polynomial n(n-1)...(n-k+1)/k! (as in q^{\\binom{n}{2}})."""
+        if self.gaussian_subscript():
+            return Call("gaussian", (top, bottom), t.pos)
+        if not (isinstance(bottom, Num) and bottom.value.denominator == 1
+                and 0 <= bottom.value <= MAX_BINOM_K):
+            raise ParseError(f"\\binom{{n}}{{k}} without _q needs a number k from 0 to "
+                             f"{MAX_BINOM_K}; write \\binom{{n}}{{k}}_q for the Gaussian "
+                             f"binomial", self.text, t.pos)
+        k = int(bottom.value)
+        node: Node = Num(Fraction(1, factorial(k)), t.pos)
+        for j in range(k):
+            factor = top if j == 0 else BinOp("-", top, Num(Fraction(j), t.pos), t.pos)
+            node = BinOp("*", node, factor, t.pos)
+        return node
 
     def paren(self) -> Node:
         open_tok = self.take()
@@ -357,6 +464,15 @@ class _Parser:
             raise self.error(f"{var_tok.text!r} is already bound by an enclosing sum or product")
         var = var_tok.text
         self.take()
+        more: list[str] = []
+        while self.at(","):
+            self.take()
+            t2 = self.tok
+            if t2.kind != "name" or t2.text in KEYWORDS or t2.text in FUNCTIONS \
+                    or t2.text in self.bound or t2.text in [var, *more]:
+                raise self.error(f"expected the name of another variable of the {kind}")
+            more.append(t2.text)
+            self.take()
         lower: Node | None
         upper: Node | None = None
         has_upper_allowed = True
@@ -381,13 +497,16 @@ class _Parser:
         if not explicit_upper and has_upper_allowed:
             raise self.error(f"{kind}_{{{var}=...}} needs an upper limit ^{{...}}, or write "
                              f"{kind}_{{{var}>=...}}")
-        self.bound.append(var)
+        names = [var, *more]
+        self.bound.extend(names)
         try:
             body = self.term()
         finally:
-            self.bound.pop()
+            del self.bound[-len(names):]
         self.tail_taken = True
-        return BigOp(kind, var, lower, upper, body, t.pos)
+        for name in reversed(names):
+            body = BigOp(kind, name, lower, upper, body, t.pos)
+        return body
 
     def bound_expr(self, allow_minus_inf: bool) -> Node | None:
         if allow_minus_inf and self.at("-"):
@@ -418,20 +537,68 @@ def is_extra_variable(name: str) -> bool:
     return rest == "" or (rest.isascii() and rest.isdigit())
 
 
-def _unknown_name_message(name: str, bound: list[str]) -> str:
-    hint = ""
+def _suggestion(name: str, defined: list[str]) -> str | None:
+    """The known name closest to ``name`` (``Sum`` -> ``sum``, ``infty`` -> ``inf``)."""
+    known = ["sum", "prod", "inf", *FUNCTIONS, *defined]
+    lowered = {k.lower(): k for k in known}
+    close = difflib.get_close_matches(name.lower(), list(lowered), n=1, cutoff=0.6)
+    return lowered[close[0]] if close else None
+
+
+def _unknown_name_message(name: str, bound: list[str], defined: list[str] = ()) -> str:
     if name == "Q":
-        hint = " (did you mean q? Q is not accepted as an extra variable)"
-    elif len(name) > 1 and name.isalpha():
-        hint = (f" (extra variables are single letters, optionally followed by digits; "
-                f"write a product with spaces or '*', e.g. {' '.join(name)})")
-    return f"unknown name {name!r}{hint}"
+        return "unknown name 'Q' (did you mean q? Q is not accepted as an extra variable)"
+    near = _suggestion(name, list(defined))
+    if near is not None:
+        return f"unknown name {name!r} (did you mean {near}?)"
+    return (f"unknown name {name!r} (extra variables are single letters, optionally followed "
+            f"by digits; a product of them needs spaces or '*')")
 
 
-def parse(text: str, bound: Iterable[str] = ()) -> Node:
-    """Parse text in the notation into a syntax tree; ``bound`` names variables bound outside.
+def _unknown_function_message(name: str, defined: list[str]) -> str:
+    near = _suggestion(name, defined)
+    did = f"did you mean {near}? " if near is not None else ""
+    return (f"unknown function {name!r} ({did}a name directly before '(' is a function call; "
+            f"define it, e.g. {name}(q) = ..., or write {name}*(...) for a product)")
+
+
+@cache
+def _builtin_definition(name: str, arity: int) -> Definition | None:
+    """The registry's definition of ``name`` with ``arity`` arguments, parsed once."""
+    for text in FUNCTIONS[name].definitions:
+        fname, params, body_pos, _ = split_head(text)
+        if fname == name and len(params) == arity:
+            return Definition(name, params, parse_body(text, body_pos, params, {}), text)
+    return None
+
+
+def parse_body(text: str, start: int, params: Iterable[str],
+               definitions: Mapping[str, Definition]) -> Node:
+    """Parse the part of ``text`` from character ``start`` on (the body of a definition),
+    with ``params`` read as the definition's parameters.
+
+    >>> from qseries.lang.printer import show
+    >>> show(parse_body("P(x) = sum_{n>=0} x^n", 7, ("x",), {}))
+    'sum_{n>=0} x^n'
+    """
+    p = _Parser(text, (), definitions, params)
+    while p.tok.kind != "end" and p.tok.pos < start:
+        p.i += 1
+    return p.parse()
+
+
+def parse(text: str, bound: Iterable[str] = (),
+          definitions: Mapping[str, Definition] | Iterable[str] | None = None) -> Node:
+    r"""Parse text in the notation into a syntax tree; ``bound`` names variables bound outside;
+    ``definitions`` are functions defined in the notation (texts such as
+    ``"G(q) = 1/((q;q^5)_inf (q^4;q^5)_inf)"``, or the result of ``parse_definitions``),
+    expanded where they are called.
 
     >>> parse("(q;q)_inf") == parse("(q)_∞")
+    True
+    >>> parse(r"\prod_{n\geq 1}\frac{1}{1-q^n}") == parse("prod_{n>=1} 1/(1-q^n)")
+    True
+    >>> parse("G(q^2)", definitions=["G(q) = 1/(q;q)_inf"]) == parse("1/(q^2;q^2)_inf")
     True
     """
     typed_argument("text", text, str, "a string in the notation")
@@ -441,4 +608,26 @@ def parse(text: str, bound: Iterable[str] = ()) -> Node:
     bound = tuple(bound)
     for i, name in enumerate(bound):
         typed_argument(f"bound[{i}]", name, str, "a variable name")
-    return _Parser(text, bound).parse()
+    return _Parser(text, bound, definitions_of(definitions)).parse()
+
+
+def definitions_of(definitions: Mapping[str, Definition] | Iterable[str] | None
+                   ) -> dict[str, Definition]:
+    """Parsed definitions from texts (or already parsed ones, passed through).
+
+    >>> sorted(definitions_of(["G(q) = 1/(1-q)"]))
+    ['G']
+    """
+    if definitions is None:
+        return {}
+    if isinstance(definitions, Mapping):
+        for k, v in definitions.items():
+            if not isinstance(v, Definition):
+                raise ArgumentTypeError(f"definitions[{k!r}] must be a parsed definition, "
+                                        f"not {type(v).__name__}")
+        return dict(definitions)
+    return parse_definitions(definitions, reserved=_reserved)
+
+
+def _reserved(name: str) -> bool:
+    return name in FUNCTIONS or name in ("theta", "tau", "eta")

@@ -2,7 +2,7 @@
 functions, q-binomial coefficients, and the registry the parser and CLI read.
 
 >>> from qseries.products import FUNCTIONS
->>> 'theta3' in FUNCTIONS
+>>> 'theta_3' in FUNCTIONS
 True
 """
 

@@ -35,7 +35,7 @@ def product_sides(draw: st.DrawFn) -> str:
 
 
 sides = st.one_of(sum_sides(), product_sides(),
-                  st.sampled_from(["theta3(q)^2", "eta(q)^2 eta(q^2)^-1", "theta4(q^2)"]))
+                  st.sampled_from(["theta_3(q)^2", "eta(q)^2 eta(q^2)^-1", "theta_4(q^2)"]))
 
 
 @settings(max_examples=40, deadline=None)

@@ -33,14 +33,14 @@ def test_euler_and_jacobi():
 
 
 def test_eta_quotient_of_theta4():
-    # Gauss: theta4(q) = (q;q)_inf/(-q;q)_inf = eta(tau)^2/eta(2 tau)
-    pf = product_form("theta4(q)", 120)
+    # Gauss: theta_4(q) = (q;q)_inf/(-q;q)_inf = eta(tau)^2/eta(2 tau)
+    pf = product_form("theta_4(q)", 120)
     assert pf.eta == "eta(q)^2 eta(q^2)^-1"
 
 
 @pytest.mark.parametrize("expr", [
     "sum_{k>=0} q^(k^2)/(q;q)_k^2",
-    "theta3(q)",
+    "theta_3(q)",
     "2 q^3 (q;q^2)_inf",
     "-q^2 (q^2;q^7)_inf^2 (q^5;q^7)_inf^-1",
     "eta(q)^3/eta(q^2)",

@@ -110,7 +110,7 @@ def test_check_help_describes_every_exit_code():
     ["check", "q", "__import__('os').system('true')"],
     ["check", "sum_{k>=0} 1/(q;q)_k", "1"],
     ["expand", "1/0"],
-    ["expand", "xy"],
+    ["expand", "infty"],              # near a known name: refused, not i*n*f*t*y
     ["expand", "q^z"],
     ["expand", "1/(1-z)"],
     ["product", "1/(z q;q)_inf"],

@@ -107,8 +107,8 @@ def test_division_by_zero(text):
 
 
 @pytest.mark.parametrize("text", [
-    "2^q", "2^(1/2)", "(1+q)^(1/2)", "(q;q)_(1/2)", "(q;q^0)_inf", "(q;-q)_inf",
-    "(q;2q)_inf", "theta3(2)", "eta(1+q)", "gaussian(q, 2)", "gaussian(1/2, 1)",
+    "2^q", "2^(1/2)", "(1+q)^(1/2)", "(q;q)_(1/2)", "(q;q^0)_inf",
+    "(q;2q)_inf", "theta_3(2)", "eta(1+q)", "gaussian(q, 2)", "gaussian(1/2, 1)",
     "2^(10^9)", "10^(10^7)", "q^(-10^8) (q;q)_inf", "sum_{k=0}^{10^9} 1",
 ])
 def test_other_bad_input_is_a_clear_error(text):
@@ -275,3 +275,19 @@ def test_a_divisor_with_a_written_o_term_is_not_recomputed_to_ever_higher_orders
     with pytest.raises(DomainError, match="vanishes to O"):
         evaluate("(O(q^26)*(prod_{n>=1}(1+q^n)^(-1)))^(-1)", 100)
     assert max(seen) == 2 * 100 + 8
+
+
+@pytest.mark.parametrize(("poch", "product"), [
+    ("(q;-q)_inf", "prod_{k=0}^{60} (1 - q*(-q)^k)"),
+    ("(q;-q)_5", "prod_{k=0}^{4} (1 - q*(-q)^k)"),
+    ("(z;-q^2)_3", "prod_{k=0}^{2} (1 - z*(-q^2)^k)"),
+    ("(-q;-q)_inf", "prod_{k=1}^{60} (1 - (-q)^k)"),
+])
+def test_a_base_minus_q_to_the_t_is_the_product_it_names(poch, product):
+    # (a;-q^t)_n, as q -> -q makes of (a;q)_n: factor by factor (issue 13, substitution)
+    assert evaluate(poch, 40) == evaluate(product, 40)
+
+
+def test_a_base_minus_q_with_a_negative_length_is_refused_clearly():
+    with pytest.raises(UnableError, match="n < 0"):
+        evaluate("(q;-q)_(-2)", 10)

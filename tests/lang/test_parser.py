@@ -66,8 +66,8 @@ def test_functions_and_big_o():
     ("", 1),
     ("2 $ 3", 3),
     ("1.5 q", 2),
-    ("xy + q", 1),
-    ("qq", 1),
+    ("Sum_{k>=0} q + q", 1),          # a word near a known name
+    ("q + etta(q)", 5),
     ("sum_{k>0} q^k", 7),
     ("sum_{k=0} q^k", 11),
     ("sum_{q>=0} q", 6),

@@ -20,7 +20,7 @@ EXAMPLES = [
     "prod_{n=1}^{10} (1-q^n)^-1",
     "eta(q)^3 eta(q^2)^-1 + O(q^40)",
     "q^-(2+1) - -q",
-    "gaussian(6, 2) theta3(q^2)",
+    "gaussian(6, 2) theta_3(q^2)",
     "sum_{n>=0} sum_{k=0}^{n} q^(n k)",
     "1/(q)_inf",
     "q^(1/24) (q;q)_(-3)",

@@ -1,0 +1,152 @@
+"""Functions defined in the notation, substitution into named functions, and Ramanujan's
+theta functions (issue 13, items 3 and 4)."""
+
+import pytest
+
+from qseries import check, evaluate, parse
+from qseries.errors import ArgumentTypeError, DomainError, ParseError
+from qseries.lang.definitions import parse_definitions
+from qseries.products import FUNCTIONS
+
+G = "G(q) = 1/((q;q^5)_inf (q^4;q^5)_inf)"
+H = "H(q) = 1/((q^2;q^5)_inf (q^3;q^5)_inf)"
+
+
+def test_a_definition_is_the_same_as_its_body_at_any_argument():
+    for arg, body in [("q", "q"), ("q^2", "q^2"), ("-q", "-q"), ("-q^3", "-q^3")]:
+        a = evaluate(f"G({arg})", 60, definitions=[G])
+        b = evaluate(f"1/(({body};({body})^5)_inf (({body})^4;({body})^5)_inf)", 60)
+        assert a == b, arg
+
+
+def test_rogers_ramanujan_forty_identities_1_4_with_definitions():
+    # Berndt et al., "Ramanujan's forty identities for the Rogers-Ramanujan functions",
+    # Mem. AMS 188 (2007), no. 880, (1.4): H(q) G(q^11) - q^2 G(q) H(q^11) = 1
+    r = check("H(q) G(q^11) - q^2 G(q) H(q^11)", "1", 300, definitions=[G, H])
+    assert r.holds is True
+
+
+def test_definitions_may_use_each_other_in_any_order():
+    defs = ["R(q) = q^(1/5) H(q)/G(q)", H, G]
+    # R is the Rogers-Ramanujan continued fraction; here only its definition is checked
+    a = evaluate("R(q)", 30, definitions=defs)
+    b = evaluate("q^(1/5) (q;q^5)_inf (q^4;q^5)_inf/((q^2;q^5)_inf (q^3;q^5)_inf)", 30)
+    assert a == b
+
+
+@pytest.mark.parametrize(("defs", "words"), [
+    (["A(q) = B(q)", "B(q) = A(q^2)"], "cycle: A -> B -> A"),
+    (["A(q) = A(q^2)"], "cycle: A -> A"),
+    (["A(q) = 1", "A(q) = 2"], "defined twice"),
+    (["eta(q) = 1"], "already a name"),
+    (["A(q, q) = 1"], "appears twice"),
+    (["A(qq) = 1"], "parameter"),
+    (["A = 1"], "NAME(q) = EXPRESSION"),
+    (["A(q) 1"], "expected '='"),
+])
+def test_bad_definitions_are_clear_errors(defs, words):
+    with pytest.raises(ParseError) as info:
+        parse_definitions(defs)
+    assert words in str(info.value)
+
+
+def test_definitions_must_be_a_list_of_texts():
+    with pytest.raises(ArgumentTypeError):
+        parse("G(q)", definitions="G(q) = 1")
+
+
+def test_a_call_with_the_wrong_number_of_arguments_is_refused():
+    with pytest.raises(ParseError, match="G takes 1 argument"):
+        parse("G(q, q)", definitions=[G])
+
+
+def test_bound_names_of_the_body_do_not_capture_the_argument():
+    # P(x) = sum_n x^n; P(q^n) inside a sum over n must use the outer n
+    defs = ["P(x) = sum_{n>=0} x^n"]
+    a = evaluate("sum_{n>=1} q^n P(q^n)", 30, definitions=defs)
+    b = evaluate("sum_{n>=1} q^n/(1-q^n)", 30)
+    assert a == b
+
+
+@pytest.mark.parametrize("text", ["f(-q)", "G(q) H(q)", "z(1-q)", "sinq(q)"])
+def test_a_name_directly_before_a_parenthesis_is_never_a_product(text):
+    # issue 13: f(-q) was read as f*(-q)
+    with pytest.raises(ParseError, match="function") if text != "f(-q)" else _nothing():
+        node = parse(text)
+        assert node == parse("(q;q)_inf") or evaluate(node, 20) == evaluate("(q;q)_inf", 20)
+
+
+class _nothing:
+    def __enter__(self):
+        return self
+
+    def __exit__(self, *exc):
+        return False
+
+
+def test_a_space_keeps_juxtaposition():
+    assert parse("z (1-q)") == parse("z*(1-q)")
+    assert parse("q^(k(3k-1)/2)", bound=["k"]) == parse("q^(k*(3k-1)/2)", bound=["k"])
+
+
+# -- Ramanujan's notation, B. C. Berndt, Ramanujan's Notebooks III, Ch. 16 (from memory) ---
+@pytest.mark.parametrize(("lhs", "rhs"), [
+    ("f(-q)", "(q;q)_inf"),                                  # Entry 22(iii)
+    ("phi(q)", "theta_3(q)"),
+    ("phi(-q)", "theta_4(q)"),
+    ("psi(q)", "f(q, q^3)"),                                  # Entry 22(ii)
+    ("f(q^2, q^3)", "(-q^2;q^5)_inf (-q^3;q^5)_inf (q^5;q^5)_inf"),   # Entry 19
+    ("f(z q, q/z)", "(-z q;q^2)_inf (-q/z;q^2)_inf (q^2;q^2)_inf"),   # Entry 19, in z
+    ("chi(-q)", "(q;q^2)_inf"),
+    ("theta_3(-q^2)", "theta_4(q^2)"),
+    ("theta_4(-q)", "theta_3(q)"),
+])
+def test_ramanujan_and_jacobi_notation(lhs, rhs):
+    r = check(lhs, rhs, 120)
+    assert r.holds is True, (lhs, rhs, r.first_mismatch)
+
+
+def test_psi_is_the_generating_function_of_triangular_numbers():
+    # psi(q) = sum_{n>=0} q^(n(n+1)/2): coefficient 1 exactly at triangular numbers
+    s = evaluate("psi(q)", 200)
+    tri = {n * (n + 1) // 2 for n in range(30)}
+    assert s.coefficient_list(200) == [1 if k in tri else 0 for k in range(200)]
+
+
+def test_functions_with_a_fractional_offset_refuse_minus_q():
+    with pytest.raises(DomainError, match="fractional power"):
+        evaluate("eta(-q)", 10)
+    with pytest.raises(DomainError):
+        evaluate("theta_2(-q)", 10)
+
+
+def test_the_old_spellings_are_retired_with_a_suggestion():
+    with pytest.raises(ParseError, match="did you mean theta_3"):
+        parse("theta3(q)")
+
+
+def test_every_registry_entry_names_a_source_and_its_example_evaluates():
+    for entry in FUNCTIONS.values():
+        assert entry.source, entry.name
+        assert entry.build is not None or entry.definitions, entry.name
+        evaluate(entry.example, 10)
+
+
+def test_unknown_words_get_a_suggestion_not_their_letters():
+    for word, near in [("Sum_{k>=0} q^k", "sum"), ("infty", "inf"), ("prd_{k>=0} q", "prod")]:
+        with pytest.raises(ParseError) as info:
+            parse(word)
+        assert f"did you mean {near}?" in str(info.value)
+        assert " S u m" not in str(info.value)
+
+
+def test_letters_side_by_side_multiply_as_in_papers():
+    # issue 13: "6ij" for 6 i j; LaTeX (zq;q)_\infty
+    assert parse("sum_{i>=0} sum_{j>=0} q^(6ij)") == parse("sum_{i>=0} sum_{j>=0} q^(6*i*j)")
+    assert parse("(zq;q)_inf") == parse("(z*q;q)_inf")
+
+
+def test_multi_index_sums_share_the_range():
+    a = evaluate("sum_{i,j>=0} q^(i^2+j^2)/((q;q)_i (q;q)_j)", 60)
+    b = evaluate("(sum_{i>=0} q^(i^2)/(q;q)_i)^2", 60)
+    assert a == b
