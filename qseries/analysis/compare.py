@@ -219,20 +219,6 @@ class CheckResult:
             out.append((e_out, self.lhs.coefficient(e), self.rhs.coefficient(e)))
         return out
 
-    def table(self, radius: int = 2) -> list[str]:
-        """Lines of a right-aligned table of both sides' coefficients around the first
-        mismatch (empty when the sides agree)."""
-        head = "weighted degree" if self.weighted else "exponent"
-        show = self.unweighted_text   # without weights: the coefficient itself
-        rows = [(head, "left", "right", "difference")] + [
-            (_text(e), show(a, e), show(b, e), show(a - b, e))
-            for e, a, b in self.neighbours(radius)]
-        if len(rows) == 1:
-            return []
-        widths = [max(len(row[i]) for row in rows) for i in range(4)]
-        return ["  " + "  ".join(c.rjust(w) for c, w in zip(row, widths, strict=True))
-                for row in rows]
-
 
 def _low(s: Series) -> Fraction:
     v = s.valuation

@@ -1,7 +1,8 @@
 """Verify catalogue entries, in parallel worker processes.
 
 An entry is "ok" when it behaves as its file says: it holds to the order, or (for a printed
-form recorded as wrong) it fails exactly at the recorded exponent.
+form recorded as wrong) it fails exactly at the recorded exponent.  An inconclusive check
+(no coefficient compared, ``holds`` None) is neither: such an entry is never ok.
 
 >>> from qseries.catalogue.files import Entry
 >>> e = Entry("euler", "Euler", "(-q;q)_inf", "1/(q;q^2)_inf", 60, "from memory", "-", 1)
@@ -30,25 +31,23 @@ if TYPE_CHECKING:
 
 from ..analysis import check
 from ..errors import QSeriesError
+from ..report import mismatch_json
 from .files import Entry
 
 
 @dataclass(frozen=True)
 class EntryResult:
-    """The outcome for one entry."""
+    """The outcome for one entry: ``holds`` as the check says (None when inconclusive),
+    ``ok`` whether the entry behaves as its file records, ``first_mismatch`` in the JSON
+    shape of :func:`qseries.report.mismatch_json`."""
 
     ident: str
-    holds: bool
+    holds: bool | None
     ok: bool
     order: int | Fraction
     first_mismatch: dict | None
     seconds: float
     error: str = ""
-
-
-def _json_exp(e: int | Fraction) -> int | str:
-    e = Fraction(e)
-    return e.numerator if e.denominator == 1 else str(e)
 
 
 def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
@@ -62,11 +61,9 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
         return EntryResult(entry.ident, False, False, 0, None, time.perf_counter() - t0,
                            str(err))
     m = r.first_mismatch
-    mismatch = None if m is None else {"index": _json_exp(m.exponent),
-                                       "lhs": r.unweighted_text(m.lhs, m.exponent),
-                                       "rhs": r.unweighted_text(m.rhs, m.exponent)}
+    mismatch = mismatch_json(r)
     if entry.expect == "holds":
-        ok = r.holds and r.order_verified == n
+        ok = r.holds is True and r.order_verified == n
     else:
         # a recorded misprint must fail exactly where the file says (if that is below n)
         try:
@@ -75,8 +72,9 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
             return EntryResult(entry.ident, r.holds, False, r.order_verified, mismatch,
                                time.perf_counter() - t0,
                                f"fails_at must be an exponent, not {entry.fails_at!r}")
-        ok = (m is not None and Fraction(m.exponent) == expected) or \
-            (m is None and expected >= Fraction(r.order_verified))
+        # an inconclusive check (holds None) is not the recorded failure either
+        ok = (r.holds is False and m is not None and Fraction(m.exponent) == expected) or \
+            (r.holds is True and expected >= Fraction(r.order_verified))
     return EntryResult(entry.ident, r.holds, ok, r.order_verified, mismatch,
                        time.perf_counter() - t0)
 
