@@ -13,12 +13,12 @@ from .json_shapes import known_order
 
 
 def expansion_text(s: Series, order: int) -> str:
-    """The series in the notation the parser reads back, with O(q^order) when it is exact
-    (its own O(q^k) otherwise).
+    """The series in the notation the parser reads back: a series known to O(q^k) as it
+    is, an exact polynomial cut at q^order (with O(q^order) when terms were cut).
 
     >>> from qseries.engine import evaluate
-    >>> expansion_text(evaluate("1 + q^7", 4), 4)
-    '1 + O(q^4)'
+    >>> expansion_text(evaluate("1 + q^7", 4), 4), expansion_text(evaluate("1 + q^2", 4), 4)
+    ('1 + O(q^4)', '1 + q^2')
     """
     return format_series(s if s.precision is not None else s.truncate(order))
 
