@@ -63,14 +63,6 @@ class Mismatch:
     def difference(self) -> Number:
         return self.lhs - self.rhs
 
-    def __getstate__(self) -> dict:
-        return {"exponent": self.exponent, "lhs": _portable(self.lhs),
-                "rhs": _portable(self.rhs)}
-
-    def __setstate__(self, state: dict) -> None:
-        for name, value in state.items():
-            object.__setattr__(self, name, _restored(value))
-
 
 @dataclass(frozen=True)
 class CheckResult:
@@ -256,25 +248,6 @@ def _shortfall(order: int, verified: Exponent, known: tuple[Exponent, Exponent],
                    "negative powers of q cost precision")
             parts.append(f"the {side} side is known only below q^{_text(k)} ({why})")
     return " and ".join(parts) or "negative powers of q cost precision"
-
-
-def _portable(c: object) -> object:
-    """A coefficient in a form pickle can store: a Laurent polynomial (whose FLINT parts
-    cannot be pickled) travels as a constant series, which pickles as plain data."""
-    if isinstance(c, LaurentPoly):
-        return _Scalar(Series.constant(c, c.ring))
-    return c
-
-
-def _restored(c: object) -> object:
-    return c.series.coefficient(0) if isinstance(c, _Scalar) else c
-
-
-@dataclass(frozen=True)
-class _Scalar:
-    """A pickled coefficient in extra variables (see :func:`_portable`)."""
-
-    series: Series
 
 
 def _text(x: Exponent | Number | LaurentPoly) -> str:
