@@ -52,7 +52,17 @@ class EntryResult:
 
 def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
     """Check one entry at its default order (or ``order``), by the method ``check`` picks
-    for that order (exact, or modulo primes at high order)."""
+    for that order (exact, or modulo primes at high order).  The entry is ok when it holds
+    to the order, or (``expect = "fails"``) fails exactly at ``fails_at``; an inconclusive
+    check (``holds`` None) is never ok.
+
+    >>> from qseries.catalogue.files import Entry
+    >>> e = Entry("x", "x", "1/(1-q)", "1/(1-q) + q^7", 30, "invented", "-", 1,
+    ...           expect="fails", fails_at=7)
+    >>> r = verify_entry(e)
+    >>> r.ok, r.holds, r.first_mismatch
+    (True, False, {'index': 7, 'lhs': '1', 'rhs': '2'})
+    """
     n = order or entry.order
     t0 = time.perf_counter()
     try:

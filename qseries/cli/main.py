@@ -33,6 +33,7 @@ from ..report import (
     expansion_text,
     listing_json,
     listing_rows,
+    listing_summary,
     listing_table,
     no_product_json,
     no_product_line,
@@ -41,6 +42,7 @@ from ..report import (
     trend_csv,
     trend_json,
     verify_json,
+    verify_summary,
     verify_table,
 )
 from ..series import GF, MAX_LENGTH, Series
@@ -429,9 +431,7 @@ def verify(
     else:
         if results:
             console.print(verify_table(results, {e.ident: e.expect for e in entries}))
-        console.print(f"{n_ok} of {len(results)} {'finished ' if interrupted else ''}entries "
-                      f"behave as recorded ({elapsed:.1f} s); agreement to O(q^N) is "
-                      f"evidence, not a proof")
+        console.print(verify_summary(results, elapsed, interrupted))
     if interrupted:
         typer.echo(f"qseries: interrupted: {len(results)} of {len(entries)} entries finished",
                    err=True)
@@ -458,7 +458,7 @@ def list_cmd(
     rows = listing_rows(entries)
     console = Console()
     console.print(listing_table(rows))
-    console.print(f"{len(rows)} entries, {len(entries)} identities counting family members")
+    console.print(listing_summary(rows))
 
 
 def run() -> None:

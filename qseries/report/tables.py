@@ -1,5 +1,6 @@
-"""The tables of ``qseries verify`` and ``qseries list``: rich tables, built only when a
-command prints one (rich is imported inside the functions, to keep start-up fast).
+"""The tables of ``qseries verify`` and ``qseries list`` with the line under each: rich
+tables, built only when a command prints one (rich is imported inside the functions, to keep
+start-up fast).
 
 >>> listing_table([]).row_count
 0
@@ -43,6 +44,22 @@ def verify_table(results: Sequence[EntryOutcome], expects: Mapping[str, str]) ->
     return table
 
 
+def verify_summary(results: Sequence[EntryOutcome], seconds: float,
+                   interrupted: bool = False) -> str:
+    """The line under the table of ``qseries verify``: how many (finished) entries behave as
+    recorded, the time, and that agreement is evidence.
+
+    >>> from types import SimpleNamespace as Outcome
+    >>> verify_summary([Outcome(ok=True), Outcome(ok=False)], 1.25)
+    '1 of 2 entries behave as recorded (1.2 s); agreement to O(q^N) is evidence, not a proof'
+    >>> verify_summary([], 0.0, interrupted=True)[:25]
+    '0 of 0 finished entries b'
+    """
+    n_ok = sum(r.ok for r in results)
+    return (f"{n_ok} of {len(results)} {'finished ' if interrupted else ''}entries behave as "
+            f"recorded ({seconds:.1f} s); agreement to O(q^N) is evidence, not a proof")
+
+
 def listing_table(rows: Sequence[Mapping[str, Any]]) -> Table:
     """The table of ``qseries list`` from :func:`~qseries.report.json_shapes.listing_rows`:
     identifier, members, title, source.
@@ -60,3 +77,14 @@ def listing_table(rows: Sequence[Mapping[str, Any]]) -> Table:
     for row in rows:
         table.add_row(row["id"], str(row["members"]), row["title"], row["source"])
     return table
+
+
+def listing_summary(rows: Sequence[Mapping[str, Any]]) -> str:
+    """The line under the table of ``qseries list``: entries, and identities counting the
+    members of families.
+
+    >>> listing_summary([{"members": 1}, {"members": 14}])
+    '2 entries, 15 identities counting family members'
+    """
+    return (f"{len(rows)} entries, {sum(row['members'] for row in rows)} identities counting "
+            f"family members")

@@ -5,7 +5,7 @@ from types import SimpleNamespace
 
 from rich.console import Console
 
-from qseries.report import listing_table, verify_table
+from qseries.report import listing_summary, listing_table, verify_summary, verify_table
 
 
 def _text(table) -> str:
@@ -35,3 +35,14 @@ def test_listing_table_rows():
     table = listing_table(rows)
     assert [list(c.cells) for c in table.columns] == [["fam"], ["3"], ["F"], ["src"]]
     assert [c.header for c in table.columns] == ["identifier", "members", "title", "source"]
+
+
+def test_summary_lines():
+    ok, bad = SimpleNamespace(ok=True), SimpleNamespace(ok=False)
+    assert verify_summary([ok, bad, ok], 12.34) == (
+        "2 of 3 entries behave as recorded (12.3 s); agreement to O(q^N) is evidence, not a "
+        "proof")
+    assert verify_summary([ok], 0.0, interrupted=True).startswith(
+        "1 of 1 finished entries behave as recorded")
+    assert listing_summary([{"members": 3}, {"members": 1}]) == \
+        "2 entries, 4 identities counting family members"
