@@ -8,8 +8,8 @@ import qseries
 
 ROOT = pathlib.Path(qseries.__file__).parent
 
-LAYERS = ["errors", "_flint", "series", "products", "lang", "engine", "analysis", "catalogue",
-          "testing", "cli"]
+LAYERS = ["errors", "_flint", "series", "products", "lang", "engine", "analysis", "report",
+          "catalogue", "testing", "cli"]
 
 
 def _layer(module: str) -> str:

@@ -65,14 +65,6 @@ class Mismatch:
     def difference(self) -> Number:
         return self.lhs - self.rhs
 
-    def __getstate__(self) -> dict:
-        return {"exponent": self.exponent, "lhs": _portable(self.lhs),
-                "rhs": _portable(self.rhs)}
-
-    def __setstate__(self, state: dict) -> None:
-        for name, value in state.items():
-            object.__setattr__(self, name, _restored(value))
-
 
 @dataclass(frozen=True)
 class CheckResult:
@@ -221,20 +213,6 @@ class CheckResult:
             out.append((e_out, self.lhs.coefficient(e), self.rhs.coefficient(e)))
         return out
 
-    def table(self, radius: int = 2) -> list[str]:
-        """Lines of a right-aligned table of both sides' coefficients around the first
-        mismatch (empty when the sides agree)."""
-        head = "weighted degree" if self.weighted else "exponent"
-        show = self.unweighted_text   # without weights: the coefficient itself
-        rows = [(head, "left", "right", "difference")] + [
-            (_text(e), show(a, e), show(b, e), show(a - b, e))
-            for e, a, b in self.neighbours(radius)]
-        if len(rows) == 1:
-            return []
-        widths = [max(len(row[i]) for row in rows) for i in range(4)]
-        return ["  " + "  ".join(c.rjust(w) for c, w in zip(row, widths, strict=True))
-                for row in rows]
-
 
 def _low(s: Series) -> Fraction:
     v = s.valuation
@@ -272,25 +250,6 @@ def _shortfall(order: int, verified: Exponent, known: tuple[Exponent, Exponent],
                    "negative powers of q cost precision")
             parts.append(f"the {side} side is known only below q^{_text(k)} ({why})")
     return " and ".join(parts) or "negative powers of q cost precision"
-
-
-def _portable(c: object) -> object:
-    """A coefficient in a form pickle can store: a Laurent polynomial (whose FLINT parts
-    cannot be pickled) travels as a constant series, which pickles as plain data."""
-    if isinstance(c, LaurentPoly):
-        return _Scalar(Series.constant(c, c.ring))
-    return c
-
-
-def _restored(c: object) -> object:
-    return c.series.coefficient(0) if isinstance(c, _Scalar) else c
-
-
-@dataclass(frozen=True)
-class _Scalar:
-    """A pickled coefficient in extra variables (see :func:`_portable`)."""
-
-    series: Series
 
 
 def _text(x: Exponent | Number | LaurentPoly) -> str:

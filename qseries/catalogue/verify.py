@@ -1,7 +1,8 @@
 """Verify catalogue entries, in parallel worker processes.
 
 An entry is "ok" when it behaves as its file says: it holds to the order, or (for a printed
-form recorded as wrong) it fails exactly at the recorded exponent.
+form recorded as wrong) it fails exactly at the recorded exponent.  An inconclusive check
+(no coefficient compared, ``holds`` None) is neither: such an entry is never ok.
 
 >>> from qseries.catalogue.files import Entry
 >>> e = Entry("euler", "Euler", "(-q;q)_inf", "1/(q;q^2)_inf", 60, "from memory", "-", 1)
@@ -30,15 +31,18 @@ if TYPE_CHECKING:
 
 from ..analysis import check
 from ..errors import QSeriesError
+from ..report import mismatch_json
 from .files import Entry
 
 
 @dataclass(frozen=True)
 class EntryResult:
-    """The outcome for one entry."""
+    """The outcome for one entry: ``holds`` as the check says (None when inconclusive),
+    ``ok`` whether the entry behaves as its file records, ``first_mismatch`` in the JSON
+    shape of :func:`qseries.report.mismatch_json`."""
 
     ident: str
-    holds: bool
+    holds: bool | None
     ok: bool
     order: int | Fraction
     first_mismatch: dict | None
@@ -46,14 +50,19 @@ class EntryResult:
     error: str = ""
 
 
-def _json_exp(e: int | Fraction) -> int | str:
-    e = Fraction(e)
-    return e.numerator if e.denominator == 1 else str(e)
-
-
 def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
     """Check one entry at its default order (or ``order``), by the method ``check`` picks
-    for that order (exact, or modulo primes at high order)."""
+    for that order (exact, or modulo primes at high order).  The entry is ok when it holds
+    to the order, or (``expect = "fails"``) fails exactly at ``fails_at``; an inconclusive
+    check (``holds`` None) is never ok.
+
+    >>> from qseries.catalogue.files import Entry
+    >>> e = Entry("x", "x", "1/(1-q)", "1/(1-q) + q^7", 30, "invented", "-", 1,
+    ...           expect="fails", fails_at=7)
+    >>> r = verify_entry(e)
+    >>> r.ok, r.holds, r.first_mismatch
+    (True, False, {'index': 7, 'lhs': '1', 'rhs': '2'})
+    """
     n = order or entry.order
     t0 = time.perf_counter()
     try:
@@ -62,11 +71,9 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
         return EntryResult(entry.ident, False, False, 0, None, time.perf_counter() - t0,
                            str(err))
     m = r.first_mismatch
-    mismatch = None if m is None else {"index": _json_exp(m.exponent),
-                                       "lhs": r.unweighted_text(m.lhs, m.exponent),
-                                       "rhs": r.unweighted_text(m.rhs, m.exponent)}
+    mismatch = mismatch_json(r)
     if entry.expect == "holds":
-        ok = r.holds and r.order_verified == n
+        ok = r.holds is True and r.order_verified == n
     else:
         # a recorded misprint must fail exactly where the file says (if that is below n)
         try:
@@ -75,8 +82,9 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
             return EntryResult(entry.ident, r.holds, False, r.order_verified, mismatch,
                                time.perf_counter() - t0,
                                f"fails_at must be an exponent, not {entry.fails_at!r}")
-        ok = (m is not None and Fraction(m.exponent) == expected) or \
-            (m is None and expected >= Fraction(r.order_verified))
+        # an inconclusive check (holds None) is not the recorded failure either
+        ok = (r.holds is False and m is not None and Fraction(m.exponent) == expected) or \
+            (r.holds is True and expected >= Fraction(r.order_verified))
     return EntryResult(entry.ident, r.holds, ok, r.order_verified, mismatch,
                        time.perf_counter() - t0)
 

@@ -8,16 +8,14 @@ coefficient could be compared.
 from __future__ import annotations
 
 import json
-import math
 import sys
 from enum import StrEnum
-from fractions import Fraction
 from pathlib import Path
-from typing import TYPE_CHECKING, Annotated, Any
+from typing import Annotated, Any
 
 import typer
 
-from ..analysis import Distribution, diagnose, distributions, normal_moment, product_form
+from ..analysis import diagnose, distributions, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
 from ..engine import evaluate
 from ..engine.chooser import AUTO_MODULAR_ORDER, COST_LIMIT_BYTES, COST_LIMIT_SECONDS
@@ -25,12 +23,30 @@ from ..engine.cost import CostEstimate, estimate_cost
 from ..errors import QSeriesError
 from ..lang.parser import NOTATION_FORMS, is_extra_variable
 from ..products import FUNCTIONS
+from ..report import (
+    check_json,
+    check_lines,
+    distribution_lines,
+    distributions_json,
+    expand_json,
+    expansion_note,
+    expansion_text,
+    listing_json,
+    listing_rows,
+    listing_summary,
+    listing_table,
+    no_product_json,
+    no_product_line,
+    product_json,
+    product_lines,
+    trend_csv,
+    trend_json,
+    verify_json,
+    verify_summary,
+    verify_table,
+)
 from ..series import GF, MAX_LENGTH, Series
-from ..series.formatting import coefficient_text, format_series, number_text
 from .demo import DEMO_CASES
-
-if TYPE_CHECKING:
-    from ..catalogue import EntryResult
 
 app = typer.Typer(
     name="qseries",
@@ -82,14 +98,6 @@ def _refuse_long(allow: bool, exprs: list[str], order: int, ring: Any = None,
     total = CostEstimate(order, seconds, size, shown.probe_order, shown.probe_seconds)
     _fail(f"order {order} would take {total.text()}; pass --allow-long to run it anyway, or "
           f"choose {smaller}")
-
-
-def _exp_json(e: int | Fraction) -> int | str:
-    e = Fraction(e)
-    return e.numerator if e.denominator == 1 else str(e)
-
-
-_num_text = coefficient_text
 
 
 WeightOption = Annotated[list[str] | None, typer.Option(
@@ -154,38 +162,18 @@ def expand(
     weights = _weights(weight)
     _refuse_long(allow_long, [expr], order, None, weights)
     s: Series = _guarded(evaluate, expr, order, None, weights)
-    known = s.precision if s.precision is not None else order
-    known = min(known, order)
     if as_json:
-        terms = [[_exp_json(e), _num_text(c)] for e, c in s.terms() if e < known]
-        typer.echo(json.dumps({"order": _exp_json(known), "terms": terms}))
+        typer.echo(json.dumps(expand_json(s, order)))
         return
-    shown = s if s.precision is not None else s.truncate(order)
-    typer.echo(format_series(shown))
-    if known < order:
-        typer.echo(f"note: only the coefficients below q^{_exp_json(known)} are known "
-                   f"(negative powers of q or an O(q^N) term cost precision)", err=True)
+    typer.echo(expansion_text(s, order))
+    note = expansion_note(s, order)
+    if note:
+        typer.echo(note, err=True)
 
 
-def _print_check(r: CheckResult, lhs: str, rhs: str) -> None:
-    if r.holds is None:
-        typer.echo(f"INCONCLUSIVE  {r.verdict}")
-    elif r.first_mismatch is None:
-        typer.echo(f"AGREES  {r.verdict}")
-    else:
-        m = r.first_mismatch
-        typer.echo(f"DIFFERS  {r.verdict} (difference "
-                   f"{r.unweighted_text(m.difference, m.exponent)})")
-        below = f"weighted degree {m.exponent}" if r.weighted else f"q^{m.exponent}"
-        typer.echo(f"  coefficients below {below} agree")
-        for line in r.table():
-            typer.echo(line)
-    for hint in diagnose(r):
-        typer.echo(f"  hint ({hint.kind}): {hint.message}")
-    if r.order_verified != r.order_requested and r.holds is False:   # else in the verdict
-        typer.echo(f"note: only the coefficients below q^{_exp_json(r.order_verified)} could "
-                   f"be compared, not q^{r.order_requested}: {r.shortfall}")
-    typer.echo(f"  ({r.seconds:.3f} s)")
+def _print_check(r: CheckResult) -> None:
+    for line in check_lines(r, diagnose(r)):
+        typer.echo(line)
 
 
 #: checks from this order on show a status line on a terminal
@@ -239,26 +227,9 @@ def check_cmd(
                           weights=weights),
         show=order >= STATUS_ORDER and not as_json))
     if as_json:
-        m = r.first_mismatch
-        typer.echo(json.dumps({
-            "holds": r.holds,
-            "reason": r.reason,
-            "order": _exp_json(r.order_verified),
-            "order_requested": r.order_requested,
-            "shortfall": r.shortfall or None,
-            "first_mismatch": None if m is None else {
-                "index": _exp_json(m.exponent),
-                "lhs": r.unweighted_text(m.lhs, m.exponent) if r.weighted else _num_text(m.lhs),
-                "rhs": r.unweighted_text(m.rhs, m.exponent) if r.weighted else _num_text(m.rhs)},
-            "seconds": round(r.seconds, 6),
-            "method": r.method,
-            "primes": list(r.primes),
-            "variables": list(r.variables),
-            "weights": list(r.weights),
-            "hints": [{"kind": h.kind, "message": h.message} for h in diagnose(r)],
-        }))
+        typer.echo(json.dumps(check_json(r, diagnose(r))))
     else:
-        _print_check(r, lhs, rhs)
+        _print_check(r)
     raise typer.Exit(3 if r.holds is None else 0 if r.holds else 1)
 
 
@@ -290,29 +261,16 @@ def product(
         pf = product_form(series, order)
     except QSeriesError as err:
         if as_json:
-            typer.echo(json.dumps({"order": order, "product_form": False, "reason": str(err)}))
+            typer.echo(json.dumps(no_product_json(order, str(err))))
         else:
-            typer.echo(f"no product form: {err}")
+            typer.echo(no_product_line(str(err)))
         raise typer.Exit(1) from None
     if as_json:
-        out = {"order": _exp_json(pf.order), "constant": _num_text(pf.constant),
-               "shift": _exp_json(pf.shift), "exponents": pf.exponents, "period": pf.period,
-               "repetitions": pf.repetitions, "expression": pf.expression, "eta": pf.eta}
-        if pf.expression is None:
-            out["reason"] = pf.reason
-        typer.echo(json.dumps(out))
-        raise typer.Exit(0 if pf.expression is not None else 1)
-    if pf.expression is None:
-        typer.echo(f"no product form of this kind to this order: {pf.reason}")
-        raise typer.Exit(1)
-    typer.echo(pf.expression + f" + O(q^{_exp_json(pf.order)})")
-    if pf.period:
-        typer.echo(f"  the exponents repeat with period {pf.period} ({pf.repetitions} full "
-                   f"periods below q^{_exp_json(pf.order)})")
+        typer.echo(json.dumps(product_json(pf)))
     else:
-        typer.echo("  no period in the exponents below the order; the product is finite")
-    if pf.eta:
-        typer.echo(f"  as an eta quotient: {pf.eta}")
+        for line in product_lines(pf):
+            typer.echo(line)
+    raise typer.Exit(0 if pf.expression is not None else 1)
 
 
 class ExportFormat(StrEnum):
@@ -320,10 +278,6 @@ class ExportFormat(StrEnum):
 
     csv = "csv"
     json = "json"
-
-
-def _decimal(x: Fraction, digits: int = 10) -> str:
-    return f"{float(x):.{digits}g}" if abs(x) < 10**300 else number_text(round(x))
 
 
 @app.command()
@@ -364,29 +318,14 @@ def distribution(
     dists = _guarded(distributions, expr, var, sorted(set(sizes + trend)))
     by_n = {d.n: d for d in dists}
     if sizes and as_json:
-        typer.echo(json.dumps({"variable": var, "sizes": [{
-            "n": n,
-            "counts": {str(j): number_text(c) for j, c in by_n[n].counts.items()},
-            "total": number_text(by_n[n].total),
-            "mean": number_text(by_n[n].mean), "variance": number_text(by_n[n].variance),
-            "standardised_moments": [_finite(by_n[n].standardised_moment(r))
-                                     for r in range(1, moments + 1)],
-            "normal_moments": [normal_moment(r) for r in range(1, moments + 1)],
-        } for n in sizes]}))
+        typer.echo(json.dumps(distributions_json(var, [by_n[n] for n in sizes], moments)))
     elif sizes:
         for n in sizes:
-            _print_distribution(by_n[n], var, moments)
+            for line in distribution_lines(by_n[n], var, moments):
+                typer.echo(line)
     if trend:
-        rows = [(n, by_n[n].total, by_n[n].mean, by_n[n].variance) for n in trend]
-        if fmt == ExportFormat.csv:
-            text = "n,total,mean,variance,mean_decimal,variance_decimal\n" + "".join(
-                f"{n},{number_text(t)},{number_text(m)},{number_text(v)},{_decimal(m)},"
-                f"{_decimal(v)}\n" for n, t, m, v in rows)
-        else:
-            text = json.dumps([{"n": n, "total": number_text(t), "mean": number_text(m),
-                                "variance": number_text(v),
-                                "mean_decimal": float(m), "variance_decimal": float(v)}
-                               for n, t, m, v in rows]) + "\n"
+        rows = [by_n[n] for n in trend]
+        text = trend_csv(rows) if fmt == ExportFormat.csv else json.dumps(trend_json(rows)) + "\n"
         if out is None:
             typer.echo(text, nl=False)
         else:
@@ -396,28 +335,6 @@ def distribution(
                 _fail(f"cannot write {out}: {err.strerror}")
             typer.echo(f"wrote the mean and variance for n = 1 .. {trend_upto} to {out}",
                        err=True)
-
-
-def _finite(x: float) -> float | None:
-    """JSON has no nan or infinity: those become null."""
-    return x if math.isfinite(x) else None
-
-
-def _print_distribution(d: Distribution, var: str, moments: int) -> None:
-    typer.echo(f"n = {d.n}: {number_text(d.total)} objects")
-    counts = list(d.counts.items())
-    shown = counts if len(counts) <= 12 else counts[:6] + [None] + counts[-5:]
-    for item in shown:
-        if item is None:
-            typer.echo("    ...")
-            continue
-        j, c = item
-        typer.echo(f"  {var} = {j:>4}: {number_text(c)}  ({float(Fraction(c, d.total)):.6f})")
-    typer.echo(f"  mean      {number_text(d.mean)}  = {_decimal(d.mean)}")
-    typer.echo(f"  variance  {number_text(d.variance)}  = {_decimal(d.variance)}")
-    typer.echo("  standardised moments (normal distribution in brackets):")
-    typer.echo("   " + "  ".join(f"{r}: {d.standardised_moment(r):.4f} [{normal_moment(r)}]"
-                                  for r in range(1, moments + 1)))
 
 
 @app.command()
@@ -441,7 +358,7 @@ def demo() -> None:
         typer.echo(f"   qseries check \"{case.lhs}\" \\")
         typer.echo(f"                 \"{case.rhs}\" --order {case.order}")
         r: CheckResult = _guarded(check, case.lhs, case.rhs, case.order)
-        _print_check(r, case.lhs, case.rhs)
+        _print_check(r)
         typer.echo("")
 
 
@@ -485,7 +402,6 @@ def verify(
 
     from rich.console import Console
     from rich.progress import Progress
-    from rich.table import Table
 
     from ..catalogue import VerifyInterrupted, verify_entries
 
@@ -509,62 +425,18 @@ def verify(
         raise typer.Exit(130) from None
     elapsed = time.perf_counter() - t0
     n_ok = sum(r.ok for r in results)
-    n_err = sum(bool(r.error) for r in results)
     if as_json:
-        summary: dict[str, Any] = {"entries": len(results), "ok": n_ok,
-                                   "not_ok": len(results) - n_ok, "errors": n_err,
-                                   "seconds": round(elapsed, 3)}
-        if interrupted:
-            summary.update(entries=len(entries), finished=len(results), interrupted=True)
-        typer.echo(json.dumps({"results": [_result_json(r) for r in results],
-                               "summary": summary}))
+        typer.echo(json.dumps(verify_json(results, elapsed,
+                                          len(entries) if interrupted else None)))
     else:
-        table = Table(title=None, show_lines=False)
-        for col in ("identifier", "verdict", "order", "seconds", "first mismatch"):
-            table.add_column(col)
-        by_ident = {e.ident: e for e in entries}
-        for r in results:
-            entry = by_ident[r.ident]
-            table.add_row(r.ident, _verdict_text(r, entry.expect), _exp_text(r.order),
-                          f"{r.seconds:.2f}", _mismatch_text(r))
         if results:
-            console.print(table)
-        console.print(f"{n_ok} of {len(results)} {'finished ' if interrupted else ''}entries "
-                      f"behave as recorded ({elapsed:.1f} s); agreement to O(q^N) is "
-                      f"evidence, not a proof")
+            console.print(verify_table(results, {e.ident: e.expect for e in entries}))
+        console.print(verify_summary(results, elapsed, interrupted))
     if interrupted:
         typer.echo(f"qseries: interrupted: {len(results)} of {len(entries)} entries finished",
                    err=True)
         raise typer.Exit(130)
     raise typer.Exit(0 if n_ok == len(results) else 1)
-
-
-def _exp_text(e: int | Fraction) -> str:
-    return str(_exp_json(e))
-
-
-def _verdict_text(r: EntryResult, expect: str) -> str:
-    if r.error:
-        return "ERROR " + r.error.splitlines()[0]
-    if expect == "fails":
-        return "fails as recorded" if r.ok else "NOT AS RECORDED"
-    return "holds" if r.ok else "FAILS"
-
-
-def _mismatch_text(r: EntryResult) -> str:
-    m = r.first_mismatch
-    if not m:
-        return ""
-    return f"q^{m['index']}: {m['lhs']} vs {m['rhs']}"
-
-
-def _result_json(r: EntryResult) -> dict:
-    out: dict[str, Any] = {"id": r.ident, "holds": r.holds, "ok": r.ok,
-                           "order": _exp_json(r.order), "first_mismatch": r.first_mismatch,
-                           "seconds": round(r.seconds, 6)}
-    if r.error:
-        out["error"] = r.error
-    return out
 
 
 @app.command(name="list")
@@ -578,26 +450,15 @@ def list_cmd(
     Example: qseries list identities
     """
     entries = _load(paths, [])
-    rows: dict[str, dict[str, Any]] = {}
-    for e in entries:
-        row = rows.setdefault(e.key, {"id": e.key, "members": 0, "title": e.title,
-                                      "source": e.source, "tags": list(e.tags),
-                                      "expect": e.expect, "file": f"{e.path}:{e.line}"})
-        row["members"] += 1
     if as_json:
-        typer.echo(json.dumps({"identities": list(rows.values())}))
+        typer.echo(json.dumps(listing_json(entries)))
         return
     from rich.console import Console
-    from rich.table import Table
 
-    table = Table()
-    for col in ("identifier", "members", "title", "source"):
-        table.add_column(col, overflow="fold")
-    for row in rows.values():
-        table.add_row(row["id"], str(row["members"]), row["title"], row["source"])
+    rows = listing_rows(entries)
     console = Console()
-    console.print(table)
-    console.print(f"{len(rows)} entries, {len(entries)} identities counting family members")
+    console.print(listing_table(rows))
+    console.print(listing_summary(rows))
 
 
 def run() -> None:

@@ -55,6 +55,7 @@ True
 
 from __future__ import annotations
 
+import copyreg
 import numbers
 from collections.abc import Iterator
 from fractions import Fraction
@@ -1004,6 +1005,20 @@ def _laurent_poly(ring: Ring, terms: list[Any]) -> Any:
         monomials = [sum(monomials[i:i + 2][1:], monomials[i])
                      for i in range(0, len(monomials), 2)]
     return monomials[0] if monomials else ring.zero()
+
+
+def _reduce_laurent(c: LaurentPoly) -> tuple[Any, tuple[Any, ...]]:
+    """A Laurent polynomial (a coefficient in extra variables) pickles as plain data, as a
+    series over its ring does: the ring's key and its terms (FLINT's polynomials themselves
+    do not pickle)."""
+    return _unpickle_laurent, (_ring_key(c.ring), c.terms())
+
+
+def _unpickle_laurent(key: tuple[Any, ...], terms: list[Any]) -> Any:
+    return _laurent_poly(_ring_from_key(key), terms)
+
+
+copyreg.pickle(LaurentPoly, _reduce_laurent)
 
 
 def _unpickle(key: tuple[Any, ...], data: list[Any], start: int, offset: Fraction,

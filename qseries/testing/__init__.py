@@ -16,28 +16,9 @@ AssertionError: the two sides differ: first at q^3, where the left side has 1 an
 from __future__ import annotations
 
 from ..analysis import CheckResult, check
-from ..errors import typed_argument
 from ..lang import Node
+from ..report import mismatch_report
 from ..series import ZZ, Ring
-
-
-def mismatch_report(r: CheckResult, radius: int = 2) -> str:
-    """The verdict, a table of coefficients around the first mismatch, and why fewer
-    coefficients than asked were compared (if they were).
-
-    >>> print(mismatch_report(check("1/(1-q) + O(q^3)", "1/(1-q)", order=5)))
-    ... # doctest: +NORMALIZE_WHITESPACE
-    the two sides agree to O(q^3) (every coefficient below q^3 compared; fewer than the q^5
-    asked, because the left side is known only below q^3 (it carries its own O(q^3));
-    evidence, not a proof)
-      (only the coefficients below q^3 were compared, not q^5)
-    """
-    typed_argument("r", r, CheckResult, "a CheckResult from qseries.check")
-    lines = [r.verdict] + r.table(radius)
-    if r.order_verified != r.order_requested:
-        lines.append(f"  (only the coefficients below q^{r.order_verified} were compared, not "
-                     f"q^{r.order_requested})")
-    return "\n".join(lines)
 
 
 def assert_identity(lhs: str | Node, rhs: str | Node, order: int = 100,

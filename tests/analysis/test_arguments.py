@@ -125,7 +125,7 @@ def test_moments_refuse_bad_orders():
 def test_result_tables_refuse_bad_radii():
     r = check("1", "1 + q^3", order=10)
     refused(lambda: r.neighbours("2"), "radius", ArgumentTypeError)
-    refused(lambda: r.table(-1), "radius", ArgumentError)
+    refused(lambda: r.neighbours(-1), "radius", ArgumentError)
     # a huge radius costs nothing: only the known coefficients are visited
     with within(5):
         assert [e for e, _, _ in r.neighbours(10**15)] == list(range(10))

@@ -91,7 +91,7 @@ def test_results_pickle(lhs, rhs, kwargs):
     back = pickle.loads(pickle.dumps(r))
     assert isinstance(back, CheckResult)
     assert back == r
-    assert back.verdict == r.verdict and back.table() == r.table()
+    assert back.verdict == r.verdict and back.neighbours() == r.neighbours()
 
 
 def test_the_printed_escape_bound_is_the_formula():

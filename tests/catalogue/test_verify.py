@@ -103,3 +103,13 @@ def test_an_interrupt_stops_the_workers_and_keeps_what_finished():
 def test_bad_fails_at_in_a_hand_made_entry_is_an_error_not_a_crash():
     r = verify_entry(_misprint("inf"))
     assert not r.ok and "fails_at" in r.error
+
+
+@pytest.mark.parametrize("expect, fails_at", [("holds", None), ("fails", 3), ("fails", 100)])
+def test_an_inconclusive_entry_is_not_ok(expect, fails_at):
+    # no coefficient can be compared (holds is None): that is neither the identity holding
+    # nor the recorded failure, whatever fails_at says
+    e = Entry("unknown", "compares nothing", "O(q^-5) + 1", "2", 20, "invented for this test",
+              "-", 1, expect=expect, fails_at=fails_at)
+    r = verify_entry(e)
+    assert r.holds is None and r.ok is False

@@ -30,10 +30,7 @@ def test_expand_json():
     r = run("expand", "(q;q)_inf", "-n", "8", "--json")
     data = json.loads(r.stdout)
     assert data == {"order": 8, "terms": [[0, "1"], [1, "-1"], [2, "-1"], [5, "1"], [7, "1"]]}
-    r = run("expand", "eta(q)", "-n", "2", "--json")
-    assert json.loads(r.stdout)["terms"] == [["1/24", "1"], ["25/24", "-1"]]
-    r = run("expand", "1/(2-q)", "-n", "2", "--json")
-    assert json.loads(r.stdout)["terms"] == [[0, "1/2"], [1, "1/4"]]
+    # the shape in detail: tests/report/test_json_shapes.py
 
 
 def test_check_agrees_exit_0():
@@ -205,10 +202,8 @@ def test_list_shows_identifiers_and_sources():
 def test_product_command():
     r = run("product", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "200", "--json")
     assert r.exit_code == 0
-    data = json.loads(r.stdout)
+    data = json.loads(r.stdout)     # the shape in detail: tests/report/test_json_shapes.py
     assert data["period"] == 5 and data["expression"] == "(q, q^4;q^5)_inf^-1"
-    assert data["exponents"][:5] == [-1, 0, 0, -1, 0] and len(data["exponents"]) == 199
-    assert data["constant"] == "1" and data["shift"] == 0
     # the printed form round-trips through check
     assert run("check", "sum_{k>=0} q^(k^2)/(q;q)_k", data["expression"], "-n", "200"
                ).exit_code == 0
@@ -232,11 +227,8 @@ def test_check_modular_method_json():
     assert run("check", "q", "q", "--method", "bogus").exit_code == 2
 
 
-def test_expand_prints_polynomial_coefficients():
-    r = run("expand", "(z q, q/z, q;q)_inf", "-n", "4", "--json")
-    assert r.exit_code == 0
-    assert json.loads(r.stdout)["terms"] == [[0, "1"], [1, "-z - 1 - z^-1"],
-                                             [3, "z^2 + z + 1 + z^-1 + z^-2"]]
+def test_expand_with_a_weighted_variable():
+    # coefficients in extra variables as JSON: tests/report/test_json_shapes.py
     r = run("expand", "1/(1-z)", "-n", "3", "--weight", "z=1")
     assert r.stdout.strip() == "1 + z*q + z^2*q^2 + O(q^3)"
 
@@ -262,29 +254,26 @@ def test_distribution_command(tmp_path):
     durfee = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"
     r = run("distribution", durfee, "--at", "4")
     assert r.exit_code == 0
-    assert "n = 4: 5 objects" in r.stdout and "mean      6/5" in r.stdout
+    # the renderings in detail: tests/report/test_distribution.py and test_json_shapes.py
+    assert "n = 4: 5 objects" in r.stdout
     r = run("distribution", durfee, "--at", "4", "--json")
-    data = json.loads(r.stdout)["sizes"][0]
-    assert data["counts"] == {"1": "4", "2": "1"} and data["normal_moments"][3] == 3
+    assert json.loads(r.stdout)["sizes"][0]["counts"] == {"1": "4", "2": "1"}
     out = tmp_path / "trend.csv"
     r = run("distribution", durfee, "--trend-upto", "5", "--out", str(out))
     assert r.exit_code == 0
-    lines = out.read_text().splitlines()
-    assert lines[0].startswith("n,total,mean,variance") and lines[4].startswith("4,5,6/5,4/25")
+    assert out.read_text().splitlines()[4].startswith("4,5,6/5,4/25")
     r = run("distribution", durfee, "--trend-upto", "2", "--format", "json")
-    assert json.loads(r.stdout)[1] == {"n": 2, "total": "2", "mean": "1", "variance": "0",
-                                       "mean_decimal": 1.0, "variance_decimal": 0.0}
+    assert json.loads(r.stdout)[1]["mean"] == "1"
     for bad in (["distribution", durfee], ["distribution", "1/(q;q)_inf", "--at", "3"],
                 ["distribution", durfee, "--var", "a", "--at", "3"]):
         r = run(*bad)
         assert r.exit_code == 2 and "Traceback" not in r.output
 
 
-def test_weighted_mismatch_is_shown_in_q_and_z():
+def test_weighted_mismatch_exit_1():
+    # the rendering in q and z: tests/report/test_verdict.py
     r = run("check", "1/(1-z)", "1/(1-z) + z^3 q", "-n", "10", "--weight", "z=2")
-    assert r.exit_code == 1
-    assert "right side z^3*q (difference -z^3*q)" in r.stdout
-    assert "7     0  z^3*q      -z^3*q" in r.stdout
+    assert r.exit_code == 1 and "weighted degree 7" in r.stdout
 
 
 # -- an estimate before a long run (issue 11: --order up to 10^7 ran for minutes) ----------

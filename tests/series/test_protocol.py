@@ -387,6 +387,21 @@ def test_pickle_in_every_ring():
         assert copy.copy(f) == f and copy.deepcopy(f) == f
 
 
+def test_coefficients_in_extra_variables_pickle():
+    # a coefficient of a series over a Laurent ring (such as a check's first mismatch)
+    # pickles as plain data too, into the same ring object
+    z, a = LAZ.gen("z"), LAZ.gen("a")
+    f = Series.constant(1, LAZ).mul_binomial(z * Fraction(1, 2) + a**-1, 1)
+    for c in (f.coefficient(1), z**-3 - 2 * a * z + 7, LAZ.coerce(0)):
+        for protocol in (0, pickle.HIGHEST_PROTOCOL):
+            data = pickle.dumps(c, protocol)
+            assert b"flint.types" not in data
+            d = pickle.loads(data)
+            assert d == c and d.ring is c.ring and repr(d) == repr(c)
+    g = evaluate("z*q + 1/(1-z*q)", 6)
+    assert pickle.loads(pickle.dumps(g.coefficient(2))) == g.coefficient(2)
+
+
 @given(any_series)
 def test_pickle_round_trip(f):
     g = pickle.loads(pickle.dumps(f))

@@ -32,11 +32,11 @@ def test_assert_identity_fails_an_inconclusive_check(lhs, rhs):
     assert "agree" not in str(info.value)
 
 
-def test_mismatch_report_says_why_fewer_coefficients_were_compared():
-    from qseries import check
+def test_mismatch_report_is_the_report_layers():
+    # its renderings are tested in tests/report/test_verdict.py
+    from qseries.report import mismatch_report as rendered
     from qseries.testing import mismatch_report
-    text = mismatch_report(check("1/(1-q) + O(q^3)", "1/(1-q)", order=5))
-    assert "the left side is known only below q^3" in text and "not q^5" in text
+    assert mismatch_report is rendered
 
 
 @settings(max_examples=10, deadline=None)

@@ -1,0 +1,48 @@
+"""Product forms (:func:`qseries.analysis.product_form`) as text.
+
+>>> from qseries.analysis import product_form
+>>> print("\\n".join(product_lines(product_form("(q;q)_inf^2 (q^2;q^2)_inf", 30))))
+(q^2;q^2)_inf^3 (q;q^2)_inf^2 + O(q^30)
+  the exponents repeat with period 2 (14 full periods below q^30)
+  as an eta quotient: eta(q)^2 eta(q^2) q^(-1/6)
+"""
+
+from __future__ import annotations
+
+from ..analysis import ProductForm
+from ..series.formatting import coefficient_text
+
+
+def product_lines(pf: ProductForm) -> list[str]:
+    """The report of ``qseries product``: the product to its order, its period (or that it
+    is finite) and its eta quotient when there is one; or why there is no product form of
+    this kind.
+
+    >>> from qseries.analysis import product_form
+    >>> print("\\n".join(product_lines(product_form("3(1-q)(1-q^3)^2", 30))))
+    3 (1 - q) (1 - q^3)^2 + O(q^30)
+      no period in the exponents below the order; the product is finite
+    >>> product_lines(product_form("1 + 2q", 8))[0][:40]
+    'no product form of this kind to this ord'
+    """
+    if pf.expression is None:
+        return [f"no product form of this kind to this order: {pf.reason}"]
+    order = coefficient_text(pf.order)
+    lines = [pf.expression + f" + O(q^{order})"]
+    if pf.period:
+        lines.append(f"  the exponents repeat with period {pf.period} ({pf.repetitions} full "
+                     f"periods below q^{order})")
+    else:
+        lines.append("  no period in the exponents below the order; the product is finite")
+    if pf.eta:
+        lines.append(f"  as an eta quotient: {pf.eta}")
+    return lines
+
+
+def no_product_line(reason: str) -> str:
+    """``qseries product`` when the exponents could not be recovered at all.
+
+    >>> no_product_line("the exponent of (1-q^1) would be -1/2")
+    'no product form: the exponent of (1-q^1) would be -1/2'
+    """
+    return f"no product form: {reason}"
