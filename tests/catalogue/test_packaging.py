@@ -2,6 +2,7 @@
 source tree, install it into a fresh virtual environment, and run `list`, `verify` and the
 hypothesis strategies from another folder (issue 12, section 3)."""
 
+import os
 import shutil
 import subprocess
 import sys
@@ -16,8 +17,10 @@ ROOT = Path(qseries.__file__).resolve().parent.parent
 
 
 def _run(args: list, cwd: Path, timeout: float = 120) -> subprocess.CompletedProcess:
+    # without PYTHONPATH: a checkout on it (PYTHONPATH=$PWD pytest) would shadow the wheel
+    env = {k: v for k, v in os.environ.items() if k != "PYTHONPATH"}
     r = subprocess.run([str(a) for a in args], cwd=cwd, capture_output=True, text=True,
-                       timeout=timeout)
+                       timeout=timeout, env=env)
     assert r.returncode == 0, f"{args}\n{r.stdout}\n{r.stderr}"
     return r
 
