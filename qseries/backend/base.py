@@ -15,6 +15,7 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from fractions import Fraction
+from operator import add, mul
 from typing import Any
 
 import flint
@@ -395,11 +396,8 @@ def exp_online(s: list[int], n: int, ptype: Callable[[list], Any],
     def solve(lo: int, hi: int) -> None:
         if hi - lo <= _EXP_LEAF:
             for i in range(max(lo, 1), hi):
-                a = acc[i]
-                for j in range(lo, i):
-                    if g[j]:
-                        a += sv[i - j] * g[j]
-                g[i] = divide(a, i)
+                # s[i-lo], ..., s[1] against g[lo], ..., g[i-1]
+                g[i] = divide(acc[i] + sum(map(mul, sv[i - lo:0:-1], g[lo:i])), i)
             return
         mid = (lo + hi) // 2
         solve(lo, mid)
@@ -407,9 +405,8 @@ def exp_online(s: list[int], n: int, ptype: Callable[[list], Any],
         sp = s_prefix.get(width)
         if sp is None:
             sp = s_prefix[width] = ptype(sv[:width])
-        got = ptype(g[lo:mid]).mul_low(sp, width).coeffs()
-        for t in range(mid - lo, min(width, len(got))):
-            acc[lo + t] += got[t]
+        got = ptype(g[lo:mid]).mul_low(sp, width).coeffs()[mid - lo:]
+        acc[mid:mid + len(got)] = map(add, acc[mid:mid + len(got)], got)
         solve(mid, hi)
 
     solve(0, n)
