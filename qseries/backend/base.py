@@ -91,6 +91,12 @@ class Ring:
 
     # -- construction and conversion -------------------------------------------------
     def coerce(self, c: Number) -> Any:  # pragma: no cover - abstract
+        """A Python number as a coefficient of this ring (each ring says what it accepts).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coerce(5)
+        5
+        """
         raise NotImplementedError
 
     def poly(self, coeffs: list) -> Any:
@@ -189,6 +195,12 @@ class Ring:
         return i
 
     def is_unit(self, c: Any) -> bool:  # pragma: no cover - abstract
+        """Whether the coefficient c is invertible in this ring.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.is_unit(ZZ.coerce(-1)), ZZ.is_unit(ZZ.coerce(2))
+        (True, False)
+        """
         raise NotImplementedError
 
     # -- arithmetic ------------------------------------------------------------------

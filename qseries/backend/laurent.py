@@ -409,7 +409,12 @@ class LaurentRing(Ring):
                                     f"{self.name}")
 
     def to_number(self, c: Any) -> Any:
-        """A number when the scalar is constant, else the scalar itself."""
+        """A number when the scalar is constant, else the scalar itself.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.to_number(R.coerce(3)), R.to_number(2 * z)
+        (3, 2*z)
+        """
         if isinstance(c, LaurentPoly):
             if c.shift == self._no_shift and c.m.is_constant():
                 return _number(c.m.coeffs()[0]) if not c.m.is_zero() else 0
