@@ -14,7 +14,6 @@ compare.  Agreement to O(q^N) is evidence, not a proof.
 1 - z*q - z*q^2 + O(q^3)
 """
 
-from ._flint import GF, QQ, ZZ, laurent_ring
 from .analysis import (
                        CheckResult,
                        Distribution,
@@ -25,6 +24,7 @@ from .analysis import (
                        distributions,
                        product_form,
 )
+from .backend import GF, QQ, ZZ, laurent_ring
 from .engine import evaluate
 from .errors import (
                        ArgumentError,

@@ -1,5 +1,5 @@
-"""The layering rule: a module imports only modules above it in LAYERS; only qseries._flint
-imports python-flint; nothing imports the CLI."""
+"""The layering rule: a module imports only modules above it in LAYERS; only the package
+qseries.backend imports python-flint; nothing imports the CLI."""
 
 import ast
 import pathlib
@@ -8,7 +8,7 @@ import qseries
 
 ROOT = pathlib.Path(qseries.__file__).parent
 
-LAYERS = ["errors", "_flint", "series", "products", "lang", "engine", "analysis", "report",
+LAYERS = ["errors", "backend", "series", "products", "lang", "engine", "analysis", "report",
           "catalogue", "testing", "cli"]
 
 
@@ -52,7 +52,7 @@ def test_layering_rule():
         own = _layer(".".join(rel.with_suffix("").parts))
         for mod, line in _imports(path):
             if mod == "flint":
-                if own != "_flint":
+                if own != "backend":
                     problems.append(f"{rel}:{line} imports python-flint")
                 continue
             other = _layer(mod)
@@ -69,3 +69,11 @@ def test_every_module_has_a_layer():
         if rel.parts[0] in ("__init__.py", "__main__.py"):
             continue
         assert _layer(".".join(rel.with_suffix("").parts)) in LAYERS, rel
+
+
+def test_the_backend_package_is_layer_two_and_the_only_flint_importer():
+    assert LAYERS[:2] == ["errors", "backend"]
+    assert (ROOT / "backend" / "__init__.py").exists() and not (ROOT / "_flint.py").exists()
+    importers = {path.relative_to(ROOT).parts[0] for path in ROOT.rglob("*.py")
+                 if any(mod == "flint" for mod, _ in _imports(path))}
+    assert importers == {"backend"}

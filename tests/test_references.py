@@ -2,7 +2,7 @@
 function, and OEIS sequences (terms typed from memory, as marked)."""
 
 from qseries import evaluate
-from qseries._flint import partitions_p
+from qseries.backend import partitions_p
 
 
 def test_partition_numbers_against_flint_partitions_p():

@@ -46,7 +46,17 @@ from ..lang import Node, parse, show
 from ..lang.ast import BigO, children, extra_variables
 from ..lang.definitions import Definition
 from ..lang.parser import definitions_of
-from ..series import GF, QQ, ZZ, LaurentPoly, Ring, Series, is_prime, laurent_ring, laurent_text
+from ..series import (
+    GF,
+    QQ,
+    ZZ,
+    LaurentPoly,
+    Ring,
+    Series,
+    is_prime,
+    laurent_text,
+    ring_for,
+)
 from ..series.formatting import coefficient_text
 
 Exponent = int | Fraction
@@ -394,7 +404,7 @@ WEIGHT_PROBE_ORDER = 12
 
 def _weights_needed(lnode: Node, rnode: Node, ring: Ring, names: tuple[str, ...]) -> bool:
     """True when an exact evaluation at weight 0 fails for a reason weights can remove."""
-    lring = laurent_ring(names, rational=ring == QQ)
+    lring = ring_for(names, ring)
     try:
         for node in (lnode, rnode):
             evaluate(node, WEIGHT_PROBE_ORDER, lring)
@@ -437,8 +447,7 @@ def _own(weights: dict[str, int] | None, node: Node) -> dict[str, int]:
 def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
                  say: Callable[[str], None], names: tuple[str, ...], weights: dict[str, int]
                  ) -> CheckResult:
-    if names:
-        ring = laurent_ring(names, rational=ring == QQ)
+    ring = ring_for(names, ring)
     say("evaluating the left side")
     left = evaluate(lnode, order, ring, _own(weights, lnode))
     say("evaluating the right side")
@@ -572,7 +581,7 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
     say("recomputing the first mismatch exactly")
     f = Fraction(first)
     upto = max(f.numerator // f.denominator + 3, 1)
-    ring = laurent_ring(names) if names else ZZ      # one ring for both sides
+    ring = ring_for(names)      # one ring for both sides
     exact_l = evaluate(lnode, upto, ring, _own(weights, lnode))
     exact_r = evaluate(rnode, upto, ring, _own(weights, rnode))
     _, mismatch = compare_series(exact_l, exact_r, upto)

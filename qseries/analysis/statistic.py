@@ -29,7 +29,7 @@ from ..errors import (
 )
 from ..lang import Node, parse
 from ..lang.ast import extra_variables
-from ..series import LaurentPoly, laurent_ring
+from ..series import LaurentPoly, ring_for
 
 #: largest size n for which distributions are computed
 MAX_SIZE = 100_000
@@ -139,7 +139,7 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
         raise ArgumentError(f"the expression has other extra variables ({', '.join(others)}); "
                             f"only {var!r} may remain")
     order = max(sizes) + 1
-    ring = laurent_ring((var,))
+    ring = ring_for((var,))
     try:
         s = Evaluator(ring).evaluate(node, order)
     except QSeriesError as err:

@@ -19,7 +19,7 @@ from collections.abc import Iterable, Mapping
 from fractions import Fraction
 from typing import Any
 
-from .._flint import laurent_budget
+from ..backend import laurent_budget
 from ..errors import DomainError, UnableError
 from ..lang.ast import (
     BigO,
@@ -40,7 +40,7 @@ from ..lang.ast import (
 from ..lang.definitions import Definition
 from ..lang.parser import parse
 from ..products import FUNCTIONS, monomial_parts
-from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, laurent_ring
+from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, ring_for
 from ..series.formatting import short_number_text
 from . import chains, chooser, ranges, sums
 from .termination import TermBounds
@@ -509,7 +509,7 @@ def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
     names = extra_variables(node)
     check_weights(weights, names)
     if ring is None:
-        ring = laurent_ring(tuple(sorted(names))) if names else ZZ
+        ring = ring_for(sorted(names))
     return Evaluator(ring, weights=weights).evaluate(node, order)
 
 

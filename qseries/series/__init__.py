@@ -5,10 +5,20 @@
 1 + 2q + q^2
 """
 
-from .._flint import GF, QQ, ZZ, LaurentPoly, Ring, is_prime, laurent_ring, laurent_text
+from ..backend import (
+    GF,
+    QQ,
+    ZZ,
+    LaurentPoly,
+    Ring,
+    is_prime,
+    laurent_ring,
+    laurent_text,
+    ring_for,
+)
 from .core import MAX_LENGTH, Series
 from .formatting import format_exponent, format_series
 
 __all__ = ["Series", "Ring", "ZZ", "QQ", "GF", "LaurentPoly", "laurent_ring", "laurent_text",
-           "is_prime", "MAX_LENGTH", "format_series",
+           "is_prime", "ring_for", "MAX_LENGTH", "format_series",
            "format_exponent"]

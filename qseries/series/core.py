@@ -9,7 +9,7 @@ precision (``None`` when the series is an exact polynomial, such as ``q`` or ``1
 Every operation propagates the precision honestly: ``q^-5 * f`` loses 5, dividing by a series
 of valuation ``v > 0`` loses ``v``, adding takes the minimum.
 
-The coefficient ring is a backend of :mod:`qseries._flint` (ZZ, QQ, GF(p) or Laurent
+The coefficient ring is a backend of :mod:`qseries.backend` (ZZ, QQ, GF(p) or Laurent
 polynomials in extra variables); there is no global precision or ring.
 
 >>> from qseries.series import Series, ZZ
@@ -61,7 +61,7 @@ from collections.abc import Iterator
 from fractions import Fraction
 from typing import Any, NoReturn, overload
 
-from .._flint import GF, QQ, ZZ, LaurentPoly, Ring, join_rings, laurent_ring
+from ..backend import GF, QQ, ZZ, LaurentPoly, Ring, join_rings, laurent_ring
 from ..errors import (
     ArgumentError,
     ArgumentTypeError,

@@ -11,7 +11,7 @@ from __future__ import annotations
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
-from .._flint import LaurentPoly, int_to_decimal, laurent_text
+from ..backend import LaurentPoly, int_to_decimal, laurent_text
 
 if TYPE_CHECKING:
     from .core import Series

@@ -5,8 +5,8 @@ from fractions import Fraction
 
 import pytest
 
-from qseries._flint import partitions_p
 from qseries.analysis.statistic import Distribution, distributions, normal_moment
+from qseries.backend import partitions_p
 from qseries.errors import QSeriesError
 
 DURFEE = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"

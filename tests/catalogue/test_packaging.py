@@ -17,7 +17,7 @@ ROOT = Path(qseries.__file__).resolve().parent.parent
 
 
 def _run(args: list, cwd: Path, timeout: float = 120) -> subprocess.CompletedProcess:
-    # without PYTHONPATH: a checkout on it would shadow the wheel inside the fresh venv
+    # without PYTHONPATH: a checkout on it (PYTHONPATH=$PWD pytest) would shadow the wheel
     env = {k: v for k, v in os.environ.items() if k != "PYTHONPATH"}
     r = subprocess.run([str(a) for a in args], cwd=cwd, capture_output=True, text=True,
                        timeout=timeout, env=env)

@@ -166,25 +166,6 @@ def test_inflate():
     assert g.precision == 6 and g.coefficient_list(6) == [1, 0, 2, 0, 3, 0]
 
 
-def test_exponential_of_a_logarithm_in_each_ring():
-    # exp(sum_k s_k q^k / k) with s_k = -sigma(k) is Euler's (q;q)_inf: the pentagonal numbers
-    # 0, 1, 2, 5, 7, 12, 15, 22, 26 with signs + - - + + - - + + (Euler's pentagonal theorem)
-    n = 30
-    s = [0] * n
-    for x in range(1, n):
-        for m in range(x, n, x):
-            s[m] -= x
-    expected = [0] * n
-    for e, c in ((0, 1), (1, -1), (2, -1), (5, 1), (7, 1), (12, -1), (15, -1), (22, 1), (26, 1)):
-        expected[e] = c
-    for ring in (ZZ, QQ, GF(1_000_003)):
-        got = Series(ring, ring.exp_integral(s, n), 0, 0, n)
-        assert got.coefficient_list(n) == [c % 1_000_003 if ring.name.startswith("GF") else c
-                                           for c in expected]
-    # dividing by k < 30 modulo 29 is impossible: the ring says so instead of guessing
-    assert GF(29).exp_integral(s, n) is None
-
-
 # -- absolute precision through every operation (issue 11: the cap of a series with a
 #    fractional offset was lost in products, powers and inverses) ------------------------
 # The rules are those of truncated series: writing P for the absolute precision and v for

@@ -1,19 +1,11 @@
-"""The only module that imports python-flint.
+"""Series in q whose coefficients are Laurent polynomials in named extra variables: the
+element type ``LaurentPoly`` (with its text), the ring ``laurent_ring(names)`` offering the
+operations of :class:`~qseries.backend.base.Ring` on it, and the limits and time budget
+that keep such exact computations from exhausting memory or running for hours.
 
-It defines the coefficient rings ("backends") on which truncated series are built.  Every
-ring offers the same operation names on dense polynomials (coefficient ``i`` stands for
-``q^i``); the series layer above never touches FLINT types directly.  Lengths are always
-explicit: ``mul_low(a, b, n)`` keeps the coefficients of ``q^0 .. q^(n-1)``.
-
-* :data:`ZZ` -- exact integers (``fmpz_poly``);
-* :data:`QQ` -- exact rationals (``fmpq_poly``);
-* :func:`GF` -- integers modulo a prime (``nmod_poly``), for modular checks.
-
->>> p = ZZ.poly([1, -1])                  # 1 - q
->>> ZZ.coefficients(ZZ.inv_series(p, 5))  # 1/(1 - q) to O(q^5)
-[1, 1, 1, 1, 1]
->>> QQ.coefficients(QQ.inv_series(QQ.poly([2, 1]), 3))
-[Fraction(1, 2), Fraction(-1, 4), Fraction(1, 8)]
+>>> R = laurent_ring(("z",))
+>>> R.coefficients(R.inv_series(R.poly([1, -R.gen("z")]), 3))
+[1, z, z^2]
 """
 
 from __future__ import annotations
@@ -27,398 +19,13 @@ from typing import Any
 
 import flint
 
-from .errors import DomainError, IncompatibleRingError, UnableError, weight_may_help
-
-Number = int | Fraction
-
-__all__ = ["ZZ", "QQ", "GF", "Ring", "LaurentPoly", "laurent_ring", "laurent_text",
-           "int_to_decimal", "is_prime", "join_rings", "partitions_p",
-           "FLINT_VERSION"]
-
-FLINT_VERSION: str = flint.__version__
-
-#: longest polynomial a shift may produce (FLINT aborts the process when memory runs out)
-MAX_SHIFT = 50_000_000
-
-
-def partitions_p(n: int) -> int:
-    """Number of partitions of n by FLINT's Hardy-Ramanujan-Rademacher code (a reference).
-
-    >>> partitions_p(100)
-    190569292
-    """
-    return int(flint.fmpz(n).partitions_p())
-
-
-
-def _fraction(c: Any) -> Fraction:
-    """An fmpq as a Fraction without reducing it again (FLINT keeps it in lowest terms; a
-    gcd of two million-bit integers costs most of a second)."""
-    num, den = int(c.p), int(c.q)
-    if den == 1:
-        return Fraction(num)
-    f = Fraction.__new__(Fraction)
-    f._numerator, f._denominator = num, den      # type: ignore[attr-defined]
-    return f
-
-class Ring:
-    """Operations on dense truncated polynomials over one coefficient ring.
-
-    Subclasses bind a FLINT polynomial type.  Methods whose name starts with an underscore
-    assume validated input, as in FLINT.
-    """
-
-    name: str = "?"
-    exact: bool = True
-    #: coefficients are Python ints read modulo the ring (ZZ, GF(p)): ``poly_from_ints``
-    #: takes any ints, so callers may accumulate coefficients in a plain list
-    int_coefficients: bool = False
-    #: p for GF(p), else None
-    modulus: int | None = None
-
-    @property
-    def fractions(self) -> Ring:
-        """The ring with the same variables over QQ (itself when it is a field)."""
-        return QQ if self is ZZ else self
-
-    # -- construction and conversion -------------------------------------------------
-    def coerce(self, c: Number) -> Any:  # pragma: no cover - abstract
-        raise NotImplementedError
-
-    def poly(self, coeffs: list) -> Any:
-        """Polynomial with the given coefficients (low degree first)."""
-        return self._ptype([self.coerce(c) if isinstance(c, (int, Fraction)) else c
-                            for c in coeffs])
-
-    def zero(self) -> Any:
-        return self._ptype([])
-
-    def poly_from_ints(self, coeffs: list[int]) -> Any:
-        """Polynomial from a list of Python ints, without per-coefficient conversion (the
-        fast path for long sparse series such as Euler's product)."""
-        return self._ptype(coeffs)
-
-    def convert(self, p: Any) -> Any:
-        """The polynomial p (over a subring) as a polynomial of this ring."""
-        if isinstance(p, self._ptype):
-            return p
-        return self._ptype([self.coerce(c) for c in _py_coeffs(p)])
-
-    def to_number(self, c: Any) -> Number:
-        """A coefficient as a Python int or Fraction."""
-        return int(c)
-
-    def coefficients(self, p: Any) -> list[Number]:
-        """All coefficients of p as Python numbers, low degree first."""
-        return [self.to_number(c) for c in p.coeffs()]
-
-    # -- queries ---------------------------------------------------------------------
-    @staticmethod
-    def length(p: Any) -> int:
-        return p.length()
-
-    @staticmethod
-    def coeff(p: Any, i: int) -> Any:
-        return p[i]
-
-    @staticmethod
-    def valuation(p: Any) -> int | None:
-        """Index of the first nonzero coefficient, or None for the zero polynomial."""
-        n = p.length()
-        if n == 0:
-            return None
-        i = 0
-        while p[i] == 0:
-            i += 1
-        return i
-
-    def is_unit(self, c: Any) -> bool:  # pragma: no cover - abstract
-        raise NotImplementedError
-
-    # -- arithmetic ------------------------------------------------------------------
-    @staticmethod
-    def coefficient_bits(p: Any) -> int:
-        """Bits of the largest coefficient (numerators and denominators for QQ)."""
-        if p.length() == 0:
-            return 0
-        if isinstance(p, flint.fmpz_poly):
-            return int(p.height_bits())
-        if isinstance(p, flint.fmpq_poly):
-            return int(p.numer().height_bits()) + int(flint.fmpz(p.denom()).bit_length())
-        return 0   # modular coefficients do not grow
-
-    @staticmethod
-    def truncate(p: Any, n: int) -> Any:
-        return p.truncate(max(n, 0))
-
-    @staticmethod
-    def shift_up(p: Any, k: int) -> Any:
-        """p * q^k for k >= 0 (refused beyond MAX_SHIFT, where FLINT would abort)."""
-        if not k or p.length() == 0:
-            return p
-        if k + p.length() > MAX_SHIFT:
-            raise UnableError(f"a polynomial of degree {k + p.length() - 1} exceeds the limit")
-        return p.left_shift(k)
-
-    @staticmethod
-    def shift_down(p: Any, k: int) -> Any:
-        """p // q^k for k >= 0 (drops the k lowest coefficients)."""
-        return p.right_shift(k) if k else p
-
-    @staticmethod
-    def mul_low(a: Any, b: Any, n: int) -> Any:
-        if n <= 0:
-            return a.truncate(0)
-        return a.mul_low(b, n)
-
-    @staticmethod
-    def pow_low(p: Any, e: int, n: int) -> Any:
-        if n <= 0:
-            return p.truncate(0)
-        return p.pow_trunc(e, n)
-
-    def inflate(self, p: Any, d: int) -> Any:
-        """p(q^d) for an integer d >= 1."""
-        if d == 1 or p.length() <= 1:
-            return p
-        coeffs = p.coeffs()
-        out = [self.coerce(0)] * ((len(coeffs) - 1) * d + 1)
-        out[::d] = coeffs
-        return self._ptype(out)
-
-    def inv_series(self, p: Any, n: int) -> Any:
-        """1/p modulo q^n, by Newton iteration; p[0] must be a unit (checked)."""
-        if n <= 0:
-            return self.zero()
-        c0 = p[0] if p.length() else self.coerce(0)
-        if not self.is_unit(c0):
-            raise DomainError(f"constant term {self.to_number(c0)} is not invertible over "
-                              f"{self.name}")
-        g = self._ptype([self._unit_inverse(c0)])
-        m = 1
-        two = self._ptype([2])
-        while m < n:
-            m = min(2 * m, n)
-            e = two - self.mul_low(p.truncate(m), g, m)
-            g = self.mul_low(g, e, m)
-        return g
-
-    def _unit_inverse(self, c: Any) -> Any:  # pragma: no cover - abstract
-        raise NotImplementedError
-
-    def binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
-        """p * (1 - c q^j), truncated to length n when n is not None; O(length) work."""
-        if n is not None and j >= n:
-            return p.truncate(max(n, 0))
-        if n is not None:
-            p = p.truncate(max(n, 0))
-            shifted = self.shift_up(p.truncate(max(n - j, 0)), j)
-        else:
-            shifted = self.shift_up(p, j)
-        cc = self._multiplier(c)
-        return p - shifted if cc == 1 else p - shifted * cc
-
-    def binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
-        """p / (1 - c q^j) modulo q^n for j >= 1, by the doubling
-        1/(1-x) = (1+x)(1+x^2)(1+x^4)...; each step is a shift and an add."""
-        p = p.truncate(max(n, 0))
-        cc = self._multiplier(c)
-        step = j
-        while step < n and cc != 0:
-            shifted = self.shift_up(p.truncate(n - step), step)
-            p = p + shifted if cc == 1 else p + shifted * cc
-            step *= 2
-            cc = self._multiplier(cc * cc)
-        return p
-
-    def _multiplier(self, c: Any) -> Any:
-        """c as a scalar that polynomials of this ring can be multiplied by."""
-        return self.coerce(c)
-
-    def exp_integral(self, s: list[int], n: int) -> Any | None:
-        """exp(sum_{k>=1} s[k] q^k / k) modulo q^n for integers s[k] (s[0] is ignored): the
-        Euler transform, which turns a long product of binomials into a logarithm known in
-        closed form.  None where this ring cannot divide by k < n.  (Rings over ZZ use
-        FLINT's rational series exponential; the caller knows the result is integral.)"""
-        if n <= 0:
-            return self.zero()
-        if n == 1:
-            return self.poly_from_ints([1])
-        f = flint.fmpq_poly(list(s[1:n])).integral()
-        old = flint.ctx.cap
-        flint.ctx.cap = max(n, old)
-        try:
-            g = flint.fmpq_series(f, prec=n).exp()
-            coeffs = [g[k] for k in range(n)]
-        finally:
-            flint.ctx.cap = old
-        if self is QQ:
-            return self.poly(coeffs)
-        if any(c.q != 1 for c in coeffs):
-            raise ArithmeticError("exp_integral: the exponential is not integral")
-        return self.poly_from_ints([int(c.p) for c in coeffs])
-
-
-def _py_coeffs(p: Any) -> list[Number]:
-    out: list[Number] = []
-    for c in p.coeffs():
-        if isinstance(c, flint.fmpq):
-            out.append(_fraction(c))
-        else:
-            out.append(int(c))
-    return out
-
-
-class _IntegerRing(Ring):
-    name = "ZZ"
-    _ptype = flint.fmpz_poly
-    int_coefficients = True
-
-    def coerce(self, c: Number) -> Any:
-        if isinstance(c, flint.fmpz):
-            return c
-        if isinstance(c, Fraction):
-            if c.denominator != 1:
-                raise IncompatibleRingError(f"{c} is not an integer")
-            c = c.numerator
-        return flint.fmpz(int(c))
-
-    def is_unit(self, c: Any) -> bool:
-        return c == 1 or c == -1
-
-    def _unit_inverse(self, c: Any) -> Any:
-        return c
-
-    def __repr__(self) -> str:
-        return "ZZ"
-
-
-class _RationalRing(Ring):
-    name = "QQ"
-    _ptype = flint.fmpq_poly
-
-    def coerce(self, c: Number) -> Any:
-        if isinstance(c, flint.fmpq):
-            return c
-        if isinstance(c, Fraction):
-            return flint.fmpq(c.numerator, c.denominator)
-        if isinstance(c, flint.fmpz):
-            return flint.fmpq(c)
-        return flint.fmpq(int(c))
-
-    def to_number(self, c: Any) -> Number:
-        f = _fraction(c)
-        return f.numerator if f.denominator == 1 else f
-
-    def convert(self, p: Any) -> Any:
-        if isinstance(p, flint.fmpz_poly):
-            return flint.fmpq_poly(p)
-        return super().convert(p)
-
-    def is_unit(self, c: Any) -> bool:
-        return c != 0
-
-    def _unit_inverse(self, c: Any) -> Any:
-        return 1 / c
-
-    def __repr__(self) -> str:
-        return "QQ"
-
-
-class _ModularRing(Ring):
-    exact = False
-    int_coefficients = True
-
-    def __init__(self, p: int) -> None:
-        if p < 2 or not flint.fmpz(p).is_prime():
-            raise DomainError(f"modulus {p} is not a prime")
-        if p >= 2**64:
-            raise DomainError(f"modulus {p} does not fit in a machine word")
-        self.p = p
-        self.modulus = p
-        self.name = f"GF({p})"
-
-    def _ptype(self, coeffs: list) -> Any:  # type: ignore[override]
-        return flint.nmod_poly([int(c) for c in coeffs], self.p)
-
-    def poly(self, coeffs: list) -> Any:
-        return flint.nmod_poly([int(self.coerce(c)) for c in coeffs], self.p)
-
-    def poly_from_ints(self, coeffs: list[int]) -> Any:
-        return flint.nmod_poly(coeffs, self.p)
-
-    def convert(self, p: Any) -> Any:
-        if isinstance(p, flint.nmod_poly):
-            if p.modulus() != self.p:
-                raise IncompatibleRingError(f"cannot mix GF({p.modulus()}) with {self.name}")
-            return p
-        return self.poly(_py_coeffs(p))
-
-    def coerce(self, c: Number) -> Any:
-        if isinstance(c, Fraction):
-            if c.denominator % self.p == 0:
-                raise DomainError(f"the denominator of {c} is not invertible modulo {self.p}")
-            return flint.nmod(c.numerator, self.p) / flint.nmod(c.denominator, self.p)
-        return flint.nmod(int(c), self.p)
-
-    def is_unit(self, c: Any) -> bool:
-        return int(c) % self.p != 0
-
-    def _unit_inverse(self, c: Any) -> Any:
-        return 1 / c
-
-    def inv_series(self, p: Any, n: int) -> Any:
-        if n <= 0:
-            return self.zero()
-        if p.length() == 0 or not self.is_unit(p[0]):
-            raise DomainError(f"constant term is not invertible modulo {self.p}")
-        return p.inverse_series_trunc(n)
-
-    def exp_integral(self, s: list[int], n: int) -> Any | None:
-        # Newton's iteration g <- g (1 + f - log g), log g = integral(g'/g), doubling the
-        # precision each step; the integral divides by k < n, so p must exceed n
-        if n <= 0:
-            return self.zero()
-        if self.p <= n:
-            return None
-        p = self.p
-        f = flint.nmod_poly([c % p for c in s[1:n]], p).integral()
-        g = flint.nmod_poly([1], p)
-        m = 1
-        while m < n:
-            m2 = min(2 * m, n)
-            h = g.inverse_series_trunc(m2)
-            log_g = g.derivative().mul_low(h, m2 - 1).integral()
-            # f - log g vanishes below q^m: only the top m2 - m coefficients of g (f - log g)
-            # are needed
-            d = (f.truncate(m2) - log_g).right_shift(m)
-            g = g + g.truncate(m2 - m).mul_low(d, m2 - m).left_shift(m)
-            m = m2
-        return g
-
-    def _multiplier(self, c: Number) -> Any:
-        return int(self.coerce(c))
-
-    def zero(self) -> Any:
-        return flint.nmod_poly([], self.p)
-
-    def inflate(self, p: Any, d: int) -> Any:
-        if d == 1 or p.length() <= 1:
-            return p
-        coeffs = [int(c) for c in p.coeffs()]
-        out = [0] * ((len(coeffs) - 1) * d + 1)
-        out[::d] = coeffs
-        return flint.nmod_poly(out, self.p)
-
-    def __eq__(self, other: object) -> bool:
-        return isinstance(other, _ModularRing) and other.p == self.p
-
-    def __hash__(self) -> int:
-        return hash(("GF", self.p))
-
-    def __repr__(self) -> str:
-        return self.name
-
+from ..errors import DomainError, IncompatibleRingError, UnableError, weight_may_help
+from .arith import _about, _decimal
+from .base import MAX_SHIFT, Number, Ring, _number
+
+__all__ = ["LaurentPoly", "LaurentRing", "laurent_ring", "laurent_text", "laurent_budget",
+           "MAX_LAURENT_TERMS", "MAX_VARIABLES", "LAURENT_SECONDS", "MAX_LAURENT_PRODUCT",
+           "MAX_LAURENT_BITS"]
 
 #: most terms a polynomial with coefficients in extra variables may have (about 100 bytes a
 #: term before the integers themselves); beyond it the modular method is the way
@@ -498,7 +105,7 @@ class LaurentPoly:
 
     __slots__ = ("ring", "m", "shift")
 
-    def __init__(self, ring: _LaurentRing, m: Any, shift: tuple[int, ...]) -> None:
+    def __init__(self, ring: LaurentRing, m: Any, shift: tuple[int, ...]) -> None:
         if len(m) > MAX_LAURENT_TERMS:
             raise UnableError(f"a series with coefficients in {', '.join(ring.names)} has "
                               f"{len(m)} terms, beyond the limit {MAX_LAURENT_TERMS}; compare "
@@ -601,7 +208,12 @@ class LaurentPoly:
 
     # -- text ------------------------------------------------------------------------------
     def terms(self) -> list[tuple[tuple[int, ...], Number]]:
-        """(exponents of q and the extra variables, coefficient), highest first."""
+        """(exponents of q and the extra variables, coefficient), highest first.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> (3 * z ** -1 - z).terms()
+        [((0, 1), -1), ((0, -1), 3)]
+        """
         out = []
         for exps, c in self.m.to_dict().items():
             shifted = (int(e) + s for e, s in zip(exps[1:], self.shift, strict=True))
@@ -611,13 +223,6 @@ class LaurentPoly:
 
     def __repr__(self) -> str:
         return laurent_text(self)
-
-
-def _number(c: Any) -> Number:
-    if isinstance(c, flint.fmpq):
-        f = _fraction(c)
-        return f.numerator if f.denominator == 1 else f
-    return int(c)
 
 
 def laurent_text(c: LaurentPoly,
@@ -657,9 +262,15 @@ def laurent_text(c: LaurentPoly,
     return " ".join(parts) if parts else "0"
 
 
-class _LaurentRing(Ring):
+class LaurentRing(Ring):
     """Polynomials (truncated series) in q with coefficients Laurent polynomials in named
-    extra variables, over ZZ or QQ (FLINT's fmpz_mpoly / fmpq_mpoly, q first)."""
+    extra variables, over ZZ or QQ (FLINT's fmpz_mpoly / fmpq_mpoly, q first); made by
+    :func:`laurent_ring`, one object per set of names.
+
+    >>> R = laurent_ring(("a", "z"))
+    >>> isinstance(R, LaurentRing), R.names, R.rational
+    (True, ('a', 'z'), False)
+    """
 
     def __init__(self, names: tuple[str, ...], rational: bool) -> None:
         self.names = names
@@ -673,6 +284,11 @@ class _LaurentRing(Ring):
         self._qpowers: dict[int, Any] = {}
 
     def exp_integral(self, s: list[int], n: int) -> Any | None:
+        """None: a product over this ring is multiplied out factor by factor.
+
+        >>> laurent_ring(("z",)).exp_integral([0, -1], 3) is None
+        True
+        """
         return None     # products are then multiplied out factor by factor
 
     # -- helpers -------------------------------------------------------------------------
@@ -691,16 +307,33 @@ class _LaurentRing(Ring):
         return LaurentPoly(self, m, self._no_shift if shift is None else shift)
 
     def gen(self, name: str) -> LaurentPoly:
-        """The extra variable ``name`` as a scalar."""
+        """The extra variable ``name`` as a scalar.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> z ** 2 * R.gen("z") ** -3
+        z^-1
+        """
         i = self.names.index(name)
         return self._wrap(self.ctx.gen(i + 1))
 
     @property
     def fractions(self) -> Ring:
+        """The same variables over QQ.
+
+        >>> laurent_ring(("z",)).fractions
+        QQ[z and inverses]
+        """
         return laurent_ring(self.names, rational=True)
 
     # -- construction and conversion -------------------------------------------------
     def coerce(self, c: Any) -> LaurentPoly:
+        """A number, an fmpz/fmpq or a scalar of a ring in the same variables, as a
+        scalar of this ring (rationals only over QQ).
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coerce(3) + z
+        z + 3
+        """
         if isinstance(c, LaurentPoly):
             if c.ring is self:
                 return c
@@ -724,6 +357,12 @@ class _LaurentRing(Ring):
         return self._wrap(self.ctx.constant(int(c)))
 
     def poly(self, coeffs: list) -> LaurentPoly:
+        """Polynomial in q with the given coefficients (numbers or scalars), low degree first.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.poly([1, z]))
+        [1, z]
+        """
         acc = self.zero()
         for i, c in enumerate(coeffs):
             if c:
@@ -731,14 +370,31 @@ class _LaurentRing(Ring):
         return acc
 
     def zero(self) -> LaurentPoly:
+        """The zero polynomial.
+
+        >>> R = laurent_ring(("z",)); R.length(R.zero())
+        0
+        """
         return self._wrap(self.ctx.constant(0))
 
     def poly_from_ints(self, coeffs: list[int]) -> LaurentPoly:
+        """Polynomial in q from Python ints (free of the extra variables).
+
+        >>> R = laurent_ring(("z",)); R.coefficients(R.poly_from_ints([1, 0, -2]))
+        [1, 0, -2]
+        """
         k = len(self.names)
         return self._wrap(self.ctx.from_dict({(i, *([0] * k)): c
                                               for i, c in enumerate(coeffs) if c}))
 
     def convert(self, p: Any) -> LaurentPoly:
+        """A polynomial over ZZ or QQ (fmpz_poly, fmpq_poly) or over a Laurent ring in the
+        same variables, as one of this ring.
+
+        >>> import flint
+        >>> R = laurent_ring(("z",)); R.coefficients(R.convert(flint.fmpz_poly([2, 3])))
+        [2, 3]
+        """
         if isinstance(p, LaurentPoly):
             return self.coerce(p)
         if isinstance(p, (flint.fmpz_poly, flint.fmpq_poly)):
@@ -753,7 +409,12 @@ class _LaurentRing(Ring):
                                     f"{self.name}")
 
     def to_number(self, c: Any) -> Any:
-        """A number when the scalar is constant, else the scalar itself."""
+        """A number when the scalar is constant, else the scalar itself.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.to_number(R.coerce(3)), R.to_number(2 * z)
+        (3, 2*z)
+        """
         if isinstance(c, LaurentPoly):
             if c.shift == self._no_shift and c.m.is_constant():
                 return _number(c.m.coeffs()[0]) if not c.m.is_zero() else 0
@@ -761,6 +422,12 @@ class _LaurentRing(Ring):
         return _number(c)
 
     def coefficients(self, p: LaurentPoly) -> list[Any]:
+        """All coefficients of p (in q), low degree first: numbers where constant, else scalars.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.poly([2, z + 1]))
+        [2, z + 1]
+        """
         n = self.length(p)
         buckets: list[dict] = [{} for _ in range(n)]
         for exps, c in p.m.to_dict().items():
@@ -775,18 +442,42 @@ class _LaurentRing(Ring):
 
     # -- queries ---------------------------------------------------------------------
     def length(self, p: LaurentPoly) -> int:  # type: ignore[override]
+        """One more than the degree in q (0 for the zero polynomial).
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.length(R.poly([1, 0, z]))
+        3
+        """
         return 0 if p.m.is_zero() else int(p.m.degrees()[0]) + 1
 
     def coeff(self, p: LaurentPoly, i: int) -> LaurentPoly:  # type: ignore[override]
+        """The coefficient of q^i of p, as a scalar.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coeff(R.poly([1, z - 1]), 1)
+        z - 1
+        """
         part = (p.m % self._qpow(i + 1)) - (p.m % self._qpow(i)) if i else p.m % self._q
         return self._wrap(part / self._qpow(i) if i else part, p.shift)
 
     def valuation(self, p: LaurentPoly) -> int | None:  # type: ignore[override]
+        """The least exponent of q in p, or None for the zero polynomial.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.valuation(R.poly([0, 0, z])), R.valuation(R.zero())
+        (2, None)
+        """
         if p.m.is_zero():
             return None
         return int(p.m.term_content().degrees()[0])
 
     def is_unit(self, c: Any) -> bool:
+        """Whether the scalar c is a unit: a single term (with coefficient +-1 over ZZ).
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.is_unit(-z ** -3), R.is_unit(1 - z), R.is_unit(2 * z)
+        (True, False, False)
+        """
         if not isinstance(c, LaurentPoly):
             c = self.coerce(c)
         if len(c.m.coeffs()) != 1:
@@ -805,6 +496,12 @@ class _LaurentRing(Ring):
 
     # -- arithmetic ------------------------------------------------------------------
     def coefficient_bits(self, p: LaurentPoly) -> int:  # type: ignore[override]
+        """Bits of the largest numeric coefficient (numerator plus denominator over QQ).
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficient_bits(R.poly([255 * z, 1]))
+        8
+        """
         best = 0
         for c in p.m.coeffs():
             if self.rational:
@@ -814,6 +511,12 @@ class _LaurentRing(Ring):
         return best
 
     def truncate(self, p: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
+        """p modulo q^n.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.truncate(R.poly([1, z, z ** 2]), 2))
+        [1, z]
+        """
         if n <= 0:
             return self.zero()
         if p.m.is_zero() or int(p.m.degrees()[0]) < n:
@@ -821,6 +524,12 @@ class _LaurentRing(Ring):
         return self._wrap(p.m % self._qpow(n), p.shift)
 
     def shift_up(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
+        """p * q^k for k >= 0 (refused beyond MAX_SHIFT).
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.shift_up(R.poly([z]), 2))
+        [0, 0, z]
+        """
         if not k or p.m.is_zero():
             return p
         if k + self.length(p) > MAX_SHIFT:
@@ -829,14 +538,33 @@ class _LaurentRing(Ring):
         return self._wrap(p.m * self._qpow(k), p.shift)
 
     def shift_down(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
+        """p / q^k for k >= 0; here p must be divisible by q^k (callers shift down
+        by at most the valuation).
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.shift_down(R.poly([0, z]), 1))
+        [z]
+        """
         return self._wrap(p.m / self._qpow(k), p.shift) if k else p
 
     def mul_low(self, a: LaurentPoly, b: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
+        """a * b modulo q^n.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.mul_low(R.poly([1, z]), R.poly([1, -z]), 3))
+        [1, 0, -z^2]
+        """
         if n <= 0:
             return self.zero()
         return self.truncate(self.truncate(a, n) * self.truncate(b, n), n)
 
     def pow_low(self, p: LaurentPoly, e: int, n: int) -> LaurentPoly:  # type: ignore[override]
+        """p^e modulo q^n for e >= 0, by repeated squaring.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.pow_low(R.poly([1, z]), 3, 3))
+        [1, 3*z, 3*z^2]
+        """
         result = self.coerce(1)
         base = self.truncate(p, n)
         while e:
@@ -848,12 +576,25 @@ class _LaurentRing(Ring):
         return result
 
     def inflate(self, p: LaurentPoly, d: int) -> LaurentPoly:
+        """p(q^d) for an integer d >= 1.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.inflate(R.poly([1, z]), 2))
+        [1, 0, z]
+        """
         if d == 1:
             return p
         return self._wrap(self.ctx.from_dict({(e[0] * d, *e[1:]): c
                                               for e, c in p.m.to_dict().items()}), p.shift)
 
     def inv_series(self, p: LaurentPoly, n: int) -> LaurentPoly:
+        """1/p modulo q^n by Newton iteration; the constant term must be a unit (a single
+        term), else the error suggests a weight.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.inv_series(R.poly([1, -z]), 3))
+        [1, z, z^2]
+        """
         if n <= 0:
             return self.zero()
         c0 = self.coeff(p, 0)
@@ -872,6 +613,12 @@ class _LaurentRing(Ring):
         return g
 
     def binomial_mul(self, p: LaurentPoly, c: Any, j: int, n: int | None) -> LaurentPoly:
+        """p * (1 - c q^j) for a scalar c, truncated to length n when n is not None.
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.binomial_mul(R.poly([1]), z, 1, None))
+        [1, -z]
+        """
         if n is not None:
             if j >= n:
                 return self.truncate(p, n)
@@ -882,6 +629,13 @@ class _LaurentRing(Ring):
         return p - shifted * self.coerce(c)
 
     def binomial_div(self, p: LaurentPoly, c: Any, j: int, n: int) -> LaurentPoly:
+        """p / (1 - c q^j) modulo q^n for j >= 1 and a scalar c, by the doubling
+        (1+x)(1+x^2)(1+x^4)...
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R.binomial_div(R.poly([1]), z, 1, 3))
+        [1, z, z^2]
+        """
         p = self.truncate(p, n)
         cc = self.coerce(c)
         step = j
@@ -892,7 +646,7 @@ class _LaurentRing(Ring):
         return p
 
     def __eq__(self, other: object) -> bool:
-        return isinstance(other, _LaurentRing) and other.names == self.names and \
+        return isinstance(other, LaurentRing) and other.names == self.names and \
             other.rational == self.rational
 
     def __hash__(self) -> int:
@@ -908,7 +662,7 @@ def _integral(c: Any) -> Any:
     return flint.fmpz(c.p)
 
 
-_LAURENT: dict[tuple[tuple[str, ...], bool], _LaurentRing] = {}
+_LAURENT: dict[tuple[tuple[str, ...], bool], LaurentRing] = {}
 
 
 def laurent_ring(names: tuple[str, ...], rational: bool = False) -> Ring:
@@ -927,69 +681,8 @@ def laurent_ring(names: tuple[str, ...], rational: bool = False) -> Ring:
         if len(names) > MAX_VARIABLES:
             raise UnableError(f"{len(names)} extra variables; at most {MAX_VARIABLES} are "
                               f"supported")
-        ring = _LaurentRing(tuple(names), rational)
+        ring = LaurentRing(tuple(names), rational)
         _LAURENT[key] = ring
     return ring
 
 
-ZZ: Ring = _IntegerRing()
-QQ: Ring = _RationalRing()
-
-
-def _about(n: int) -> str:
-    """n, or its order of magnitude when it is long."""
-    return str(n) if n < 10**12 else f"about 10^{len(str(n)) - 1}" if n < 10**4000 else \
-        "astronomically many"
-
-
-def _decimal(n: int) -> str:
-    return str(n) if n.bit_length() < 10_000 else int_to_decimal(n)
-
-
-def int_to_decimal(n: int) -> str:
-    """Decimal text of an integer of any size, by GMP (fast for huge numbers).
-
-    >>> int_to_decimal(-12345678901234567890)
-    '-12345678901234567890'
-    """
-    return flint.fmpz(n).str()
-
-
-def is_prime(n: int) -> bool:
-    """Primality by FLINT (a proof, not a probable-prime test).
-
-    >>> is_prime(2**61 - 1)
-    True
-    """
-    return n >= 2 and bool(flint.fmpz(n).is_prime())
-
-
-def GF(p: int) -> Ring:
-    """The ring of integers modulo the prime p (p < 2^64).
-
-    >>> R = GF(7)
-    >>> R.coefficients(R.inv_series(R.poly([1, 2]), 4))
-    [1, 5, 4, 6]
-    """
-    return _ModularRing(p)
-
-
-def join_rings(a: Ring, b: Ring) -> Ring:
-    """The smallest ring containing both: ZZ inside QQ; a prime field only with itself.
-
-    >>> join_rings(ZZ, QQ)
-    QQ
-    """
-    if a == b:
-        return a
-    if {a, b} == {ZZ, QQ}:
-        return QQ
-    la, lb = isinstance(a, _LaurentRing), isinstance(b, _LaurentRing)
-    if la or lb:
-        names = a.names if la else b.names  # type: ignore[attr-defined]
-        if (la and lb and a.names != b.names) or any(  # type: ignore[attr-defined]
-                isinstance(r, _ModularRing) for r in (a, b)):
-            raise IncompatibleRingError(f"cannot combine series over {a.name} and {b.name}")
-        rational = any(r == QQ or getattr(r, "rational", False) for r in (a, b))
-        return laurent_ring(names, rational)
-    raise IncompatibleRingError(f"cannot combine series over {a.name} and {b.name}")
