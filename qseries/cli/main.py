@@ -18,10 +18,16 @@ import typer
 from ..analysis import diagnose, distributions, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
 from ..engine import evaluate
-from ..engine.chooser import AUTO_MODULAR_ORDER, COST_LIMIT_BYTES, COST_LIMIT_SECONDS
+from ..engine.chooser import (
+    AUTO_MODULAR_ORDER,
+    COST_LIMIT_BYTES,
+    COST_LIMIT_SECONDS,
+    PRODUCT_MAX_ORDER,
+)
 from ..engine.cost import CostEstimate, estimate_cost
 from ..errors import QSeriesError
-from ..lang.parser import NOTATION_FORMS, is_extra_variable
+from ..lang import Node, parse
+from ..lang.parser import NOTATION_FORMS, definitions_of, is_extra_variable
 from ..products import FUNCTIONS
 from ..report import (
     check_json,
@@ -77,7 +83,7 @@ AllowLongOption = Annotated[bool, typer.Option(
          f"{COST_LIMIT_BYTES / 1e9:.0f} GB.")]
 
 
-def _refuse_long(allow: bool, exprs: list[str], order: int, ring: Any = None,
+def _refuse_long(allow: bool, exprs: list[Node], order: int, ring: Any = None,
                  weights: dict[str, int] | None = None, times: int = 1,
                  then: Any = None, smaller: str = "a smaller --order") -> None:
     """Exit 2 with the estimate when evaluating ``exprs`` at ``order`` (``times`` over,
@@ -98,6 +104,20 @@ def _refuse_long(allow: bool, exprs: list[str], order: int, ring: Any = None,
     total = CostEstimate(order, seconds, size, shown.probe_order, shown.probe_seconds)
     _fail(f"order {order} would take {total.text()}; pass --allow-long to run it anyway, or "
           f"choose {smaller}")
+
+
+DefineOption = Annotated[list[str] | None, typer.Option(
+    "--define", "-D", metavar="NAME(q) = EXPR",
+    help="Define a function in the notation, e.g. --define \"G(q) = 1/((q;q^5)_inf "
+         "(q^4;q^5)_inf)\"; the expressions may then call it at any argument (G(q^2), "
+         "G(-q)).  Repeatable; definitions may call each other, not in a cycle.")]
+
+
+def _parsed(exprs: list[str], defines: list[str] | None) -> list[Node]:
+    """The expressions' syntax trees, with the --define functions expanded (exit 2 with the
+    position on an error)."""
+    defs = _guarded(definitions_of, defines or [])
+    return [_guarded(parse, e, (), defs) for e in exprs]
 
 
 WeightOption = Annotated[list[str] | None, typer.Option(
@@ -150,6 +170,7 @@ def expand(
     expr: Annotated[str, typer.Argument(help="The expression, e.g. \"1/(q;q)_inf\".")],
     order: OrderOption = 100,
     weight: WeightOption = None,
+    define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
 ) -> None:
@@ -160,8 +181,9 @@ def expand(
     Example: qseries expand "sum_{k>=0} q^(k^2)/(q;q)_k" --order 20
     """
     weights = _weights(weight)
-    _refuse_long(allow_long, [expr], order, None, weights)
-    s: Series = _guarded(evaluate, expr, order, None, weights)
+    [node] = _parsed([expr], define)
+    _refuse_long(allow_long, [node], order, None, weights)
+    s: Series = _guarded(evaluate, node, order, None, weights)
     if as_json:
         typer.echo(json.dumps(expand_json(s, order)))
         return
@@ -209,6 +231,7 @@ def check_cmd(
         "--primes", min=1, max=MAX_PRIMES,
         help="How many primes the modular method uses.")] = 3,
     weight: WeightOption = None,
+    define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
 ) -> None:
@@ -219,11 +242,12 @@ def check_cmd(
     Example: qseries check "sum_{k>=0} q^(k^2)/(q;q)_k" "1/((q;q^5)_inf (q^4;q^5)_inf)" -n 500
     """
     weights = _weights(weight)
+    lnode, rnode = _parsed([lhs, rhs], define)
     modular = method == Method.modular or (method == Method.auto and order >= AUTO_MODULAR_ORDER)
-    _refuse_long(allow_long, [lhs, rhs], order, _probe_field() if modular else None, weights,
+    _refuse_long(allow_long, [lnode, rnode], order, _probe_field() if modular else None, weights,
                  times=primes if modular else 1)
     r: CheckResult = _guarded(lambda: _with_status(
-        lambda say: check(lhs, rhs, order, method=method.value, primes=primes, progress=say,
+        lambda say: check(lnode, rnode, order, method=method.value, primes=primes, progress=say,
                           weights=weights),
         show=order >= STATUS_ORDER and not as_json))
     if as_json:
@@ -243,6 +267,7 @@ def _probe_field() -> Any:
 def product(
     expr: Annotated[str, typer.Argument(help="The series, e.g. a sum side.")],
     order: OrderOption = 100,
+    define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
 ) -> None:
@@ -252,8 +277,13 @@ def product(
 
     Example: qseries product "sum_{k>=0} q^(k^2)/(q;q)_k" --order 200
     """
-    _refuse_long(allow_long, [expr], order, then=product_form)
-    series: Series = _guarded(evaluate, expr, order)
+    [node] = _parsed([expr], define)
+    if order > PRODUCT_MAX_ORDER and not allow_long:
+        _fail(f"product recovers exponents up to order {PRODUCT_MAX_ORDER} (beyond it the "
+              f"inverse series it needs holds coefficients of thousands of digits, gigabytes "
+              f"at order 10^7); pass --allow-long to try order {order} anyway")
+    _refuse_long(allow_long, [node], order, then=product_form)
+    series: Series = _guarded(evaluate, node, order)
     if getattr(series.ring, "names", ()):
         _fail("product forms are recovered for series in q alone; this expression has the "
               f"extra variables {', '.join(series.ring.names)}")  # type: ignore[attr-defined]
@@ -300,6 +330,7 @@ def distribution(
     out: Annotated[Path | None, typer.Option(
         "--out", help="Write the --trend-upto table to this file (default: standard output).")
                    ] = None,
+    define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
 ) -> None:
@@ -313,9 +344,10 @@ def distribution(
         _fail("give a size with --at N, or --trend-upto N for the mean/variance table")
     sizes = list(at or [])
     trend = list(range(1, trend_upto + 1)) if trend_upto else []
-    _refuse_long(allow_long, [expr], max(sizes + trend) + 1,
+    [node] = _parsed([expr], define)
+    _refuse_long(allow_long, [node], max(sizes + trend) + 1,
                  smaller="smaller sizes (--at, --trend-upto)")
-    dists = _guarded(distributions, expr, var, sorted(set(sizes + trend)))
+    dists = _guarded(distributions, node, var, sorted(set(sizes + trend)))
     by_n = {d.n: d for d in dists}
     if sizes and as_json:
         typer.echo(json.dumps(distributions_json(var, [by_n[n] for n in sizes], moments)))

@@ -137,8 +137,11 @@ def estimate_cost(expr: str | Node, order: int, ring: Ring | None = None,
         if len(probes) == 1:               # the first probe was already slow: a smaller one
             probes.insert(0, probe(n // 4))
     except QSeriesError:
-        return None
-    if not probes:
+        # a probe refused (a limit reached at a probe order): the run itself would fail the
+        # same way, unless earlier probes succeeded, whose trend then stands
+        if len(probes) < 2:
+            return None
+    if len(probes) < 2:
         return None
     (n1, t1, b1), (n2, t2, b2) = probes[-2:]
     k_time = _growth(t1, t2, n2 / n1, 1.0, 2.5)

@@ -15,6 +15,7 @@ from __future__ import annotations
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
+from ..errors import QSeriesError
 from ..lang.ast import Poch
 from ..products import monomial_parts
 from ..series import Series
@@ -77,6 +78,10 @@ def steppable(ev: Evaluator, f: Poch, var: str, env: dict[str, int]) -> bool:
     """Whether the subscript of f is linear in ``var`` with integer coefficients and nothing
     else of f involves ``var``, so that consecutive values differ by a few binomials."""
     if any(var in ev.free(x) for x in (*f.params, f.base)) or f.length is None:
+        return False
+    try:
+        ev._base_step(f, env, 1)        # a base -q^t (from q -> -q) is evaluated directly
+    except QSeriesError:
         return False
     try:
         poly = sym.m_to_uni(ev.bounds.poly_of(f.length, {var: 1}, env), var)

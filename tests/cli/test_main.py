@@ -311,13 +311,29 @@ def test_every_command_with_an_order_estimates_and_allow_long_skips_it(monkeypat
     assert r.exit_code in (0, 1) and asked == []
 
 
-def test_the_product_estimate_includes_the_recovery_of_the_exponents():
-    # (q;q)_inf itself is cheap at order 10^7 (Euler's pentagonal numbers), but recovering
-    # its exponents means the log-derivative of a series with coefficients of thousands of
-    # digits: the estimate must time that work too, not only the evaluation
+def test_product_refuses_an_order_beyond_its_limit_up_front():
+    # issue 11: product -n 9999999 "(q;q)_inf" ran for minutes and took gigabytes: (q;q)_inf
+    # itself is cheap, but the exponents need its inverse, with coefficients of thousands of
+    # digits, a working memory the probes of the estimate cannot see
+    from qseries.engine.chooser import PRODUCT_MAX_ORDER
+
     r = run("product", "-n", "9999999", "(q;q)_inf")
     assert r.exit_code == 2, r.output
-    assert "would take about" in r.output and "--allow-long" in r.output
+    assert f"up to order {PRODUCT_MAX_ORDER}" in r.output and "--allow-long" in r.output
+
+
+def test_the_product_estimate_times_the_recovery_of_the_exponents(monkeypatch):
+    import qseries.cli.main as cli
+
+    seen = []
+
+    def spy(expr, order, ring=None, weights=None, then=None):
+        seen.append(then)
+        return None
+
+    monkeypatch.setattr(cli, "estimate_cost", spy)
+    assert run("product", "-n", "60000", "(q;q)_inf").exit_code == 0
+    assert seen == [cli.product_form]
 
 
 def test_the_distribution_refusal_names_the_options_that_set_the_sizes(monkeypatch):
@@ -328,3 +344,45 @@ def test_the_distribution_refusal_names_the_options_that_set_the_sizes(monkeypat
     r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "100000")
     assert r.exit_code == 2
     assert "--trend-upto" in r.output and "--order" not in r.output
+
+
+# -- --define (issue 13, item 3) ------------------------------------------------------------
+G_SUM = "G(q) = sum_{n>=0} q^(n^2)/(q;q)_n"
+H_SUM = "H(q) = sum_{n>=0} q^(n^2+n)/(q;q)_n"
+
+
+def test_define_lets_both_sides_call_a_function_at_any_argument():
+    # Berndt et al., Ramanujan's forty identities, Mem. AMS 188 (2007), no. 880, (1.4):
+    # H(q) G(q^11) - q^2 G(q) H(q^11) = 1, with G, H the Rogers-Ramanujan sums
+    r = run("check", "-D", G_SUM, "--define", H_SUM, "H(q) G(q^11) - q^2 G(q) H(q^11)", "1",
+            "-n", "200")
+    assert r.exit_code == 0, r.output
+    assert "AGREES" in r.stdout
+
+
+@pytest.mark.parametrize(("cmd", "define"), [
+    (["expand", "G(-q)"], G_SUM),
+    (["product", "G(q^2)"], G_SUM),
+    (["distribution", "D(z)", "--at", "4"], "D(z) = sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"),
+])
+def test_every_command_taking_an_expression_takes_define(cmd, define):
+    r = run(*cmd, "--define", define)
+    assert r.exit_code == 0, r.output
+
+
+@pytest.mark.parametrize(("defines", "words"), [
+    (["G(q) = H(q)", "H(q) = G(q^2)"], "cycle: G -> H -> G"),
+    (["G(q) = 1/(1-q"], "column 14"),
+    (["eta(q) = 1"], "already a name"),
+])
+def test_a_bad_definition_exits_2_with_the_position(defines, words):
+    args = [x for d in defines for x in ("--define", d)]
+    r = run("expand", *args, "G(q)")
+    assert r.exit_code == 2
+    assert words in r.output and "Traceback" not in r.output
+
+
+def test_an_undefined_function_exits_2_and_says_how_to_define_it():
+    r = run("expand", "G(q) H(q)")
+    assert r.exit_code == 2
+    assert "unknown function 'G'" in r.output and "G(q) = ..." in r.output

@@ -68,3 +68,21 @@ def test_text_and_limits():
     e = CostEstimate(10**5, 30.0, 5 * 10**6, 4096, 0.3)
     assert not e.exceeds(600, 10**9) and e.exceeds(10, 10**9) and e.exceeds(600, 10**6)
     assert e.text() == "about 30 s and 5.0 MB (extrapolated from order 4096, computed in 0.3 s)"
+
+
+def test_a_probe_that_fails_after_others_succeeded_still_gives_an_estimate(monkeypatch):
+    # a limit reached at a later probe order must not let the real run start unestimated
+    import qseries.engine.cost as cost
+    from qseries.errors import UnableError
+
+    real = cost.evaluate
+
+    def failing_late(node, n, ring=None, weights=None):
+        if n > 4 * cost.PROBE_FIRST_ORDER:
+            raise UnableError("a limit")
+        return real(node, n, ring, weights)
+
+    monkeypatch.setattr(cost, "evaluate", failing_late)
+    monkeypatch.setattr(cost, "PROBE_SECONDS", 1e9)     # never stop on time
+    est = cost.estimate_cost("1/(q;q)_inf", 10**7)
+    assert est is not None and est.probe_order == 4 * cost.PROBE_FIRST_ORDER

@@ -150,3 +150,12 @@ def test_multi_index_sums_share_the_range():
     a = evaluate("sum_{i,j>=0} q^(i^2+j^2)/((q;q)_i (q;q)_j)", 60)
     b = evaluate("(sum_{i>=0} q^(i^2)/(q;q)_i)^2", 60)
     assert a == b
+
+
+def test_a_sum_at_minus_q_has_the_signs_of_q_to_minus_q():
+    # q -> -q multiplies the coefficient of q^n by (-1)^n; the sum's (q;q)_n become
+    # (-q;-q)_n, which the sum strategies leave to the direct evaluation
+    rr = "G(q) = sum_{n>=0} q^(n^2)/(q;q)_n"
+    plus = evaluate("G(q)", 80, definitions=[rr]).coefficient_list(80)
+    minus = evaluate("G(-q)", 80, definitions=[rr]).coefficient_list(80)
+    assert minus == [(-1) ** n * c for n, c in enumerate(plus)]
