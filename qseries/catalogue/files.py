@@ -177,10 +177,11 @@ def _definitions(value: object, text: str, path: Path,
     if value is None:
         return (), {}
     lines = _definition_lines(text)
+    if "" not in lines:             # an inline table or another form: its first line
+        lines[""] = next((n for n, raw in enumerate(text.splitlines(), start=1)
+                          if raw.strip().startswith("definitions")), 1)
     if not isinstance(value, dict):
-        line = next((n for n, raw in enumerate(text.splitlines(), start=1)
-                     if raw.strip().startswith("definitions")), 1)
-        raise IdentityFileError(f"{path}:{line}: definitions must be a table, "
+        raise IdentityFileError(f"{path}:{lines['']}: definitions must be a table, "
                                 f"[definitions] with lines \"G(q)\" = \"...\"")
     texts: list[str] = []
     where: dict[str, str] = {}

@@ -296,6 +296,10 @@ def test_definitions_must_be_a_table(tmp_path):
     path = write(tmp_path, 'definitions = ["G(q) = 1"]\n' + GOOD)
     with pytest.raises(IdentityFileError, match=r":1: definitions must be a table"):
         load_entries([path])
+    # an inline table is a table; its errors point at its line
+    path = write(tmp_path, '# functions\ndefinitions = { "G(q)" = "1/(1-q" }\n' + GOOD)
+    with pytest.raises(IdentityFileError, match=r"f.toml:2: bad definition: expected"):
+        load_entries([path])
 
 
 def test_a_field_after_the_definitions_table_is_not_an_entry_field(tmp_path):
