@@ -378,3 +378,20 @@ def test_a_multiple_of_a_remainder_keeps_its_offset():
     from qseries.series import Series
     half = Series.monomial(Fraction(1, 2))
     assert (Series.zero(prec=3) * half).precision == Fraction(7, 2)
+
+
+@pytest.mark.parametrize("text, definitions", [
+    # each level calls the one below twice: 2^40 terms if expanded
+    ("A40(q)", ["A0(q) = 1/(1-q)"] + [f"A{k}(q) = A{k - 1}(q) A{k - 1}(q)"
+                                      for k in range(1, 41)]),
+    # an argument used three times, nested 30 deep: 3^30 terms
+    ("B(" * 30 + "q" + ")" * 30, ["B(x) = x x x"]),
+])
+def test_definitions_that_expand_exponentially_are_refused_quickly(text, definitions):
+    import time
+
+    from qseries.errors import ParseError
+    t0 = time.perf_counter()
+    with pytest.raises(ParseError, match="expands into more than"):
+        evaluate(text, 10, definitions=definitions)
+    assert time.perf_counter() - t0 < 10

@@ -20,6 +20,21 @@ weights     weights of extra variables, ``{c = 2, z = 1}``: z stands for z*q^w (
             ``qseries check --weight``); by default 0, or 1 for all when 0 fails
 =========== ==========================================================================
 
+Functions used by the entries of a file may be defined once in a top-level table
+``[definitions]``, one line per function, ``"NAME(params)" = "body"`` in the notation::
+
+    [definitions]
+    "G(q)" = "1/((q;q^5)_inf (q^4;q^5)_inf)"
+    "H(q)" = "H0(q)"
+    "H0(q)" = "1/((q^2;q^5)_inf (q^3;q^5)_inf)"
+
+Every entry of that file (family templates included) may call them, e.g. ``G(q^$k)``; they
+are parsed by :mod:`qseries.lang.definitions` (expanded where they are called, never run as
+code), may call each other in any order but not in a cycle, and apply to that file only.
+A bad head, an unknown name or a cycle is an error at the definition's file:line.  Each
+entry carries the definition texts (``Entry.definitions``), which ``verify`` passes to
+:func:`qseries.check`.
+
 ``fails_at`` is an integer, or a fraction in a string such as ``"23/24"``.
 
 Limits: only regular files are read (a FIFO, socket or device named ``*.toml`` is refused
@@ -56,6 +71,7 @@ from pathlib import Path
 from ..errors import IdentityFileError, ParseError, QSeriesError, TemplateError
 from ..lang import parse
 from ..lang.ast import extra_variables
+from ..lang.definitions import Definition, parse_definitions
 from ..lang.parser import is_extra_variable
 from .templates import Budget, expand_template, integer_expression
 
@@ -95,6 +111,8 @@ class Entry:
     corrects: str = ""
     family: str = field(default="")
     weights: tuple[tuple[str, int], ...] | None = None
+    definitions: tuple[str, ...] = ()
+    ranges: tuple[tuple[str, str], ...] = ()
 
     @property
     def weight_map(self) -> dict[str, int] | None:
@@ -108,18 +126,85 @@ class Entry:
             return self.key
         return f"{self.key}[{','.join(f'{n}={v}' for n, v in self.params)}]"
 
+    @property
+    def label(self) -> str:
+        """The key with the parameter values spelled out, for tables: ``andrews-gordon k=3
+        i=1`` (the key alone for an entry that is not a family member).
+
+        >>> Entry("ag", "t", "1", "1", 5, "s", "-", 1, params=(("k", 3), ("i", 1))).label
+        'ag k=3 i=1'
+        """
+        return " ".join([self.key, *(f"{n}={v}" for n, v in self.params)])
+
 
 def _entry_lines(text: str) -> list[tuple[int, dict[str, int]]]:
     """For each [[identity]] table: its header line and the line of each field."""
     out: list[tuple[int, dict[str, int]]] = []
+    current = False
     for number, raw in enumerate(text.splitlines(), start=1):
         line = raw.strip()
         if line == "[[identity]]":
             out.append((number, {}))
-        elif out and "=" in line and not line.startswith("#"):
+            current = True
+        elif line.startswith("["):
+            current = False           # another table, such as [definitions]
+        elif out and current and "=" in line and not line.startswith("#"):
             name = line.split("=", 1)[0].strip()
             out[-1][1].setdefault(name, number)
     return out
+
+
+def _definition_lines(text: str) -> dict[str, int]:
+    """The line of each key of the top-level table [definitions] (quotes removed); the
+    header's own line under the key ""."""
+    out: dict[str, int] = {}
+    inside = False
+    for number, raw in enumerate(text.splitlines(), start=1):
+        line = raw.strip()
+        if line.startswith("["):
+            inside = line.split("#", 1)[0].strip() == "[definitions]"
+            if inside:
+                out.setdefault("", number)
+        elif inside and "=" in line and not line.startswith("#"):
+            out.setdefault(line.split("=", 1)[0].strip().strip("\"'"), number)
+    return out
+
+
+def _definitions(value: object, text: str, path: Path,
+                 budget: Budget) -> tuple[tuple[str, ...], dict[str, Definition]]:
+    """The texts ``"NAME(params) = body"`` of a file's [definitions] table, and their
+    parsed form; errors name the file and the definition's line."""
+    if value is None:
+        return (), {}
+    lines = _definition_lines(text)
+    if "" not in lines:             # an inline table or another form: its first line
+        lines[""] = next((n for n, raw in enumerate(text.splitlines(), start=1)
+                          if raw.strip().startswith("definitions")), 1)
+    if not isinstance(value, dict):
+        raise IdentityFileError(f"{path}:{lines['']}: definitions must be a table, "
+                                f"[definitions] with lines \"G(q)\" = \"...\"")
+    texts: list[str] = []
+    where: dict[str, str] = {}
+    for head, body in value.items():
+        at = f"{path}:{lines.get(head, lines.get('', 1))}"
+        if not isinstance(body, str) or not body.strip():
+            raise IdentityFileError(f"{at}: the definition of {head} must be a non-empty "
+                                    f"string in the notation")
+        try:
+            budget.spend(PARSE_STEPS * (len(head) + len(body)))
+        except TemplateError as err:
+            raise IdentityFileError(f"{at}: {err}") from None
+        definition = f"{head} = {body}"
+        texts.append(definition)
+        where[definition] = at
+    try:
+        parsed = parse_definitions(texts)
+    except ParseError as err:
+        at = where.get(err.text, f"{path}:{lines.get('', 1)}")
+        raise IdentityFileError(f"{at}: bad definition: {err}") from None
+    except QSeriesError as err:
+        raise IdentityFileError(f"{path}:{lines.get('', 1)}: bad definition: {err}") from None
+    return tuple(texts), parsed
 
 
 def _ranges(spec: dict, where: str, budget: Budget) -> list[dict[str, int]]:
@@ -150,9 +235,9 @@ def _ranges(spec: dict, where: str, budget: Budget) -> list[dict[str, int]]:
     return assignments
 
 
-def _check_side(text: str, where: str):
+def _check_side(text: str, where: str, definitions: dict[str, Definition] | None = None):
     try:
-        return parse(text)
+        return parse(text, definitions=definitions)
     except ParseError as err:
         raise IdentityFileError(f"{where}: {err}") from None
 
@@ -215,10 +300,14 @@ def load_file(path: Path, budget: Budget | None = None) -> list[Entry]:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as err:
         raise IdentityFileError(f"{path}: not valid TOML: {err}") from None
-    unknown_top = set(data) - {"identity"}
+    unknown_top = set(data) - {"identity", "definitions"}
     if unknown_top:
         raise IdentityFileError(f"{path}:1: unknown top-level field(s) {sorted(unknown_top)}; "
-                                f"entries are [[identity]] tables")
+                                f"entries are [[identity]] tables, functions a "
+                                f"[definitions] table")
+    file_steps = Budget(parent=budget, what="reading the definitions of this file")
+    definition_texts, definitions = _definitions(data.get("definitions"), text, path,
+                                                 file_steps)
     tables = data.get("identity", [])
     if not isinstance(tables, list) or not all(isinstance(t, dict) for t in tables):
         line = next((n for n, raw in enumerate(text.splitlines(), start=1)
@@ -286,7 +375,7 @@ def load_file(path: Path, budget: Budget | None = None) -> list[Entry]:
                 except TemplateError as err:
                     raise IdentityFileError(f"{at(name)}: {err}") from None
                 label = f"{at(name)}" + (f" (with {values})" if values else "")
-                trees.append(_check_side(side, label))
+                trees.append(_check_side(side, label, definitions))
                 sides.append(side)
             entries.append(Entry(
                 key=table["key"], title=table["title"], left=sides[0], right=sides[1],
@@ -294,7 +383,8 @@ def load_file(path: Path, budget: Budget | None = None) -> list[Entry]:
                 tags=tuple(tags), params=tuple(values.items()), expect=expect,
                 fails_at=fails_at, note=table.get("note", ""),
                 corrects=table.get("corrects", ""), family=table["key"] if params else "",
-                weights=weights))
+                weights=weights, definitions=definition_texts,
+                ranges=tuple((n, str(r)) for n, r in params.items()) if params else ()))
             if weights is not None:
                 names = extra_variables(trees[0]) | extra_variables(trees[1])
                 stray = sorted(dict(weights).keys() - names)
@@ -351,8 +441,15 @@ def load_entries(paths: list[Path] | list[str]) -> list[Entry]:
 
 
 def select(entries: list[Entry], wanted: list[str]) -> list[Entry]:
-    """Entries whose key, member id or a tag is in ``wanted`` (all when empty)."""
+    """Entries whose key, member id (``andrews-gordon[k=3,i=1]``, or as the tables show it,
+    ``andrews-gordon k=3 i=1``) or a tag is in ``wanted`` (all when empty).
+
+    >>> e = Entry("ag", "t", "1", "1", 5, "s", "-", 1, params=(("k", 3),))
+    >>> [len(select([e], [w])) for w in ("ag", "ag[k=3]", "ag k=3", "ag k=4")]
+    [1, 1, 1, 0]
+    """
     if not wanted:
         return entries
-    w = set(wanted)
-    return [e for e in entries if e.key in w or e.ident in w or w & set(e.tags)]
+    w = {" ".join(x.split()) for x in wanted}
+    return [e for e in entries if e.key in w or e.ident in w or e.label in w
+            or w & set(e.tags)]

@@ -66,7 +66,8 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
     n = order or entry.order
     t0 = time.perf_counter()
     try:
-        r = check(entry.left, entry.right, order=n, method="auto", weights=entry.weight_map)
+        r = check(entry.left, entry.right, order=n, method="auto", weights=entry.weight_map,
+                  definitions=entry.definitions or None)
     except QSeriesError as err:
         return EntryResult(entry.ident, False, False, 0, None, time.perf_counter() - t0,
                            str(err))

@@ -45,6 +45,8 @@ from ..report import (
     no_product_line,
     product_json,
     product_lines,
+    slowest_line,
+    sources_lines,
     trend_csv,
     trend_json,
     verify_json,
@@ -461,9 +463,12 @@ def verify(
         typer.echo(json.dumps(verify_json(results, elapsed,
                                           len(entries) if interrupted else None)))
     else:
+        labels = {e.ident: e.label for e in entries}
         if results:
-            console.print(verify_table(results, {e.ident: e.expect for e in entries}))
+            console.print(verify_table(results, {e.ident: e.expect for e in entries}, labels))
         console.print(verify_summary(results, elapsed, interrupted))
+        if len(results) > 1:
+            console.print(slowest_line(results, 5, labels), markup=False)
     if interrupted:
         typer.echo(f"qseries: interrupted: {len(results)} of {len(entries)} entries finished",
                    err=True)
@@ -474,16 +479,22 @@ def verify(
 @app.command(name="list")
 def list_cmd(
     paths: PathsArgument = None,
+    sources: Annotated[bool, typer.Option(
+        "--sources", help="Print each entry's citation (and note) in full instead of the "
+                          "table.")] = False,
     as_json: JsonOption = False,
 ) -> None:
     """List the identities of the given files (identifier, members, title, source) without
-    running them.
+    running them; a family's identifier shows its parameter ranges.
 
-    Example: qseries list identities
+    Example: qseries list identities --sources
     """
     entries = _load(paths, [])
     if as_json:
         typer.echo(json.dumps(listing_json(entries)))
+        return
+    if sources:
+        typer.echo("\n".join(sources_lines(listing_rows(entries))))
         return
     from rich.console import Console
 

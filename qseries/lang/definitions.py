@@ -37,6 +37,9 @@ from .tokens import Token, tokenize
 
 #: most definitions in one set (each may expand into the others)
 MAX_DEFINITIONS = 200
+#: most nodes of the tree one call expands into (definitions that call each other twice
+#: per level, or arguments used several times, would otherwise grow exponentially)
+MAX_EXPANSION = 20_000
 
 
 @dataclass(frozen=True)
@@ -141,7 +144,30 @@ def substitute(defn: Definition, args: tuple[Node, ...], pos: int) -> Node:
                 changes[f.name] = tuple(walk(x, renamed) for x in v)
         return dataclasses.replace(node, **changes)
 
-    return walk(defn.body, {})
+    result = walk(defn.body, {})
+    if _larger_than(result, MAX_EXPANSION):
+        raise ParseError(f"{defn.name} expands into more than {MAX_EXPANSION} terms of the "
+                         f"notation (definitions that call each other several times, or "
+                         f"nested calls); simplify the definitions", defn.text, 0)
+    return result
+
+
+def _larger_than(node: Node, limit: int) -> bool:
+    """Whether the tree (shared subtrees counted each time) has more than ``limit`` nodes;
+    stops counting there, so the work is at most ``limit`` steps.
+
+    >>> from qseries.lang.parser import parse
+    >>> _larger_than(parse("q + q^2"), 3), _larger_than(parse("q + q^2"), 10)
+    (True, False)
+    """
+    count = 0
+    stack = [node]
+    while stack:
+        count += 1
+        if count > limit:
+            return True
+        stack.extend(children(stack.pop()))
+    return False
 
 
 def _is_param(node: Node, values: Mapping[str, Node]) -> bool:

@@ -33,7 +33,15 @@ from .json_shapes import (
 )
 from .neighbours import neighbour_table
 from .product import no_product_line, product_lines
-from .tables import listing_summary, listing_table, verify_summary, verify_table
+from .tables import (
+    listing_summary,
+    listing_table,
+    row_label,
+    slowest_line,
+    sources_lines,
+    verify_summary,
+    verify_table,
+)
 from .verdict import check_lines, entry_verdict_text, mismatch_report, mismatch_text
 
 __all__ = ["check_json", "check_lines", "decimal_text", "distribution_json",
@@ -42,5 +50,5 @@ __all__ = ["check_json", "check_lines", "decimal_text", "distribution_json",
            "hint_json", "hint_line", "listing_json", "listing_rows", "listing_summary",
            "listing_table", "mismatch_json", "mismatch_report", "mismatch_text",
            "neighbour_table", "no_product_json", "no_product_line", "product_json",
-           "product_lines", "trend_csv", "trend_json", "verify_json", "verify_summary",
-           "verify_table"]
+           "product_lines", "row_label", "slowest_line", "sources_lines", "trend_csv",
+           "trend_json", "verify_json", "verify_summary", "verify_table"]

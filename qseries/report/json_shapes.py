@@ -283,7 +283,9 @@ def verify_json(results: Sequence[EntryOutcome], seconds: float,
 
 def listing_rows(entries: Iterable[ListedEntry]) -> list[dict[str, Any]]:
     """One row per identity key (the members of a family counted together): id, members,
-    title, source, tags, expect and the file:line where it is written.
+    title, source, tags, expect and the file:line where it is written; a family also has
+    ``params``, its parameter ranges (``{"k": "2..5", "i": "1..k"}``), and an entry with a
+    note its ``note``.
 
     >>> from types import SimpleNamespace as Entry
     >>> e = Entry(key="euler", title="Euler", source="from memory", tags=("classic",),
@@ -297,6 +299,11 @@ def listing_rows(entries: Iterable[ListedEntry]) -> list[dict[str, Any]]:
                                       "source": e.source, "tags": list(e.tags),
                                       "expect": e.expect, "file": f"{e.path}:{e.line}"})
         row["members"] += 1
+        ranges = getattr(e, "ranges", ())
+        if ranges:
+            row["params"] = dict(ranges)
+        if getattr(e, "note", ""):
+            row["note"] = e.note
     return list(rows.values())
 
 

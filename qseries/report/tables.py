@@ -20,9 +20,13 @@ if TYPE_CHECKING:
     from .json_shapes import EntryOutcome
 
 
-def verify_table(results: Sequence[EntryOutcome], expects: Mapping[str, str]) -> Table:
+def verify_table(results: Sequence[EntryOutcome], expects: Mapping[str, str],
+                 labels: Mapping[str, str] | None = None) -> Table:
     """The table of ``qseries verify``: identifier, verdict (as recorded or not; ``expects``
     maps an identifier to its entry's ``expect``), order, seconds, first mismatch.
+    ``labels`` maps an identifier to the text shown for it (a family member's parameters
+    spelled out, ``andrews-gordon k=3 i=1``); text is shown as it is, never read as rich
+    markup (``[k=3]`` would vanish).
 
     >>> from types import SimpleNamespace as Outcome
     >>> r = Outcome(ident="x", holds=False, ok=False, order=9, seconds=0.5, error="",
@@ -32,16 +36,40 @@ def verify_table(results: Sequence[EntryOutcome], expects: Mapping[str, str]) ->
     ... # doctest: +NORMALIZE_WHITESPACE
     (['identifier', 'verdict', 'order', 'seconds', 'first mismatch'],
      [['FAILS'], ['9'], ['0.50'], ['q^2: 1 vs 0']])
+    >>> list(verify_table([r], {"x": "holds"}, {"x": "fam k=2"}).columns[0].cells)
+    ['fam k=2']
     """
+    from rich.markup import escape
     from rich.table import Table
 
     table = Table(title=None, show_lines=False)
     for col in ("identifier", "verdict", "order", "seconds", "first mismatch"):
-        table.add_column(col)
+        table.add_column(col, overflow="fold")
     for r in results:
-        table.add_row(r.ident, entry_verdict_text(r, expects[r.ident]),
-                      coefficient_text(r.order), f"{r.seconds:.2f}", mismatch_text(r))
+        shown = labels.get(r.ident, r.ident) if labels else r.ident
+        table.add_row(escape(shown), escape(entry_verdict_text(r, expects[r.ident])),
+                      coefficient_text(r.order), f"{r.seconds:.2f}", escape(mismatch_text(r)))
     return table
+
+
+def slowest_line(results: Sequence[EntryOutcome], count: int = 5,
+                 labels: Mapping[str, str] | None = None) -> str:
+    """The line after the table of ``qseries verify`` naming the ``count`` slowest entries
+    with their seconds (empty when there are none).
+
+    >>> from types import SimpleNamespace as Outcome
+    >>> rs = [Outcome(ident=k, seconds=s) for k, s in [("a", 0.5), ("b", 12.25), ("c", 3.0)]]
+    >>> slowest_line(rs, 2)
+    'slowest: b (12.2 s), c (3.0 s)'
+    >>> slowest_line([])
+    ''
+    """
+    ranked = sorted(results, key=lambda r: r.seconds, reverse=True)[:count]
+    if not ranked:
+        return ""
+    names = [labels.get(r.ident, r.ident) if labels else r.ident for r in ranked]
+    return "slowest: " + ", ".join(f"{n} ({r.seconds:.1f} s)"
+                                   for n, r in zip(names, ranked, strict=True))
 
 
 def verify_summary(results: Sequence[EntryOutcome], seconds: float,
@@ -60,23 +88,53 @@ def verify_summary(results: Sequence[EntryOutcome], seconds: float,
             f"recorded ({seconds:.1f} s); agreement to O(q^N) is evidence, not a proof")
 
 
+def row_label(row: Mapping[str, Any]) -> str:
+    """The identifier of a row of ``qseries list``, with a family's parameter ranges.
+
+    >>> row_label({"id": "andrews-gordon", "params": {"k": "2..5", "i": "1..k"}})
+    'andrews-gordon k=2..5 i=1..k'
+    >>> row_label({"id": "euler"})
+    'euler'
+    """
+    params = row.get("params") or {}
+    return " ".join([row["id"], *(f"{n}={r}" for n, r in params.items())])
+
+
 def listing_table(rows: Sequence[Mapping[str, Any]]) -> Table:
     """The table of ``qseries list`` from :func:`~qseries.report.json_shapes.listing_rows`:
-    identifier, members, title, source.
+    identifier (with a family's parameter ranges), members, title, source.
 
     >>> table = listing_table([{"id": "euler", "members": 1, "title": "Euler",
     ...                         "source": "from memory"}])
     >>> [list(c.cells) for c in table.columns]
     [['euler'], ['1'], ['Euler'], ['from memory']]
     """
+    from rich.markup import escape
     from rich.table import Table
 
     table = Table()
     for col in ("identifier", "members", "title", "source"):
         table.add_column(col, overflow="fold")
     for row in rows:
-        table.add_row(row["id"], str(row["members"]), row["title"], row["source"])
+        table.add_row(escape(row_label(row)), str(row["members"]), escape(row["title"]),
+                      escape(row["source"]))
     return table
+
+
+def sources_lines(rows: Sequence[Mapping[str, Any]]) -> list[str]:
+    """The text of ``qseries list --sources``: each identifier (a family with its parameter
+    ranges) and, indented under it, its citation and its note if it has one.
+
+    >>> sources_lines([{"id": "euler", "source": "L. Euler (1748)", "note": ""}])
+    ['euler', '    L. Euler (1748)']
+    """
+    out: list[str] = []
+    for row in rows:
+        out.append(row_label(row))
+        out.append(f"    {row['source']}")
+        if row.get("note"):
+            out.append(f"    note: {row['note']}")
+    return out
 
 
 def listing_summary(rows: Sequence[Mapping[str, Any]]) -> str:

@@ -1,7 +1,9 @@
 """Hypothesis strategies for property-based tests of identities (needs ``hypothesis``).
 
 * :func:`family_members` draws members of a parametrised catalogue family;
-* :func:`catalogue_entries` draws entries of identity files;
+* :func:`catalogue_entries` draws entries of identity files;  an entry carries the
+  functions its file defines (``entry.definitions``), to be passed on to
+  :func:`qseries.check` or :func:`qseries.testing.assert_identity` with its sides;
 * :func:`q_products` draws random finite products of q-Pochhammer symbols, as text.
 
 >>> from hypothesis import given, settings
@@ -38,13 +40,31 @@ def _paths(paths: object) -> list[Path]:
 
 
 def catalogue_entries(paths: list[Path] | None = None) -> st.SearchStrategy[Entry]:
-    """Entries (family members included) of the given identity files or folders."""
+    """Entries (family members included) of the given identity files or folders; check one
+    with ``assert_identity(e.left, e.right, order, weights=e.weight_map,
+    definitions=e.definitions)``.
+
+    >>> from hypothesis import given, settings
+    >>> from qseries.testing import assert_identity
+    >>> @settings(max_examples=3, deadline=None)
+    ... @given(catalogue_entries())
+    ... def test_low_order(e):
+    ...     if e.expect == "holds":
+    ...         assert_identity(e.left, e.right, 10, weights=e.weight_map,
+    ...                         definitions=e.definitions)
+    >>> test_low_order()
+    """
     entries = load_entries(_paths(paths))
     return st.sampled_from(entries)
 
 
 def family_members(key: str, paths: list[Path] | None = None) -> st.SearchStrategy[Entry]:
-    """Members of the parametrised family ``key`` (e.g. ``"andrews-gordon"``)."""
+    """Members of the parametrised family ``key`` (e.g. ``"andrews-gordon"``).
+
+    >>> from hypothesis import find
+    >>> find(family_members("andrews-gordon"), lambda e: True).label[:16]
+    'andrews-gordon k'
+    """
     typed_argument("key", key, str, "the key of a catalogue family")
     members = [e for e in load_entries(_paths(paths)) if e.key == key]
     if not members:

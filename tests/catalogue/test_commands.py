@@ -156,3 +156,41 @@ def test_ctrl_c_stops_a_parallel_verify(tmp_path, target):
     for w in left:
         os.kill(w, signal.SIGKILL)
     assert not left, "a worker outlived the interrupted run"
+
+
+# -- issue 17: definitions, sources, family members' parameters, the slowest entries --
+
+def test_a_bad_definition_exits_2_with_file_and_line(tmp_path):
+    path = tmp_path / "defs.toml"
+    path.write_text('[definitions]\n"G(q)" = "1/(q;q^5)_inf"\n"K(q)" = "L(q)"\n'
+                    '"L(q)" = "K(q^2)"\n\n' + entry("x", right="G(q)"))
+    for command in (["verify", "-j", "1"], ["list"]):
+        r = runner.invoke(app, [*command, str(path)])
+        assert r.exit_code == 2, (r.output, r.exception)
+        assert r.stderr.startswith(f"qseries: error: {path}:3:"), r.stderr
+        assert "cycle: K -> L -> K" in r.stderr
+
+
+def test_verify_and_list_use_a_files_definitions(tmp_path):
+    path = tmp_path / "defs.toml"
+    path.write_text('[definitions]\n"P(q)" = "(-q;q)_inf"\n"D(q)" = "1/(q;q^2)_inf"\n\n'
+                    + entry("euler-defined", "P(q)", "D(q)")
+                    + entry("fam", "P(q^$m)", "D(q^$m)", extra='params = { m = "1..2" }'))
+    r = runner.invoke(app, ["verify", str(path), "-j", "1"])
+    assert r.exit_code == 0, r.output
+    assert "fam m=2" in r.stdout and "3 of 3 entries behave as recorded" in r.stdout
+    assert "slowest: " in r.stdout
+    r = runner.invoke(app, ["verify", str(path), "--only", "fam m=1", "--json"])
+    assert [x["id"] for x in json.loads(r.stdout)["results"]] == ["fam[m=1]"]
+    r = runner.invoke(app, ["list", str(path)])
+    assert r.exit_code == 0 and "fam m=1..2" in r.stdout
+
+
+def test_list_sources_prints_every_citation():
+    from qseries.catalogue import SHIPPED, load_entries
+    r = runner.invoke(app, ["list", "--sources"])
+    assert r.exit_code == 0, r.output
+    for e in load_entries([SHIPPED]):
+        assert e.source in r.stdout, e.key
+    assert "andrews-gordon k=2..5 i=1..k\n    G. E. Andrews" in r.stdout
+    assert "Somos" in r.stdout and "p. 170" in r.stdout

@@ -217,3 +217,94 @@ def test_errors_live_in_the_error_module():
     assert issubclass(errors.IdentityFileError, errors.QSeriesError)
     assert issubclass(errors.TemplateError, errors.QSeriesError)
     assert errors.TemplateError("x", 3).position == 3
+
+
+# -- a [definitions] table (issue 17) --
+
+DEFINED = '''
+[definitions]
+"G(q)" = "1/((q;q^5)_inf (q^4;q^5)_inf)"
+"H(q)" = "H0(q)"
+"H0(q)" = "1/((q^2;q^5)_inf (q^3;q^5)_inf)"
+
+[[identity]]
+key = "forty-1-4"
+title = "H(q) G(q^11) - q^2 G(q) H(q^11) = 1"
+left = "H(q) G(q^11) - q^2 G(q) H(q^11)"
+right = "1"
+order = 200
+source = "Berndt et al., Mem. AMS 188 (2007), no. 880, (1.4)"
+
+[[identity]]
+key = "rr-family"
+title = "G and H at q^m"
+left = "sum_{k>=0} q^($m k^2)/(q^$m;q^$m)_k"
+right = "G(q^$m)"
+params = { m = "1..3" }
+order = 100
+source = "Rogers-Ramanujan at q -> q^m (from memory)"
+'''
+
+
+def test_definitions_table_is_used_by_entries_and_family_templates(tmp_path):
+    from qseries.catalogue import verify_entry
+    entries = load_entries([write(tmp_path, DEFINED)])
+    assert [e.ident for e in entries] == ["forty-1-4", "rr-family[m=1]", "rr-family[m=2]",
+                                          "rr-family[m=3]"]
+    assert entries[0].definitions[0] == "G(q) = 1/((q;q^5)_inf (q^4;q^5)_inf)"
+    assert all(len(e.definitions) == 3 for e in entries)
+    for e in entries:
+        r = verify_entry(e)
+        assert r.ok and r.holds, e.ident
+
+
+def test_definitions_apply_to_their_own_file_only(tmp_path):
+    write(tmp_path, DEFINED, "a.toml")
+    write(tmp_path, GOOD.replace('right = "1/(q;q^2)_inf"', 'right = "1/G(q)"'), "b.toml")
+    with pytest.raises(IdentityFileError) as info:
+        load_entries([tmp_path])
+    assert str(info.value).startswith(f"{tmp_path / 'b.toml'}:6:")
+    assert "unknown function 'G'" in str(info.value)
+
+
+@pytest.mark.parametrize("mutation, line, message", [
+    (('"H(q)" = "H0(q)"', '"H(q)" = "H0(q)"\n"K(q)" = "L(q)"\n"L(q)" = "K(q^2)"'), 5,
+     "cycle: K -> L -> K"),
+    (('"H(q)" = "H0(q)"', '"H[q]" = "H0(q)"'), 4, "a definition reads NAME(q) = EXPRESSION"),
+    (('"H(q)" = "H0(q)"', '"H(q)" = "J0(q)"'), 4, "unknown function 'J0'"),
+    (('"H(q)" = "H0(q)"', '"H(q)" = "H0(q"'), 4, "expected ')'"),
+    (('"H(q)" = "H0(q)"', '"phi(q)" = "H0(q)"'), 4, "already a name of the notation"),
+    (('"H(q)" = "H0(q)"', '"H(q)" = 5'), 4, "must be a non-empty string"),
+    (('"H(q)" = "H0(q)"', '"H(q, q)" = "H0(q)"'), 4, "appears twice"),
+    (('"H(q)" = "H0(q)"', '"H(q)" = "H0(q)"\n"A0(q)" = "1/(1-q)"\n'
+      + "\n".join(f'"A{k}(q)" = "A{k - 1}(q) A{k - 1}(q)"' for k in range(1, 40))), 17,
+     "expands into more than"),
+])
+def test_bad_definitions_name_file_and_line(tmp_path, mutation, line, message):
+    old, new = mutation
+    assert old in DEFINED
+    path = write(tmp_path, DEFINED.replace(old, new, 1))
+    with deadline(20):
+        with pytest.raises(IdentityFileError) as info:
+            load_entries([path])
+    text = str(info.value)
+    assert text.startswith(f"{path}:{line}:"), text
+    assert message in text, text
+
+
+def test_definitions_must_be_a_table(tmp_path):
+    path = write(tmp_path, 'definitions = ["G(q) = 1"]\n' + GOOD)
+    with pytest.raises(IdentityFileError, match=r":1: definitions must be a table"):
+        load_entries([path])
+    # an inline table is a table; its errors point at its line
+    path = write(tmp_path, '# functions\ndefinitions = { "G(q)" = "1/(1-q" }\n' + GOOD)
+    with pytest.raises(IdentityFileError, match=r"f.toml:2: bad definition: expected"):
+        load_entries([path])
+
+
+def test_a_field_after_the_definitions_table_is_not_an_entry_field(tmp_path):
+    # [definitions] after the entries: its lines are not taken for the last entry's fields
+    text = GOOD.replace('"1/(q^$c;q)_inf"', '"1/(q^$c;q)_inf * F(q)/F(q)"') + \
+        '\n[definitions]\n"F(q)" = "(q;q)_inf"\n'
+    entries = load_entries([write(tmp_path, text)])
+    assert entries[-1].definitions == ("F(q) = (q;q)_inf",)

@@ -113,3 +113,29 @@ def test_an_inconclusive_entry_is_not_ok(expect, fails_at):
               "-", 1, expect=expect, fails_at=fails_at)
     r = verify_entry(e)
     assert r.holds is None and r.ok is False
+
+
+def test_every_entry_names_its_source():
+    assert ENTRIES
+    for e in ENTRIES:
+        assert e.source.strip(), e.ident
+        assert len(e.source.strip()) >= 10, e.ident     # a citation, not a placeholder
+
+
+def test_the_misprint_and_its_correction_are_recorded_together():
+    # Berndt, Ramanujan's Notebooks IV, ch. 25, Entry 27 (27.1), p. 170; Somos' note
+    by_key = {e.key: e for e in ENTRIES}
+    printed, corrected = by_key["berndt-iv-25-27-1-printed"], by_key["berndt-iv-25-27-1"]
+    assert printed.expect == "fails" and printed.fails_at == 4
+    assert corrected.corrects == printed.key and corrected.expect == "holds"
+    assert corrected.order >= 2000
+    r = verify_entry(printed)
+    assert r.ok and r.first_mismatch == {"index": 4, "lhs": "2", "rhs": "4"}
+    assert "4 q^4 f(-q^6)^2 f(-q^42)^2" in corrected.left
+    assert corrected.left.replace(" + 4 q^4 f(-q^6)^2 f(-q^42)^2", "") == printed.left
+
+
+def test_forty_identities_use_the_files_definitions():
+    forty = [e for e in ENTRIES if "forty-identities" in e.tags]
+    assert {"forty-1-3", "forty-1-4"} <= {e.key for e in forty}
+    assert all(any(d.startswith("G(q) = ") for d in e.definitions) for e in forty)

@@ -176,3 +176,12 @@ def test_listing_counts_family_members_once_per_key():
         {"id": "one", "members": 1, "title": "O", "source": "src2", "tags": ["t"],
          "expect": "holds", "file": "g.toml:1"}]
     assert listing_json([single]) == {"identities": rows[1:]}
+
+
+def test_listing_rows_carry_a_familys_ranges_and_a_note():
+    members = [Entry("fam", "F", "q", "q", 10, "src", "f.toml", 3, params=(("k", k),),
+                     ranges=(("k", "0..2"),)) for k in range(3)]
+    noted = Entry("one", "O", "q", "q", 10, "src2", "g.toml", 1, note="a misprint")
+    rows = listing_rows(members + [noted])
+    assert rows[0]["params"] == {"k": "0..2"} and "note" not in rows[0]
+    assert rows[1]["note"] == "a misprint" and "params" not in rows[1]

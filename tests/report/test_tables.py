@@ -46,3 +46,31 @@ def test_summary_lines():
         "1 of 1 finished entries behave as recorded")
     assert listing_summary([{"members": 3}, {"members": 1}]) == \
         "2 entries, 4 identities counting family members"
+
+
+def test_brackets_are_shown_not_read_as_markup():
+    # a family member's id has brackets, which rich would take for markup and drop
+    r = SimpleNamespace(ident="ag[k=3,i=1]", holds=True, ok=True, order=30, seconds=0.1,
+                        error="", first_mismatch=None)
+    assert "ag[k=3,i=1]" in _text(verify_table([r], {"ag[k=3,i=1]": "holds"}))
+    assert "ag k=3 i=1" in _text(verify_table([r], {"ag[k=3,i=1]": "holds"},
+                                              {"ag[k=3,i=1]": "ag k=3 i=1"}))
+    row = {"id": "fam", "members": 2, "title": "[sic]", "source": "[Slater 1952]",
+           "params": {"k": "1..2"}}
+    text = _text(listing_table([row]))
+    assert "fam k=1..2" in text and "[sic]" in text and "[Slater 1952]" in text
+
+
+def test_slowest_entries_line():
+    from qseries.report import slowest_line
+    rs = [SimpleNamespace(ident=f"e{i}", seconds=float(i)) for i in range(8)]
+    assert slowest_line(rs, 3) == "slowest: e7 (7.0 s), e6 (6.0 s), e5 (5.0 s)"
+    assert slowest_line(rs[:1], 3, {"e0": "zero"}) == "slowest: zero (0.0 s)"
+
+
+def test_sources_lines_show_ranges_and_notes():
+    from qseries.report import sources_lines
+    rows = [{"id": "fam", "source": "S", "params": {"k": "2..5", "i": "1..k"}},
+            {"id": "bad", "source": "B", "note": "misprint"}]
+    assert sources_lines(rows) == ["fam k=2..5 i=1..k", "    S", "bad", "    B",
+                                   "    note: misprint"]

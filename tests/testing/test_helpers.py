@@ -1,6 +1,7 @@
 """The user-facing test helpers: assert_identity and the hypothesis strategies."""
 
 import re
+from fractions import Fraction
 
 import pytest
 from hypothesis import given, settings
@@ -48,8 +49,11 @@ def test_andrews_gordon_members_hold(entry):
 @settings(max_examples=10, deadline=None)
 @given(catalogue_entries())
 def test_random_catalogue_entries_hold_at_low_order(entry):
+    if entry.expect == "fails" and entry.fails_at is not None \
+            and float(Fraction(str(entry.fails_at))) < min(40, entry.order):
+        return                     # a printed form recorded as wrong
     assert_identity(entry.left, entry.right, order=min(40, entry.order),
-                    weights=entry.weight_map)
+                    weights=entry.weight_map, definitions=entry.definitions)
 
 
 @settings(max_examples=20, deadline=None)
