@@ -2,6 +2,7 @@
 source tree, install it into a fresh virtual environment, and run `list`, `verify` and the
 hypothesis strategies from another folder (issue 12, section 3)."""
 
+import os
 import shutil
 import subprocess
 import sys
@@ -15,9 +16,15 @@ import qseries
 ROOT = Path(qseries.__file__).resolve().parent.parent
 
 
+#: the environment of the subprocesses, without PYTHONPATH: a PYTHONPATH pointing at a checkout
+#: (as when the suite runs from a worktree with PYTHONPATH=$PWD) would shadow the installed
+#: wheel, and the test would check the checkout instead
+ENV = {k: v for k, v in os.environ.items() if k != "PYTHONPATH"}
+
+
 def _run(args: list, cwd: Path, timeout: float = 120) -> subprocess.CompletedProcess:
     r = subprocess.run([str(a) for a in args], cwd=cwd, capture_output=True, text=True,
-                       timeout=timeout)
+                       timeout=timeout, env=ENV)
     assert r.returncode == 0, f"{args}\n{r.stdout}\n{r.stderr}"
     return r
 
