@@ -5,7 +5,7 @@ from fractions import Fraction
 import pytest
 
 from qseries.engine import Evaluator, evaluate
-from qseries.errors import DomainError, QSeriesError, UnableError
+from qseries.errors import DomainError, UnableError
 from qseries.lang import parse
 from qseries.series import QQ, ZZ, Series
 
@@ -106,13 +106,27 @@ def test_division_by_zero(text):
         evaluate(text, 10)
 
 
-@pytest.mark.parametrize("text", [
-    "2^q", "2^(1/2)", "(1+q)^(1/2)", "(q;q)_(1/2)", "(q;q^0)_inf", "(q;-q)_inf",
-    "(q;2q)_inf", "theta3(2)", "eta(1+q)", "gaussian(q, 2)", "gaussian(1/2, 1)",
-    "2^(10^9)", "10^(10^7)", "q^(-10^8) (q;q)_inf", "sum_{k=0}^{10^9} 1",
+# errors.py: DomainError for what has no meaning, UnableError for what is too large or not
+# supported (an irrational number, a non-integer power of a series)
+@pytest.mark.parametrize("text, error, message", [
+    ("2^q", DomainError, "must be a number here"),
+    ("2^(1/2)", UnableError, "not rational"),
+    ("(1+q)^(1/2)", UnableError, "only integer powers"),
+    ("(q;q)_(1/2)", DomainError, "must be an integer"),
+    ("(q;q^0)_inf", DomainError, "base of the q-Pochhammer symbol"),
+    ("(q;-q)_inf", DomainError, "base of the q-Pochhammer symbol"),
+    ("(q;2q)_inf", DomainError, "base of the q-Pochhammer symbol"),
+    ("theta3(2)", DomainError, "takes a power q\\^d"),
+    ("eta(1+q)", DomainError, "takes a power q\\^d"),
+    ("gaussian(q, 2)", DomainError, "integer arguments"),
+    ("gaussian(1/2, 1)", DomainError, "integer arguments"),
+    ("2^(10^9)", UnableError, "too large"),
+    ("10^(10^7)", UnableError, "too large"),
+    ("q^(-10^8) (q;q)_inf", UnableError, "working order of 100000010, beyond the limit"),
+    ("sum_{k=0}^{10^9} 1", UnableError, "1000000001 terms"),
 ])
-def test_other_bad_input_is_a_clear_error(text):
-    with pytest.raises(QSeriesError):
+def test_other_bad_input_is_a_clear_error(text, error, message):
+    with pytest.raises(error, match=message):
         evaluate(text, 10)
 
 
@@ -134,7 +148,7 @@ def test_nested_infinite_sums_terminate_through_their_inner_bodies():
 
 
 def test_nested_sums_whose_inner_terms_do_not_grow_are_refused():
-    with pytest.raises(QSeriesError):
+    with pytest.raises(UnableError, match="cannot show that sum_{a>=0} converges"):
         evaluate("sum_{a>=0} sum_{b>=0} q^(a - b)", 10)
 
 

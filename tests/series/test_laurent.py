@@ -8,7 +8,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from qseries._flint import QQ, ZZ, join_rings, laurent_ring
-from qseries.errors import DomainError
+from qseries.errors import DomainError, IncompatibleRingError
 from qseries.series import Series
 
 R = laurent_ring(("a", "z"))
@@ -69,7 +69,7 @@ def test_series_over_laurent_coefficients():
 def test_joining_rings():
     assert join_rings(R, ZZ) == R
     assert join_rings(R, QQ) == laurent_ring(("a", "z"), rational=True)
-    with pytest.raises(Exception, match="cannot combine"):
+    with pytest.raises(IncompatibleRingError, match="cannot combine"):
         join_rings(R, laurent_ring(("z",)))
 
 
