@@ -9,8 +9,7 @@ from fractions import Fraction
 import pytest
 
 from qseries import check, evaluate
-from qseries.errors import QSeriesError, UnableError
-
+from qseries.errors import UnableError
 
 N = 50
 
@@ -289,12 +288,13 @@ def test_modular_recompute_uses_both_sides_variables():
 
 def test_library_arguments_are_validated():
     from qseries.analysis import distributions
-    from qseries.errors import QSeriesError
+    from qseries.errors import ArgumentError, ArgumentTypeError
     for sizes in ([1.0], ["1"], [True]):
-        with pytest.raises(QSeriesError, match="integers"):
+        with pytest.raises(ArgumentTypeError, match="sizes must be integers"):
             distributions("1/(z q;q)_inf", "z", sizes)
-    for weights in ({"z": "1"}, {"z": -1}, {"z": 1.5}, {"a": 1}):
-        with pytest.raises(QSeriesError, match="weight"):
+    for weights, error in (({"z": "1"}, ArgumentTypeError), ({"z": -1}, ArgumentError),
+                           ({"z": 1.5}, ArgumentTypeError), ({"a": 1}, ArgumentError)):
+        with pytest.raises(error, match="weight"):
             evaluate("1/(1 - z)", 3, None, weights)
 
 
