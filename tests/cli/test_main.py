@@ -326,13 +326,36 @@ def test_every_command_with_an_order_estimates_and_allow_long_skips_it(monkeypat
     assert r.exit_code in (0, 1) and asked == []
 
 
-def test_the_product_estimate_includes_the_recovery_of_the_exponents():
+def test_the_product_estimate_includes_the_recovery_of_the_exponents(monkeypatch):
     # (q;q)_inf itself is cheap at order 10^7 (Euler's pentagonal numbers), but recovering
     # its exponents means the log-derivative of a series with coefficients of thousands of
-    # digits: the estimate must time that work too, not only the evaluation
-    r = run("product", "-n", "9999999", "(q;q)_inf")
+    # digits: the estimate must time that work too, not only the evaluation.  On the real
+    # clock the growth exponent fitted to two probes of a fraction of a second is noise: on a
+    # loaded machine the estimate ranged from 27 minutes to 11 days, and below 10 minutes the
+    # run starts (it grew past 18 GB).  So the clock is faked here: only the recovery of the
+    # exponents (the product form) takes time, quadratic in the order; if the probes did not
+    # time it, the estimate would be 0 s and 81 MB, and the command would go on.
+    import qseries.cli.main as cli
+    from qseries.engine import cost
+
+    from ..catalogue.limits import deadline, memory_cap
+
+    clock = [0.0]
+    recovered = []
+
+    def recovery(series, order=None):
+        n = series.precision
+        recovered.append(n)
+        clock[0] += 0.1 * (n / 1024) ** 2
+        assert n <= 9999999 // 4, "the run was not refused"
+
+    monkeypatch.setattr(cost.time, "perf_counter", lambda: clock[0])
+    monkeypatch.setattr(cli, "product_form", recovery)
+    with deadline(60), memory_cap(2 << 30):
+        r = run("product", "-n", "9999999", "(q;q)_inf")
     assert r.exit_code == 2, r.output
     assert "would take about" in r.output and "--allow-long" in r.output
+    assert recovered and max(recovered) <= 9999999 // 4     # probes only
 
 
 def test_the_distribution_refusal_names_the_options_that_set_the_sizes(monkeypatch):
