@@ -21,12 +21,18 @@ def run(*args: str):
 
 
 def test_expand_human_output():
+    # the partition numbers p(0) .. p(7), from FLINT's partitions_p
+    from qseries._flint import partitions_p
     r = run("expand", "1/(q;q)_inf", "--order", "8")
     assert r.exit_code == 0
+    assert [partitions_p(n) for n in range(8)] == [1, 1, 2, 3, 5, 7, 11, 15]
     assert r.stdout.strip() == "1 + q + 2q^2 + 3q^3 + 5q^4 + 7q^5 + 11q^6 + 15q^7 + O(q^8)"
 
 
 def test_expand_json():
+    # Euler's pentagonal number theorem: (q;q)_inf = sum (-1)^k q^(k(3k-1)/2), k = 0, 1, -1, 2,
+    # -2 giving q^0, q^1, q^2, q^5, q^7 below q^8; eta(q) = q^(1/24) (q;q)_inf by definition;
+    # 1/(2-q) = sum q^k/2^(k+1)
     r = run("expand", "(q;q)_inf", "-n", "8", "--json")
     data = json.loads(r.stdout)
     assert data == {"order": 8, "terms": [[0, "1"], [1, "-1"], [2, "-1"], [5, "1"], [7, "1"]]}
@@ -207,6 +213,8 @@ def test_list_shows_identifiers_and_sources():
 
 
 def test_product_command():
+    # the first Rogers-Ramanujan identity (Andrews 1976, ch. 7): exponent -1 at n = 1, 4 mod 5,
+    # for the 199 factors 1 - q^n, n < 200
     r = run("product", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "200", "--json")
     assert r.exit_code == 0
     data = json.loads(r.stdout)
@@ -237,15 +245,25 @@ def test_check_modular_method_json():
 
 
 def test_expand_prints_polynomial_coefficients():
+    import sympy
+    q, z = sympy.symbols("q z")
     r = run("expand", "(z q, q/z, q;q)_inf", "-n", "4", "--json")
     assert r.exit_code == 0
     assert json.loads(r.stdout)["terms"] == [[0, "1"], [1, "-z - 1 - z^-1"],
                                              [3, "z^2 + z + 1 + z^-1 + z^-2"]]
+    # sympy's expansion of the factors j = 1, 2, 3 (the others are 1 + O(q^4))
+    ref = sympy.expand(sympy.prod([(1 - z * q**j) * (1 - q**j / z) * (1 - q**j)
+                                   for j in range(1, 4)]))
+    assert [ref.coeff(q, e) for e in range(4)] == [1, -z - 1 - 1 / z, 0,
+                                                   z**2 + z + 1 + 1 / z + z**-2]
     r = run("expand", "1/(1-z)", "-n", "3", "--weight", "z=1")
     assert r.stdout.strip() == "1 + z*q + z^2*q^2 + O(q^3)"
 
 
 def test_check_with_extra_variables_reports_variables_and_weights():
+    # Euler: sum z^k/(q;q)_k = 1/(z;q)_inf (Andrews 1976, Cor. 2.2, from memory); against
+    # 1/(z q;q)_inf the k = 1 term z/(1-q) gives z at q^0, weighted degree 1, where
+    # 1/(z q;q)_inf has nothing (its z comes with q)
     r = run("check", "sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", "-n", "30", "--json")
     data = json.loads(r.stdout)
     assert r.exit_code == 0 and data["variables"] == ["z"] and data["weights"] == [1]
@@ -263,6 +281,8 @@ def test_bad_weights_exit_2(weight):
 
 
 def test_distribution_command(tmp_path):
+    # by hand: of the 5 partitions of 4, 4, 31, 211, 1111 have a Durfee square of side 1 and
+    # 22 one of side 2 (mean 6/5, variance 4/25); of 2: 2 and 11, both side 1
     durfee = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"
     r = run("distribution", durfee, "--at", "4")
     assert r.exit_code == 0

@@ -39,6 +39,7 @@ def test_nested_sums_with_outer_variable_in_the_inner_range():
 
 def test_products():
     assert evaluate("prod_{n>=1} (1-q^n)", 40) == evaluate("(q;q)_inf", 40)
+    # (1-q)(1-q^2)(1-q^3) = 1 - q - q^2 + q^4 + q^5 - q^6, multiplied out by hand
     assert coeffs("prod_{n=1}^{3} (1-q^n)", 8) == [1, -1, -1, 0, 1, 1, -1, 0]
     assert evaluate("prod_{n>=1} (1-q^n)^-1", 60) == evaluate("1/(q;q)_inf", 60)
     assert evaluate("prod_{n>=1} (1+q^(2n-1))/(1-q^(2n))", 50) == \

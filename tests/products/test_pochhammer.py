@@ -91,10 +91,15 @@ def test_long_products_as_the_exponential_of_their_logarithm(c, e, t):
 
 
 def test_euler_log_counts_divisors_in_the_progression():
-    # k [q^k] log (q;q^2)_inf = -(sum of the odd divisors of k); from the definition
+    # k [q^k] log (q;q^2)_inf = -(sum of the odd divisors of k): log(1 - q^x) = -sum_m q^(mx)/m
+    n = 60
+    assert euler_log(1, 1, 2, n) == [0] + [-sum(d for d in range(1, k + 1, 2) if k % d == 0)
+                                           for k in range(1, n)]
     assert euler_log(1, 1, 2, 13) == [0, -1, -1, -4, -1, -6, -4, -8, -1, -13, -6, -12, -4]
-    # (-q;q)_inf: log(1 + q^x) = sum_m (-1)^(m+1) q^(mx)/m
-    assert euler_log(-1, 1, 1, 5) == [0, 1, 1, 4, 1]
+    # (-q;q)_inf: log(1 + q^x) = sum_m (-1)^(m+1) q^(mx)/m, so k [q^k] = sum over d | k of
+    # d (-1)^(k/d + 1)
+    assert euler_log(-1, 1, 1, n) == [0] + [sum(d * (-1) ** (k // d + 1) for d in range(1, k + 1)
+                                                if k % d == 0) for k in range(1, n)]
 
 
 def test_minus_one_modulo_p_takes_the_fast_paths(monkeypatch):

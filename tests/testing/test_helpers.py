@@ -15,7 +15,8 @@ def test_assert_identity_passes_and_fails_readably():
     with pytest.raises(AssertionError) as info:
         assert_identity("1/(q;q)_inf", "1/(q;q)_inf + q^30", order=40)
     text = str(info.value)
-    assert "first at q^30" in text and "exponent" in text and "5604" in text  # p(30) = 5604
+    from qseries._flint import partitions_p
+    assert "first at q^30" in text and "exponent" in text and str(partitions_p(30)) in text
 
 
 def test_assert_identity_refuses_reduced_precision():
