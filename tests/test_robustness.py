@@ -163,18 +163,41 @@ def test_long_sums_of_terms_round_trip():
 
 
 def test_huge_coefficients_print():
+    # coefficients beyond Python's 4300-digit limit of int <-> str: 2^(20 k) for k >= 715
+    # (the same at 1/(1-2q) to order 15000 printed 34 MB in 2 s)
+    import json
+
     from typer.testing import CliRunner
 
     from qseries.cli.main import app
-    r = CliRunner().invoke(app, ["expand", "1/(1-2q)", "-n", "15000", "--json"])
-    assert r.exit_code == 0 and len(r.stdout) > 15000 * 100
+    for extra in (["--json"], []):
+        r = CliRunner().invoke(app, ["expand", "1/(1-2^20 q)", "-n", "800", *extra])
+        assert r.exit_code == 0, r.output
+    terms = json.loads(CliRunner().invoke(app, ["expand", "1/(1-2^20 q)", "-n", "800",
+                                                "--json"]).stdout)["terms"]
+    assert len(terms) == 800 and len(terms[-1][1]) > 4300
+    limit = sys.get_int_max_str_digits()
+    sys.set_int_max_str_digits(0)
+    try:
+        assert [int(c) for _, c in terms] == [2 ** (20 * k) for k in range(800)]
+    finally:
+        sys.set_int_max_str_digits(limit)
 
 
 @pytest.mark.parametrize("text", ["q²", "①", "q^²"])
 def test_non_ascii_digits_are_parse_errors(text):
-    r = subprocess.run([sys.executable, "-m", "qseries", "expand", text], capture_output=True,
+    from typer.testing import CliRunner
+
+    from qseries.cli.main import app
+    r = CliRunner().invoke(app, ["expand", text])
+    assert r.exit_code == 2 and "Traceback" not in r.output and "column" in r.stderr
+
+
+def test_a_non_ascii_digit_in_a_fresh_process():
+    # the caret line under a non-ASCII character, printed by a real process to its stderr
+    r = subprocess.run([sys.executable, "-m", "qseries", "expand", "q²"], capture_output=True,
                        text=True)
-    assert r.returncode == 2 and "Traceback" not in r.stderr
+    assert r.returncode == 2 and "Traceback" not in r.stderr and "column" in r.stderr
 
 
 def test_large_coefficients_print_quickly():
