@@ -43,7 +43,9 @@ def test_mismatch_report_says_why_fewer_coefficients_were_compared():
 @settings(max_examples=10, deadline=None)
 @given(family_members("andrews-gordon"))
 def test_andrews_gordon_members_hold(entry):
-    assert_identity(entry.left, entry.right, order=60)
+    # every member is verified at its recorded order by tests/catalogue/test_verify.py; here
+    # the strategy is exercised, at half that order (order 60 took twice as long)
+    assert_identity(entry.left, entry.right, order=30)
 
 
 @settings(max_examples=10, deadline=None)
