@@ -15,8 +15,10 @@ settings.load_profile("ci" if os.environ.get("CI") else "dev")
 # (about 9 ms, some 500 times in this suite): build it once per app.  The command is stateless
 # (each invoke makes a new click context, and the command functions read the module globals
 # that tests monkeypatch at call time).
+# (typer.testing holds typer.main.get_command as _get_command, as in typer 0.28; a typer
+# without that name keeps its own runner)
 _built_commands: dict[int, tuple] = {}
-_build_command = typer.testing._get_command
+_build_command = getattr(typer.testing, "_get_command", None)
 
 
 def _cached_command(app):
@@ -26,4 +28,5 @@ def _cached_command(app):
     return _built_commands[key][1]
 
 
-typer.testing._get_command = _cached_command
+if _build_command is not None:
+    typer.testing._get_command = _cached_command
