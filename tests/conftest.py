@@ -1,4 +1,10 @@
-"""Shared test settings: hypothesis profiles (more examples in CI)."""
+"""Shared test settings: hypothesis profiles (more examples in CI).
+
+The profile "ci" (200 examples per property) is loaded when the environment variable CI is set
+to anything non-empty, "dev" (60) otherwise; tests/test_differential.py follows the same
+variable (300 evaluations and 200 checks, or 100 and 66).  `.ci/run` does not set CI itself:
+the CI service must (most set CI=true), or run `CI=1 .ci/run`.
+"""
 
 import os
 
