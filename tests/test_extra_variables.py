@@ -170,14 +170,25 @@ def test_modular_method_weights_variables_as_the_exact_method_does():
     assert r.holds and r.weights == (1, 1)
 
 
-def test_verify_picks_the_modular_method_at_high_order():
+def test_verify_picks_the_modular_method_at_high_order(monkeypatch):
+    from qseries.analysis import compare
     from qseries.catalogue.files import load_entries
     from qseries.catalogue.verify import verify_entry
     from qseries.engine.chooser import AUTO_MODULAR_ORDER_EXTRA
-    entry = next(e for e in load_entries(["identities"]) if e.ident == "heine-first")
-    # just above the threshold (400): modular, weights 1.  The exact method fails here (at
-    # order 400, after 5 s: the weighted series has 4 million terms in a, b, c, z, beyond
-    # the limit), so an ok verdict shows that the modular one was taken
+    # just above the threshold (400) an entry with extra variables goes modular, with the
+    # weights the exact method would take (1 for a and z in the q-binomial theorem); a spy
+    # on the modular check says so (the heine-first entry made the same point in 1-2 s)
+    used = []
+    real = compare._check_modular
+
+    def spy(*args):
+        used.append(args[-1])
+        return real(*args)
+
+    monkeypatch.setattr(compare, "_check_modular", spy)
+    entry = next(e for e in load_entries(["identities"]) if e.ident == "q-binomial-theorem-z")
     n = AUTO_MODULAR_ORDER_EXTRA + 1
     result = verify_entry(entry, order=n)
     assert result.ok and result.order == n, result.error
+    assert used == [{"a": 1, "z": 1}]
+    # (at 400 and below, auto is exact: test_auto_method_goes_modular_early_with_extra_variables)
