@@ -11,8 +11,9 @@ pinned cases of the issue, which must evaluate.
 The expected values come from the reference only; the pinned examples are the inputs of
 issue 11 (found by a fuzzing campaign), where qseries marked a cut sum or product exact, and
 the minimal forms of what this test found.  Hypothesis runs the generated examples only once
-every @example passes.  QSERIES_DIFFERENTIAL_EXAMPLES sets how many (300 evaluations and 200
-checks by default, always the same ones).
+every @example passes.  QSERIES_DIFFERENTIAL_EXAMPLES sets how many: 300 evaluations and 200
+checks when CI is set (as the hypothesis profile "ci" in conftest.py), 100 and 66 otherwise,
+always the same ones.
 """
 
 from __future__ import annotations
@@ -48,8 +49,10 @@ from .reference.expressions import (
 )
 from .reference.judge import judge_check, judge_value
 
-#: a few hundred examples per run, always the same ones (derandomize): CI stays deterministic
-EXAMPLES = int(os.environ.get("QSERIES_DIFFERENTIAL_EXAMPLES", "300"))
+#: a few hundred examples per run in CI, a hundred otherwise, always the same ones
+#: (derandomize): CI stays deterministic
+EXAMPLES = int(os.environ.get("QSERIES_DIFFERENTIAL_EXAMPLES",
+                              "300" if os.environ.get("CI") else "100"))
 CHECK_EXAMPLES = max(1, 2 * EXAMPLES // 3)
 SETTINGS = settings(max_examples=EXAMPLES, derandomize=True, deadline=None, database=None,
                     suppress_health_check=[HealthCheck.too_slow, HealthCheck.filter_too_much,

@@ -5,7 +5,7 @@ from fractions import Fraction
 import pytest
 
 from qseries import check
-from qseries.errors import QSeriesError
+from qseries.errors import ArgumentError, ArgumentTypeError
 
 RR1_SUM = "sum_{k>=0} q^(k^2)/(q;q)_k"
 RR1_PRODUCT = "1/((q;q^5)_inf (q^4;q^5)_inf)"
@@ -77,9 +77,10 @@ def test_verdict_is_honest():
     assert "evidence, not a proof" in r.verdict
 
 
-@pytest.mark.parametrize("order", [0, -3, True, 2.5])
-def test_bad_orders(order):
-    with pytest.raises(QSeriesError):
+@pytest.mark.parametrize("order, error", [(0, ArgumentError), (-3, ArgumentError),
+                                          (True, ArgumentTypeError), (2.5, ArgumentTypeError)])
+def test_bad_orders(order, error):
+    with pytest.raises(error, match="order must be an integer"):
         check("q", "q", order=order)
 
 

@@ -12,7 +12,7 @@ def test_rogers_ramanujan_sum_sides_give_their_products():
     pf = product_form("sum_{k>=0} q^(k^2)/(q;q)_k", 300)
     assert pf.period == 5 and pf.exponents[:5] == [-1, 0, 0, -1, 0]
     assert pf.expression == "(q, q^4;q^5)_inf^-1"
-    assert pf.repetitions == 59
+    assert pf.repetitions == 299 // 5      # whole periods among the exponents of n = 1 .. 299
     pf2 = product_form("sum_{k>=0} q^(k^2+k)/(q;q)_k", 300)
     assert pf2.expression == "(q^2, q^3;q^5)_inf^-1"
 
@@ -66,5 +66,19 @@ def test_series_without_such_a_product_form():
 def test_helpers():
     # Moebius function, OEIS A008683 (from memory): 1, -1, -1, 0, -1, 1, -1, 0, 0, 1
     assert mobius_table(11)[1:] == [1, -1, -1, 0, -1, 1, -1, 0, 0, 1]
-    assert find_period([0, 1, 0, 1, 0]) is None or find_period([0, 1, 0, 1, 0]) == 2
+    # period 2 is seen 5/2 times here: fewer than the 3 repetitions asked by default
+    assert find_period([0, 1, 0, 1, 0]) is None
+    assert find_period([0, 1, 0, 1, 0], min_repetitions=2) == 2
+    assert find_period([0, 1] * 3) == 2 and find_period([7] * 3) == 1
     assert find_period([1, 2, 3, 4]) is None
+
+
+def test_find_period_against_the_definition():
+    # every 0/1 sequence of length 6 to 9: the least m with e_(n+m) = e_n wherever both are
+    # known, among the m seen at least 3 times (m <= n/3)
+    from itertools import product
+    for n in range(6, 10):
+        for ex in product((0, 1), repeat=n):
+            periods = [m for m in range(1, n // 3 + 1)
+                       if all(ex[i] == ex[i % m] for i in range(n))]
+            assert find_period(list(ex)) == (periods[0] if periods else None), ex

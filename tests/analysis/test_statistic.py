@@ -36,9 +36,22 @@ def test_durfee_mean_over_sqrt_n_moves_towards_the_published_constant():
     assert all(g > 0 for g in gaps)
     assert all(b < a for a, b in zip(gaps, gaps[1:], strict=False))
     assert gaps[-1] < 0.004
-    # the guide's check value: E - c sqrt(n) stays near 0.09 for these n
-    d = distributions(DURFEE, "z", [800])[0]
-    assert 0.08 < float(d.mean) - DURFEE_CONSTANT * math.sqrt(800) < 0.1
+    # the mean at n = 800 itself, from an independent count: a partition with Durfee square
+    # k is the k x k square, a partition into at most k parts below it and one into parts at
+    # most k beside it, so there are sum_{a+b=n-k^2} p_k(a) p_k(b) of them (p_k: parts <= k)
+    n = 800
+    parts_at_most = [[1] + [0] * n]
+    for k in range(1, 29):
+        row = list(parts_at_most[-1])
+        for i in range(k, n + 1):
+            row[i] += row[i - k]
+        parts_at_most.append(row)
+    counts = {k: sum(parts_at_most[k][a] * parts_at_most[k][n - k * k - a]
+                     for a in range(n - k * k + 1)) for k in range(1, 29) if k * k <= n}
+    assert sum(counts.values()) == partitions_p(n)
+    d = distributions(DURFEE, "z", [n])[0]
+    assert d.counts == counts
+    assert d.mean == Fraction(sum(k * c for k, c in counts.items()), partitions_p(n))
 
 
 def test_durfee_standardised_moments_approach_the_normal_ones():

@@ -16,11 +16,15 @@ import qseries
 ROOT = Path(qseries.__file__).resolve().parent.parent
 
 
+#: the environment of the subprocesses, without PYTHONPATH: a PYTHONPATH pointing at a checkout
+#: (as when the suite runs from a worktree with PYTHONPATH=$PWD) would shadow the installed
+#: wheel, and the test would check the checkout instead
+ENV = {k: v for k, v in os.environ.items() if k != "PYTHONPATH"}
+
+
 def _run(args: list, cwd: Path, timeout: float = 120) -> subprocess.CompletedProcess:
-    # without PYTHONPATH: a checkout on it (PYTHONPATH=$PWD pytest) would shadow the wheel
-    env = {k: v for k, v in os.environ.items() if k != "PYTHONPATH"}
     r = subprocess.run([str(a) for a in args], cwd=cwd, capture_output=True, text=True,
-                       timeout=timeout, env=env)
+                       timeout=timeout, env=ENV)
     assert r.returncode == 0, f"{args}\n{r.stdout}\n{r.stderr}"
     return r
 

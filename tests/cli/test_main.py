@@ -21,12 +21,18 @@ def run(*args: str):
 
 
 def test_expand_human_output():
+    # the partition numbers p(0) .. p(7), from FLINT's partitions_p
+    from qseries.backend import partitions_p
     r = run("expand", "1/(q;q)_inf", "--order", "8")
     assert r.exit_code == 0
+    assert [partitions_p(n) for n in range(8)] == [1, 1, 2, 3, 5, 7, 11, 15]
     assert r.stdout.strip() == "1 + q + 2q^2 + 3q^3 + 5q^4 + 7q^5 + 11q^6 + 15q^7 + O(q^8)"
 
 
 def test_expand_json():
+    # Euler's pentagonal number theorem: (q;q)_inf = sum (-1)^k q^(k(3k-1)/2), k = 0, 1, -1, 2,
+    # -2 giving q^0, q^1, q^2, q^5, q^7 below q^8; eta(q) = q^(1/24) (q;q)_inf by definition;
+    # 1/(2-q) = sum q^k/2^(k+1)
     r = run("expand", "(q;q)_inf", "-n", "8", "--json")
     data = json.loads(r.stdout)
     assert data == {"order": 8, "terms": [[0, "1"], [1, "-1"], [2, "-1"], [5, "1"], [7, "1"]]}
@@ -157,14 +163,18 @@ def test_module_entry_point_and_real_process_exit_codes():
 
 
 def test_verify_shipped_catalogue_subset_and_json():
-    r = run("verify", "--only", "rogers-ramanujan", "--json", "-j", "1")
+    # the command line's path through verify (selection by tag, --order, JSON); every entry is
+    # verified at its recorded order in-process by tests/catalogue/test_verify.py, so this
+    # end-to-end run stays at a low order (at the recorded orders it took 10 s)
+    r = run("verify", "--only", "rogers-ramanujan", "--order", "10", "--json", "-j", "1")
     assert r.exit_code == 0, r.output
     data = json.loads(r.stdout)
     ids = [x["id"] for x in data["results"]]
     assert "rogers-ramanujan-1" in ids and "andrews-gordon[k=3,i=2]" in ids
     first = data["results"][0]
     assert set(first) == {"id", "holds", "ok", "order", "first_mismatch", "seconds"}
-    assert data["summary"]["ok"] == len(ids)
+    assert {x["order"] for x in data["results"]} == {10}
+    assert data["summary"]["ok"] == data["summary"]["entries"] == len(ids)
 
 
 def test_verify_catches_an_altered_copy(tmp_path):
@@ -200,6 +210,8 @@ def test_list_shows_identifiers_and_sources():
 
 
 def test_product_command():
+    # the first Rogers-Ramanujan identity (Andrews 1976, ch. 7): exponent -1 at n = 1, 4 mod 5,
+    # for the 199 factors 1 - q^n, n < 200
     r = run("product", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "200", "--json")
     assert r.exit_code == 0
     data = json.loads(r.stdout)     # the shape in detail: tests/report/test_json_shapes.py
@@ -227,13 +239,26 @@ def test_check_modular_method_json():
     assert run("check", "q", "q", "--method", "bogus").exit_code == 2
 
 
-def test_expand_with_a_weighted_variable():
-    # coefficients in extra variables as JSON: tests/report/test_json_shapes.py
+def test_expand_prints_polynomial_coefficients():
+    import sympy
+    q, z = sympy.symbols("q z")
+    r = run("expand", "(z q, q/z, q;q)_inf", "-n", "4", "--json")
+    assert r.exit_code == 0
+    assert json.loads(r.stdout)["terms"] == [[0, "1"], [1, "-z - 1 - z^-1"],
+                                             [3, "z^2 + z + 1 + z^-1 + z^-2"]]
+    # sympy's expansion of the factors j = 1, 2, 3 (the others are 1 + O(q^4))
+    ref = sympy.expand(sympy.prod([(1 - z * q**j) * (1 - q**j / z) * (1 - q**j)
+                                   for j in range(1, 4)]))
+    assert [ref.coeff(q, e) for e in range(4)] == [1, -z - 1 - 1 / z, 0,
+                                                   z**2 + z + 1 + 1 / z + z**-2]
     r = run("expand", "1/(1-z)", "-n", "3", "--weight", "z=1")
     assert r.stdout.strip() == "1 + z*q + z^2*q^2 + O(q^3)"
 
 
 def test_check_with_extra_variables_reports_variables_and_weights():
+    # Euler: sum z^k/(q;q)_k = 1/(z;q)_inf (Andrews 1976, Cor. 2.2, from memory); against
+    # 1/(z q;q)_inf the k = 1 term z/(1-q) gives z at q^0, weighted degree 1, where
+    # 1/(z q;q)_inf has nothing (its z comes with q)
     r = run("check", "sum_{k>=0} z^k/(q;q)_k", "1/(z;q)_inf", "-n", "30", "--json")
     data = json.loads(r.stdout)
     assert r.exit_code == 0 and data["variables"] == ["z"] and data["weights"] == [1]
@@ -251,6 +276,8 @@ def test_bad_weights_exit_2(weight):
 
 
 def test_distribution_command(tmp_path):
+    # by hand: of the 5 partitions of 4, 4, 31, 211, 1111 have a Durfee square of side 1 and
+    # 22 one of side 2 (mean 6/5, variance 4/25); of 2: 2 and 11, both side 1
     durfee = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"
     r = run("distribution", durfee, "--at", "4")
     assert r.exit_code == 0
@@ -334,6 +361,38 @@ def test_the_product_estimate_times_the_recovery_of_the_exponents(monkeypatch):
     monkeypatch.setattr(cli, "estimate_cost", spy)
     assert run("product", "-n", "60000", "(q;q)_inf").exit_code == 0
     assert seen == [cli.product_form]
+
+
+def test_the_product_estimate_includes_the_recovery_of_the_exponents_on_a_fake_clock(monkeypatch):
+    # (q;q)_inf itself is cheap at order 10^7 (Euler's pentagonal numbers), but recovering
+    # its exponents means the log-derivative of a series with coefficients of thousands of
+    # digits: the estimate must time that work too, not only the evaluation.  On the real
+    # clock the growth exponent fitted to two probes of a fraction of a second is noise: on a
+    # loaded machine the estimate ranged from 27 minutes to 11 days, and below 10 minutes the
+    # run starts (it grew past 18 GB).  So the clock is faked here: only the recovery of the
+    # exponents (the product form) takes time, quadratic in the order; if the probes did not
+    # time it, the estimate would be 0 s and 81 MB, and the command would go on.
+    import qseries.cli.main as cli
+    from qseries.engine import cost
+
+    from ..catalogue.limits import deadline, memory_cap
+
+    clock = [0.0]
+    recovered = []
+
+    def recovery(series, order=None):
+        n = series.precision
+        recovered.append(n)
+        clock[0] += 0.1 * (n / 1024) ** 2
+        assert n <= 150000 // 4, "the run was not refused"
+
+    monkeypatch.setattr(cost.time, "perf_counter", lambda: clock[0])
+    monkeypatch.setattr(cli, "product_form", recovery)
+    with deadline(60), memory_cap(2 << 30):
+        r = run("product", "-n", "150000", "(q;q)_inf")
+    assert r.exit_code == 2, r.output
+    assert "would take about" in r.output and "--allow-long" in r.output
+    assert recovered and max(recovered) <= 150000 // 4      # probes only
 
 
 def test_the_distribution_refusal_names_the_options_that_set_the_sizes(monkeypatch):

@@ -25,7 +25,7 @@ from .strategy_helpers import both, count_results
 def test_lambert_terms_match_the_reference(text, monkeypatch):
     for ring in (ZZ, GF(1_000_003), GF(2**61 - 1)):
         seen = count_results(monkeypatch, None, "sum_lambert")
-        fast, slow = both(text, 250, "lambert", ring)
+        fast, slow = both(text, 150, "lambert", ring)     # no threshold in the order
         assert fast == slow, (text, ring)
         assert seen
 

@@ -2,7 +2,10 @@
 
 from fractions import Fraction
 
-from qseries.backend import laurent_ring
+import pytest
+
+from qseries.backend import QQ, ZZ, join_rings, laurent_ring
+from qseries.errors import DomainError, IncompatibleRingError
 from qseries.series import Series
 
 R = laurent_ring(("a", "z"))
@@ -17,3 +20,17 @@ def test_series_over_laurent_coefficients():
     half = s * Fraction(1, 2)
     assert half.ring == laurent_ring(("a", "z"), rational=True)
     assert half.coefficient(1) == -z * Fraction(1, 2)
+
+
+def test_joining_rings():
+    assert join_rings(R, ZZ) == R
+    assert join_rings(R, QQ) == laurent_ring(("a", "z"), rational=True)
+    with pytest.raises(IncompatibleRingError, match="cannot combine"):
+        join_rings(R, laurent_ring(("z",)))
+
+
+def test_bad_variable_names_are_refused():
+    with pytest.raises(DomainError):
+        laurent_ring(("q",))
+    with pytest.raises(DomainError):
+        laurent_ring(("z", "z"))
