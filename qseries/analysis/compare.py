@@ -170,12 +170,12 @@ class CheckResult:
                         f"(Schwartz-Zippel: a nonzero coefficient difference of B bits and "
                         f"degree d in the extra variables escapes each prime with probability "
                         f"at most B/(61*{PRIME_COUNT:.2e}) + d/2^61, so all {k} with "
-                        f"probability below {escape_bound(10**6, k, 10**6):.0e} for B, d <= "
+                        f"probability below {_upper(escape_bound(10**6, k, 10**6))} for B, d <= "
                         f"10^6{short}; evidence, not a proof)")
             return (f"the two sides agree modulo the primes {', '.join(map(str, self.primes))} "
                     f"at {scope} (a nonzero coefficient difference of B bits escapes all {k} "
                     f"with probability at most (B/(61*{PRIME_COUNT:.2e}))^{k}, below "
-                    f"{escape_bound(10**6, k):.0e} for B = 10^6{short}; evidence, not a proof)")
+                    f"{_upper(escape_bound(10**6, k))} for B = 10^6{short}; evidence, not a proof)")
         if self.first_mismatch is None:
             return (f"the two sides agree to O(q^{order}) ({scope} compared{short}; evidence, "
                     f"not a proof)")
@@ -301,6 +301,22 @@ def compare_series(lhs: Series, rhs: Series, order: int) -> tuple[Exponent, Mism
 PRIME_COUNT = 2**61 / (62 * 0.6931471805599453)
 #: most primes the modular method may use (as on the command line)
 MAX_PRIMES = 20
+
+
+def _upper(x: float) -> str:
+    """x as one significant digit rounded up (a printed upper bound must stay one).
+
+    >>> _upper(3.05e-13), _upper(3e-13), _upper(9.3e-26), _upper(0.96)
+    ('4e-13', '3e-13', '1e-25', '1e+00')
+    """
+    if x <= 0:
+        return "0"
+    e = math.floor(math.log10(x))
+    mant = x / 10.0**e
+    digit = math.ceil(mant - 1e-9)          # 3.0000000001 from float noise stays 3
+    if digit >= 10:
+        digit, e = 1, e + 1
+    return f"{digit}e{e:+03d}"
 
 
 def escape_bound(bits: int, k: int, degree: int = 0) -> float:
