@@ -19,7 +19,13 @@ from typing import Any
 
 import flint
 
-from ..errors import DomainError, IncompatibleRingError, UnableError, weight_may_help
+from ..errors import (
+    DomainError,
+    IncompatibleRingError,
+    UnableError,
+    typed_argument,
+    weight_may_help,
+)
 from .arith import _about, _decimal
 from .base import MAX_SHIFT, Number, Ring, _number
 
@@ -672,7 +678,15 @@ def laurent_ring(names: tuple[str, ...], rational: bool = False) -> Ring:
     >>> R = laurent_ring(("z",))
     >>> R.coefficients(R.inv_series(R.poly([1, -R.gen("z")]), 3))
     [1, z, z^2]
+    >>> laurent_ring("za")  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    qseries.errors.ArgumentTypeError: names must be a tuple of variable names ..., not 'za' (str)
     """
+    if not isinstance(names, (tuple, list)):
+        typed_argument("names", names, (tuple, list), "a tuple of variable names such as ('z',)")
+    for i, name in enumerate(names):
+        typed_argument(f"names[{i}]", name, str, "a variable name such as 'z'")
     key = (tuple(names), rational)
     ring = _LAURENT.get(key)
     if ring is None:

@@ -16,7 +16,7 @@ from typing import Any
 
 import flint
 
-from ..errors import DomainError, IncompatibleRingError
+from ..errors import ArgumentTypeError, DomainError, IncompatibleRingError, typed_argument
 from .base import Number, Ring, _py_coeffs
 
 __all__ = ["GF", "ModularRing"]
@@ -186,5 +186,12 @@ def GF(p: int) -> Ring:
     >>> R = GF(7)
     >>> R.coefficients(R.inv_series(R.poly([1, 2]), 4))
     [1, 5, 4, 6]
+    >>> GF("7")
+    Traceback (most recent call last):
+    ...
+    qseries.errors.ArgumentTypeError: p must be an integer (a prime below 2^64), not '7' (str)
     """
+    typed_argument("p", p, int, "an integer (a prime below 2^64)")
+    if isinstance(p, bool):
+        raise ArgumentTypeError("p must be an integer (a prime below 2^64), not a bool")
     return _prime_field(p)

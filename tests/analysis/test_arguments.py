@@ -168,3 +168,14 @@ def test_syntax_and_analysis_helpers_refuse_bad_types(call, name):
 
 def test_parse_takes_any_iterable_of_bound_names():
     assert qseries.parse("k q", ("k",)) == qseries.parse("k q", iter(["k"]))
+
+
+@pytest.mark.parametrize(("call", "name"), [
+    (lambda: GF("7"), "p"),
+    (lambda: GF(True), "p"),
+    (lambda: qseries.backend.laurent_ring("za"), "names"),
+    (lambda: qseries.backend.laurent_ring((1,)), "names[0]"),
+])
+def test_ring_constructors_refuse_bad_types(call, name):
+    # issue 12: GF("x") failed inside a comparison, laurent_ring("za") read a string as names
+    refused(call, name, ArgumentTypeError)
