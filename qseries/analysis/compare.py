@@ -406,9 +406,16 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
                 return _check_modular(lnode, rnode, order, primes, seed, t0, say, names, w)
             return _check_exact(lnode, rnode, order, ring, t0, say, names, w)
         except QSeriesError as err:
-            first_error = first_error or err
+            if first_error is not None and isinstance(err, (DomainError, UnableError)):
+                # the weighted retry failed too, maybe for another reason (a size limit):
+                # both reasons are reported, the retry's last, as it is what stopped
+                raise type(err)(f"{first_error}; retried with the extra variables weighted "
+                                f"(z -> z*q): {err}") from None
+            if first_error is not None:
+                raise
+            first_error = err
             if not err.weights_may_help:
-                raise first_error from None
+                raise
             say("retrying with the extra variables weighted (z -> z*q)")
     assert first_error is not None
     raise first_error

@@ -137,3 +137,25 @@ def test_modular_cross_multiplication_keeps_the_order_with_negative_powers():
     r = check("q^-1 (sum_{k>=0} q^(k^2)/(q;q)_k)", "q^-1 " + RR1_PRODUCT, order=500,
               method="modular")
     assert r.holds and r.order_verified == 500
+
+
+def test_a_failed_weighted_retry_reports_both_reasons(monkeypatch):
+    # found in review: an exact check at order 400 with extra variables ran for seconds and
+    # then reported only the first attempt's "does not converge", although the weighted
+    # retry had stopped at a size limit whose message says what to do
+    from qseries.analysis import compare
+    from qseries.errors import DomainError, UnableError
+
+    calls = []
+
+    def fake(lnode, rnode, order, ring, t0, say, names, w):
+        calls.append(w)
+        if len(calls) == 1:
+            raise DomainError("first reason", weights_may_help=True)
+        raise UnableError("second reason: try --method modular")
+
+    monkeypatch.setattr(compare, "_check_exact", fake)
+    with pytest.raises(UnableError) as info:
+        compare.check("z q", "z q", 10, method="exact")
+    assert "first reason" in str(info.value) and "second reason" in str(info.value)
+    assert len(calls) == 2
