@@ -69,7 +69,9 @@ NOTATION_FORMS = [
     ("sum_{k=-inf}^{inf} T", "bilateral sum"),
     ("prod_{n>=1} T   prod_{n=1}^{inf} T", "products"),
     ("O(q^N)", "an unknown remainder of order N"),
-    ("sum_{i,j>=0} T", "a multi-sum: each index over the same range"),
+    ("sum_{i,j>=0} T   sum_{n1>=n2>=0} T", "multi-sums: indices over one range, or a chain "
+                                          "(n2 from 0, n1 from n2)"),
+    ("sum_{n_1>=0} T", "subscripted index names (n_1, n_{12})"),
     ("eta(q^5)  eta(5tau)  theta_3(-q)  phi(q^2)", "named functions (below) at q^d or -q^d; "
                                                    "the ones defined by a sum at any argument"),
     ("\\sum_{n\\ge0}\\frac{q^{n^2}}{(q;q)_n}", "LaTeX as papers print it (\\frac, \\binom{n}{k}_q, "
@@ -238,6 +240,9 @@ class _Parser:
                 raise ParseError("O(...) takes a power of q, such as O(q^50)", self.text, t.pos)
             exponent = inner.right if isinstance(inner, BinOp) else Num(Fraction(1), t.pos)
             return BigO(exponent, t.pos)
+        joined = self.bound_subscripted()
+        if joined is not None:
+            return Name(joined, t.pos)
         if name in self.bound:
             self.take()
             return Name(name, t.pos)
@@ -431,6 +436,9 @@ class _Parser:
         if t.kind == "num":
             self.take()
             return Num(Fraction(int(t.text)), t.pos)
+        joined = self.bound_subscripted()
+        if joined is not None:
+            return Name(joined, t.pos)
         if t.kind == "name" and t.text in self.bound:
             self.take()
             return Name(t.text, t.pos)
@@ -457,27 +465,21 @@ class _Parser:
         kind = t.text
         self.expect("_", f" after {kind} (write {kind}_{{k>=0}} ...)")
         self.expect("{", f" after {kind}_ (write {kind}_{{k>=0}} ...)")
-        var_tok = self.tok
-        if var_tok.kind != "name" or var_tok.text in KEYWORDS or var_tok.text in FUNCTIONS:
-            raise self.error(f"expected the name of the {kind}'s variable")
-        if var_tok.text in self.bound:
-            raise self.error(f"{var_tok.text!r} is already bound by an enclosing sum or product")
-        var = var_tok.text
-        self.take()
+        var = self.index_name(kind, [])
         more: list[str] = []
         while self.at(","):
             self.take()
-            t2 = self.tok
-            if t2.kind != "name" or t2.text in KEYWORDS or t2.text in FUNCTIONS \
-                    or t2.text in self.bound or t2.text in [var, *more]:
-                raise self.error(f"expected the name of another variable of the {kind}")
-            more.append(t2.text)
-            self.take()
+            more.append(self.index_name(kind, [var, *more]))
         lower: Node | None
         upper: Node | None = None
         has_upper_allowed = True
+        #: n1 >= n2 >= ... >= L: the chain [n1, n2, ...], each summed from the next
+        chain: list[str] = []
         if self.at(">="):
             self.take()
+            while not more and self.starts_index_name() and self.after_index_name(">="):
+                chain.append(self.index_name(kind, [var, *chain]))
+                self.expect(">=")
             lower = self.bound_expr(allow_minus_inf=False)
             has_upper_allowed = False
         elif self.at("="):
@@ -497,16 +499,78 @@ class _Parser:
         if not explicit_upper and has_upper_allowed:
             raise self.error(f"{kind}_{{{var}=...}} needs an upper limit ^{{...}}, or write "
                              f"{kind}_{{{var}>=...}}")
-        names = [var, *more]
+        names = [var, *more, *chain]
         self.bound.extend(names)
         try:
             body = self.term()
         finally:
             del self.bound[-len(names):]
         self.tail_taken = True
+        if chain:
+            # sum_{n1>=n2>=n3>=L}: n3 from L, n2 from n3, n1 from n2 (innermost first)
+            steps = [var, *chain]
+            for j in range(len(steps) - 1):
+                body = BigOp(kind, steps[j], Name(steps[j + 1], t.pos), None, body, t.pos)
+            return BigOp(kind, steps[-1], lower, None, body, t.pos)
         for name in reversed(names):
             body = BigOp(kind, name, lower, upper, body, t.pos)
         return body
+
+    def starts_index_name(self) -> bool:
+        t = self.tok
+        return t.kind == "name" and t.text not in KEYWORDS and t.text not in FUNCTIONS \
+            and t.text not in self.bound and (t.text.isalpha() or is_extra_variable(t.text))
+
+    def after_index_name(self, sym: str) -> bool:
+        """Whether the index name at the current token is followed by ``sym``."""
+        j = self.i + 1
+        if self.toks[j].text == "_":
+            j += 4 if self.toks[j + 1].text == "{" else 2
+        return self.toks[j].text == sym
+
+    def index_name(self, kind: str, taken: list[str]) -> str:
+        """The variable of a sum or product: a name, or a subscripted one (n_1, n_{12})."""
+        t = self.tok
+        if t.kind != "name" or t.text in KEYWORDS or t.text in FUNCTIONS:
+            raise self.error(f"expected the name of the {kind}'s variable")
+        self.take()
+        name = t.text
+        joined = self.subscript_of_index(name)
+        if joined is not None:
+            name = joined
+        if name in self.bound:
+            raise ParseError(f"{name!r} is already bound by an enclosing sum or product",
+                             self.text, t.pos)
+        if name in taken:
+            raise ParseError(f"{name!r} appears twice among the variables", self.text, t.pos)
+        return name
+
+    def subscript_of_index(self, name: str) -> str | None:
+        """After a name: ``_1`` or ``_{12}`` makes the subscripted name n_1 (tokens taken)."""
+        if not self.at("_"):
+            return None
+        j = self.i + 1
+        if self.toks[j].kind == "num":
+            self.i = j + 1
+            return f"{name}_{self.toks[j].text}"
+        if self.toks[j].text == "{" and self.toks[j + 1].kind == "num" \
+                and self.toks[j + 2].text == "}":
+            self.i = j + 3
+            return f"{name}_{self.toks[j + 1].text}"
+        return None
+
+    def bound_subscripted(self) -> str | None:
+        """A bound subscripted name at the current token (n_1 inside its sum), taken."""
+        t = self.tok
+        if t.kind != "name" or self.toks[self.i + 1].text != "_":
+            return None
+        save = self.i
+        self.take()
+        joined = self.subscript_of_index(t.text)
+        if joined is not None and joined in self.bound:
+            return joined
+        self.i = save
+        return None
 
     def bound_expr(self, allow_minus_inf: bool) -> Node | None:
         if allow_minus_inf and self.at("-"):

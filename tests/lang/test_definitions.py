@@ -159,3 +159,29 @@ def test_a_sum_at_minus_q_has_the_signs_of_q_to_minus_q():
     plus = evaluate("G(q)", 80, definitions=[rr]).coefficient_list(80)
     minus = evaluate("G(-q)", 80, definitions=[rr]).coefficient_list(80)
     assert minus == [(-1) ** n * c for n, c in enumerate(plus)]
+
+
+def test_chains_of_indices_and_subscripted_names_as_papers_print_them():
+    # sum_{n1>=n2>=n3>=0} q^(n1+n2+n3) counts partitions into at most 3 parts: the
+    # coefficient of q^n is the number of partitions of n into parts <= 3 (conjugation),
+    # counted here by brute force
+    s = evaluate(r"\sum_{n_1 \ge n_2 \ge n_3 \ge 0} q^{n_1+n_2+n_3}", 30)
+    brute = [sum(1 for a in range(n + 1) for b in range(n + 1)
+                 if a + 2 * b <= n and (n - a - 2 * b) % 3 == 0) for n in range(30)]
+    assert s.coefficient_list(30) == brute
+    assert parse("sum_{n1>=n2>=0} q^(n1 n2)") == parse(
+        "sum_{n2>=0} sum_{n1>=n2} q^(n1 n2)")
+    # a subscripted index reads back from its printed form
+    node = parse("sum_{n_1>=0} q^(n_1)/(q;q)_{n_1}")
+    from qseries.lang import show
+    assert parse(show(node)) == node
+    assert evaluate(node, 20) == evaluate("sum_{n>=0} q^n/(q;q)_n", 20)
+
+
+@pytest.mark.parametrize(("text", "words"), [
+    ("sum_{n_1, n_1>=0} q", "appears twice"),
+    ("sum_{k>=0} sum_{k>=0} q", "already bound"),
+])
+def test_bad_index_lists_are_clear_errors(text, words):
+    with pytest.raises(ParseError, match=words):
+        parse(text)
