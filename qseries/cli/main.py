@@ -7,6 +7,7 @@ coefficient could be compared.
 
 from __future__ import annotations
 
+import contextvars
 import json
 import sys
 from enum import StrEnum
@@ -25,7 +26,7 @@ from ..engine.chooser import (
     PRODUCT_MAX_ORDER,
 )
 from ..engine.cost import CostEstimate, estimate_cost
-from ..errors import QSeriesError
+from ..errors import ParseError, QSeriesError
 from ..lang import Node, parse
 from ..lang.parser import NOTATION_FORMS, definitions_of, is_extra_variable
 from ..products import FUNCTIONS
@@ -77,7 +78,20 @@ class Method(StrEnum):
 OrderOption = Annotated[int, typer.Option(
     "--order", "-n", min=1, max=MAX_LENGTH,
     help="Compare/expand modulo q^N: the coefficients of q^0 .. q^(N-1).")]
-JsonOption = Annotated[bool, typer.Option("--json", help="Print machine-readable JSON.")]
+#: whether the running command was given --json (its errors are then JSON too)
+_JSON_ERRORS: contextvars.ContextVar[bool] = contextvars.ContextVar("json_errors",
+                                                                     default=False)
+
+
+def _json_mode(value: bool) -> bool:
+    _JSON_ERRORS.set(bool(value))
+    return value
+
+
+JsonOption = Annotated[bool, typer.Option(
+    "--json", callback=_json_mode,
+    help="Print machine-readable JSON (errors too: {\"error\": {\"message\", \"position\"}} "
+         "with exit code 2).")]
 AllowLongOption = Annotated[bool, typer.Option(
     "--allow-long",
     help=f"Run even when the estimate made first (from order 50000 on, by probes at small "
@@ -147,7 +161,15 @@ def _weights(items: list[str] | None) -> dict[str, int] | None:
     return out
 
 
-def _fail(message: str) -> None:
+def _fail(message: str, err: QSeriesError | None = None) -> None:
+    if _JSON_ERRORS.get():
+        position = getattr(err, "position", None)
+        error: dict[str, Any] = {"message": getattr(err, "message", message),
+                                 "position": position}
+        if isinstance(err, ParseError):
+            error["text"] = err.text       # the text the position points into
+        typer.echo(json.dumps({"error": error}))
+        raise typer.Exit(2)
     typer.echo(f"qseries: error: {message}", err=True)
     raise typer.Exit(2)
 
@@ -157,7 +179,7 @@ def _guarded(fn: Any, *args: Any) -> Any:
     try:
         return fn(*args)
     except QSeriesError as err:
-        _fail(str(err))
+        _fail(str(err), err)
     except RecursionError:
         _fail("the expression is nested too deeply")
     except MemoryError:

@@ -445,3 +445,21 @@ def test_an_undefined_function_exits_2_and_says_how_to_define_it():
     r = run("expand", "G(q) H(q)")
     assert r.exit_code == 2
     assert "unknown function 'G'" in r.output and "G(q) = ..." in r.output
+
+
+# -- errors as JSON (issue 13, item 6) --------------------------------------------------------
+@pytest.mark.parametrize(("args", "position", "text"), [
+    (["expand", "1/(q"], 4, "1/(q"),
+    (["check", "Sum_{k>=0} q", "q"], 0, "Sum_{k>=0} q"),
+    (["product", "q + G(q)"], 4, "q + G(q)"),
+    (["expand", "1/0"], None, None),
+])
+def test_with_json_an_error_is_json_with_its_position(args, position, text):
+    r = run(*args, "--json")
+    assert r.exit_code == 2
+    err = json.loads(r.stdout)["error"]
+    assert err["message"] and "Traceback" not in err["message"]
+    assert err["position"] == position and err.get("text") == text
+    # the same command without --json: the text form, on standard error
+    r = run(*args)
+    assert r.exit_code == 2 and r.stdout == "" and "qseries: error:" in r.output
