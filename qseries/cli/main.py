@@ -54,6 +54,7 @@ from ..report import (
     verify_summary,
     verify_table,
 )
+from ..report.latex import check_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
 from .demo import DEMO_CASES
 
@@ -88,6 +89,8 @@ def _json_mode(value: bool) -> bool:
     return value
 
 
+LatexOption = Annotated[bool, typer.Option(
+    "--latex", help="Print the result as LaTeX a paper can include (the parser reads it back).")]
 JsonOption = Annotated[bool, typer.Option(
     "--json", callback=_json_mode,
     help="Print machine-readable JSON (errors too: {\"error\": {\"message\", \"position\"}} "
@@ -196,6 +199,7 @@ def expand(
     weight: WeightOption = None,
     define: DefineOption = None,
     as_json: JsonOption = False,
+    latex: LatexOption = False,
     allow_long: AllowLongOption = False,
 ) -> None:
     """Expand EXPR modulo q^N and print its coefficients.  Letters other than q that no sum
@@ -210,6 +214,9 @@ def expand(
     s: Series = _guarded(evaluate, node, order, None, weights)
     if as_json:
         typer.echo(json.dumps(expand_json(s, order)))
+        return
+    if latex:
+        typer.echo(s.truncate(order).latex())
         return
     typer.echo(expansion_text(s, order))
     note = expansion_note(s, order)
@@ -257,6 +264,7 @@ def check_cmd(
     weight: WeightOption = None,
     define: DefineOption = None,
     as_json: JsonOption = False,
+    latex: LatexOption = False,
     allow_long: AllowLongOption = False,
 ) -> None:
     """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch, 3 if no
@@ -276,6 +284,8 @@ def check_cmd(
         show=order >= STATUS_ORDER and not as_json))
     if as_json:
         typer.echo(json.dumps(check_json(r, diagnose(r))))
+    elif latex:
+        typer.echo(check_latex(r, lnode, rnode))
     else:
         _print_check(r)
     raise typer.Exit(3 if r.holds is None else 0 if r.holds else 1)
@@ -293,6 +303,7 @@ def product(
     order: OrderOption = 100,
     define: DefineOption = None,
     as_json: JsonOption = False,
+    latex: LatexOption = False,
     allow_long: AllowLongOption = False,
 ) -> None:
     """Find c, s and integers e_n with EXPR = c q^s prod_{n>=1} (1-q^n)^(e_n) + O(q^N); print
@@ -321,6 +332,8 @@ def product(
         raise typer.Exit(1) from None
     if as_json:
         typer.echo(json.dumps(product_json(pf)))
+    elif latex:
+        typer.echo(product_latex(pf))
     else:
         for line in product_lines(pf):
             typer.echo(line)

@@ -122,3 +122,103 @@ def show(node: Node) -> str:
     """
     typed_argument("node", node, Node, "a syntax tree (from qseries.parse)")
     return _bare(node)
+
+
+# -- LaTeX ----------------------------------------------------------------------------------
+def _tex_name(name: str) -> str:
+    base, sep, sub = name.partition("_")
+    return f"{base}_{{{sub}}}" if sep else name
+
+
+def _tex_num(v: Fraction) -> str:
+    if v.denominator == 1:
+        return str(v.numerator)
+    sign = "-" if v < 0 else ""
+    return f"{sign}\\frac{{{abs(v.numerator)}}}{{{v.denominator}}}"
+
+
+def _tex_fmt(node: Node, need: int, tail: bool) -> str:
+    text = _tex(node)
+    level = _level(node)
+    if isinstance(node, Num) and node.value.denominator != 1 and node.value > 0:
+        level = 5                       # \frac{a}{b} is an atom
+    if isinstance(node, BinOp) and node.op == "/":
+        level = 5
+    if level < need or (not tail and _takes_tail(node)):
+        return f"\\left({text}\\right)"
+    return text
+
+
+def _tex_sub(n: Node | None) -> str:
+    return "\\infty" if n is None else "{" + _tex(n) + "}"
+
+
+def _tex(node: Node) -> str:
+    if isinstance(node, Num):
+        return _tex_num(node.value)
+    if isinstance(node, Q):
+        return "q"
+    if isinstance(node, (Name, Var)):
+        return _tex_name(node.name)
+    if isinstance(node, Neg):
+        return "-" + _tex_fmt(node.operand, 3, True)
+    if isinstance(node, BinOp):
+        if node.op in "+-":
+            spine: list[tuple[str, Node]] = []
+            left: Node = node
+            while isinstance(left, BinOp) and left.op in "+-":
+                spine.append((left.op, left.right))
+                left = left.left
+            parts = [_tex_fmt(left, 1, True)]
+            parts += [f"{op} {_tex_fmt(right, 2, True)}" for op, right in reversed(spine)]
+            return " ".join(parts)
+        if node.op == "/":
+            return f"\\frac{{{_tex(node.left)}}}{{{_tex(node.right)}}}"
+        if node.op == "*":
+            right = _tex_fmt(node.right, 3, True)
+            sep = " \\cdot " if right[:1].isdigit() or right.startswith("-") else " "
+            return f"{_tex_fmt(node.left, 2, False)}{sep}{right}"
+        return f"{_tex_fmt(node.left, 5, False)}^{{{_tex(node.right)}}}"
+    if isinstance(node, Poch):
+        params = ", ".join(_tex(p) for p in node.params)
+        return f"({params};{_tex(node.base)})_{_tex_sub(node.length)}"
+    if isinstance(node, BigOp):
+        op = "\\sum" if node.kind == "sum" else "\\prod"
+        var = _tex_name(node.var)
+        lower = "-\\infty" if node.lower is None else _tex(node.lower)
+        if node.upper is None and node.lower is not None:
+            head = f"{op}_{{{var} \\ge {lower}}}"
+        else:
+            head = f"{op}_{{{var}={lower}}}^{_tex_sub(node.upper)}"
+        return f"{head} {_tex_fmt(node.body, 2, True)}"
+    if isinstance(node, Call):
+        args = [_tex(a) for a in node.args]
+        if node.name == "gaussian":
+            return f"\\begin{{bmatrix}} {args[0]} \\\\ {args[1]} \\end{{bmatrix}}_q"
+        if node.name == "eta":
+            a = node.args[0]
+            if isinstance(a, Q):
+                return "\\eta(\\tau)"
+            if isinstance(a, BinOp) and a.op == "^" and isinstance(a.left, Q) \
+                    and isinstance(a.right, Num) and a.right.value.denominator == 1:
+                return f"\\eta({a.right.value.numerator}\\tau)"
+        if node.name.startswith("theta_"):
+            return f"\\theta_{node.name[6:]}({args[0]})"
+        return f"\\{node.name}({', '.join(args)})" if node.name == "eta" else \
+            f"{node.name}({', '.join(args)})"
+    if isinstance(node, BigO):
+        return f"O(q^{{{_tex(node.exponent)}}})"
+    raise TypeError(f"not a syntax-tree node: {node!r}")
+
+
+def show_latex(node: Node) -> str:
+    r"""The LaTeX of a syntax tree, as a paper prints it; the parser reads it back.
+
+    >>> from qseries.lang.parser import parse
+    >>> show_latex(parse("sum_{k>=0} q^(k^2)/(q;q)_k"))
+    '\\sum_{k \\ge 0} \\frac{q^{k^{2}}}{(q;q)_{k}}'
+    >>> show_latex(parse("(q, q^4;q^5)_inf^-1"))
+    '(q, q^{4};q^{5})_\\infty^{-1}'
+    """
+    typed_argument("node", node, Node, "a syntax tree (from qseries.parse)")
+    return _tex(node)

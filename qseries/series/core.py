@@ -950,6 +950,20 @@ class Series:
         from .formatting import format_series
         return format_series(self)
 
+    def latex(self, max_terms: int | None = None) -> str:
+        r"""The series in LaTeX, as a paper prints an expansion (the parser reads it back);
+        ``max_terms`` elides the middle.
+
+        >>> Series.from_coefficients([1, 0, -2], prec=5).latex()
+        '1 - 2 q^{2} + O(q^{5})'
+        """
+        from .latex import series_latex
+        return series_latex(self, max_terms)
+
+    def _repr_latex_(self) -> str:
+        """Jupyter's rendering: the first and last 20 terms and the order."""
+        return f"${self.latex(max_terms=40)}$"
+
     def __str__(self) -> str:
         return self.__repr__()
 

@@ -463,3 +463,12 @@ def test_with_json_an_error_is_json_with_its_position(args, position, text):
     # the same command without --json: the text form, on standard error
     r = run(*args)
     assert r.exit_code == 2 and r.stdout == "" and "qseries: error:" in r.output
+
+
+def test_latex_output_of_expand_product_and_check():
+    r = run("expand", "(q;q)_inf^3", "-n", "11", "--latex")
+    assert r.stdout.strip() == "1 - 3 q + 5 q^{3} - 7 q^{6} + 9 q^{10} + O(q^{11})"
+    r = run("product", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "60", "--latex")
+    assert r.exit_code == 0 and "\\frac{1}{(q, q^{4};q^{5})_\\infty}" in r.stdout
+    r = run("check", "(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)", "--latex")
+    assert r.exit_code == 0 and r.stdout.startswith("% AGREES")

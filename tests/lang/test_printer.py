@@ -72,3 +72,19 @@ def test_extra_variables_round_trip():
     for text in ["sum_{n=-inf}^{inf} z^n q^(n^2)", "(a z, q/z; q)_inf", "x1^-2 + b"]:
         node = parse(text)
         assert parse(show(node)) == node
+
+
+# -- LaTeX (issue 13, item 7): what qseries prints as LaTeX, it reads back ------------------
+@pytest.mark.parametrize("text", EXAMPLES)
+def test_examples_round_trip_through_latex(text):
+    from qseries.lang.printer import show_latex
+    bound = {"k"} if "{2k+1}" in text else set()
+    tree = parse(text, bound=bound)
+    assert parse(show_latex(tree), bound=bound) == tree, show_latex(tree)
+
+
+@given(_trees())
+def test_random_trees_round_trip_through_latex(tree):
+    from qseries.lang.printer import show_latex
+    text = show_latex(tree)
+    assert parse(text) == tree, text
