@@ -21,6 +21,7 @@ rule applies, :class:`NoBound` says why and the caller refuses to truncate.
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any
@@ -29,6 +30,29 @@ from ..errors import DomainError
 from ..lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch
 from ..products import FUNCTIONS
 from . import symbolic as sym
+
+
+def _shift_name(node: Node, name: str, by: Node) -> Node:
+    """``node`` with the bound variable ``name`` replaced by ``by + name`` (inner sums that
+    rebind ``name`` are left alone).
+
+    >>> from qseries.lang.parser import parse
+    >>> from qseries.lang.printer import show
+    >>> show(_shift_name(parse("(q;q)_(n - m)", bound={"n", "m"}), "n", parse("m", bound={"m"})))
+    '(q;q)_{m + n - m}'
+    """
+    if isinstance(node, Name):
+        return BinOp("+", by, node, node.pos) if node.name == name else node
+    if isinstance(node, BigOp) and node.var == name:
+        return node
+    changes: dict[str, object] = {}
+    for f in dataclasses.fields(node):
+        v = getattr(node, f.name)
+        if isinstance(v, Node):
+            changes[f.name] = _shift_name(v, name, by)
+        elif isinstance(v, tuple) and v and isinstance(v[0], Node):
+            changes[f.name] = tuple(_shift_name(x, name, by) for x in v)
+    return dataclasses.replace(node, **changes) if changes else node
 
 
 class NoBound(Exception):
@@ -54,6 +78,8 @@ class TermBounds:
 
     def __init__(self, evaluator: Any) -> None:
         self.ev = evaluator
+        #: inner sums' bodies with their variable shifted by the lower limit, by id()
+        self._shifted: dict[int, tuple[Node, Node]] = {}
 
     # -- polynomials in the bound variables -------------------------------------------
     def _symbolic(self, node: Node, syms: dict[str, int]) -> bool:
@@ -159,9 +185,16 @@ class TermBounds:
         if not sym.m_nonnegative(lo):
             raise NoBound(f"the lower limit of the inner sum at column {_pos(node)} may be "
                           f"negative")
-        body = self.lower(node.body, main, {**syms, j: 1}, env, order)
-        shifted = sym.m_subst(body.poly, j, sym.m_add(lo, sym.m_var(j)))
-        by_power = sym.m_coeffs_in(shifted, j)
+        # j = lower + t with t >= 0, written into the body before it is bounded, so that
+        # what depends on j - lower (a subscript (q;q)_(n1 - n2) of sum_{n1>=n2}) is seen
+        # to be t >= 0; t keeps the name j
+        # (kept alive here: the evaluator caches facts about nodes by id())
+        hit = self._shifted.get(id(node))
+        if hit is None or hit[0] is not node:
+            hit = self._shifted[id(node)] = (node, _shift_name(node.body, j, node.lower))
+        shifted_body = hit[1]
+        body = self.lower(shifted_body, main, {**syms, j: 1}, env, order)
+        by_power = sym.m_coeffs_in(body.poly, j)
         for d, c in by_power.items():
             if d >= 1 and not sym.m_nonnegative(c):
                 raise NoBound(f"the terms of the inner sum at column {_pos(node)} do not grow "

@@ -1,0 +1,15 @@
+
+
+def test_an_inner_sum_from_an_outer_index_sees_the_difference_is_non_negative():
+    # issue 13: sum_{n1>=n2>=0} ... (q;q)_(n1-n2) was refused ("the subscript of a
+    # q-Pochhammer symbol may be negative"): the inner index is written as its lower limit
+    # plus t >= 0 before the body is bounded.  Checked against the Andrews-Gordon
+    # identities for k = 3 (G. E. Andrews, The Theory of Partitions (1976), Theorem 7.8,
+    # from memory), written with the sums as chains N1 >= N2 >= 0
+    from qseries import check
+    lhs = "sum_{n_1>=n_2>=0} q^(n_1^2+n_2^2)/((q;q)_{n_1-n_2} (q;q)_{n_2})"
+    rhs = "1/((q;q^7)_inf (q^2;q^7)_inf (q^5;q^7)_inf (q^6;q^7)_inf)"
+    assert check(lhs, rhs, 150).holds is True
+    lhs = "sum_{n_1>=n_2>=0} q^(n_1^2+n_2^2+n_1+n_2)/((q;q)_{n_1-n_2} (q;q)_{n_2})"
+    rhs = "1/((q^2;q^7)_inf (q^3;q^7)_inf (q^4;q^7)_inf (q^5;q^7)_inf)"
+    assert check(lhs, rhs, 150).holds is True
