@@ -36,6 +36,7 @@ from ..lang.ast import (
     extra_variables,
     free_names,
     mentions_q,
+    sum_spine,
 )
 from ..lang.definitions import Definition
 from ..lang.parser import parse
@@ -246,13 +247,9 @@ class Evaluator:
         if isinstance(node, BinOp):
             if node.op in "+-":
                 # a long sum of terms is a deep left spine: walk it without recursion
-                spine: list[tuple[str, Node]] = []
-                left: Node = node
-                while isinstance(left, BinOp) and left.op in "+-":
-                    spine.append((left.op, left.right))
-                    left = left.left
+                left, spine = sum_spine(node)
                 acc = self.value(left, env, order)
-                for op, right in reversed(spine):
+                for op, right in spine:
                     b = self.value(right, env, order)
                     acc = acc + b if op == "+" else acc - b
                     if isinstance(acc, Series):

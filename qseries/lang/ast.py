@@ -108,6 +108,22 @@ class BigO(Node):
     pos: int = field(default=0, compare=False)
 
 
+def sum_spine(node: Node) -> tuple[Node, list[tuple[str, Node]]]:
+    """A chain a + b - c + ... as (a, [("+", b), ("-", c), ...]), found without recursion
+    (long sums of terms are deep left spines).
+
+    >>> first, rest = sum_spine(BinOp("-", BinOp("+", Num(Fraction(1)), Q()), Q()))
+    >>> first, [op for op, _ in rest]
+    (Num(value=Fraction(1, 1), pos=0), ['+', '-'])
+    """
+    spine: list[tuple[str, Node]] = []
+    left = node
+    while isinstance(left, BinOp) and left.op in "+-":
+        spine.append((left.op, left.right))
+        left = left.left
+    return left, spine[::-1]
+
+
 def children(node: Node) -> tuple[Node, ...]:
     """The direct sub-nodes of a node.
 

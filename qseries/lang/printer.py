@@ -10,7 +10,7 @@ from __future__ import annotations
 from fractions import Fraction
 
 from ..errors import typed_argument
-from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var
+from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var, sum_spine
 
 # precedence levels: 1 sums, 2 products, 3 signed, 4 powers, 5 atoms
 _LEVEL = {"+": 1, "-": 1, "*": 2, "/": 2, "^": 4}
@@ -77,14 +77,9 @@ def _bare(node: Node) -> str:
         return "-" + _fmt(node.operand, 3, True)
     if isinstance(node, BinOp):
         if node.op in "+-":
-            spine: list[tuple[str, Node]] = []     # iterative over long sums of terms
-            left: Node = node
-            while isinstance(left, BinOp) and left.op in "+-":
-                spine.append((left.op, left.right))
-                left = left.left
-            parts = [_fmt(left, 1, True)]
-            parts += [f"{op} {_fmt(right, 2, True)}" for op, right in reversed(spine)]
-            return " ".join(parts)
+            first, rest = sum_spine(node)
+            return " ".join([_fmt(first, 1, True)] +
+                            [f"{op} {_fmt(right, 2, True)}" for op, right in rest])
         if node.op in "*/":
             return f"{_fmt(node.left, 2, False)} {node.op} {_fmt(node.right, 3, True)}"
         right = node.right
@@ -164,14 +159,9 @@ def _tex(node: Node) -> str:
         return "-" + _tex_fmt(node.operand, 3, True)
     if isinstance(node, BinOp):
         if node.op in "+-":
-            spine: list[tuple[str, Node]] = []
-            left: Node = node
-            while isinstance(left, BinOp) and left.op in "+-":
-                spine.append((left.op, left.right))
-                left = left.left
-            parts = [_tex_fmt(left, 1, True)]
-            parts += [f"{op} {_tex_fmt(right, 2, True)}" for op, right in reversed(spine)]
-            return " ".join(parts)
+            first, rest = sum_spine(node)
+            return " ".join([_tex_fmt(first, 1, True)] +
+                            [f"{op} {_tex_fmt(right, 2, True)}" for op, right in rest])
         if node.op == "/":
             return f"\\frac{{{_tex(node.left)}}}{{{_tex(node.right)}}}"
         if node.op == "*":
