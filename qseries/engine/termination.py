@@ -26,9 +26,9 @@ from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any
 
-from ..errors import DomainError
+from ..errors import DomainError, QSeriesError
 from ..lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch
-from ..products import FUNCTIONS
+from ..products import FUNCTIONS, monomial_parts
 from . import symbolic as sym
 
 
@@ -150,7 +150,7 @@ class TermBounds:
                 return Bound(sym.m_sub(a.poly, b.poly), a.exact, max(a.start, b.start))
             return self._power(node, main, syms, env, order)
         if isinstance(node, Poch):
-            return Bound({}, True, self.poch_start(node, main, syms, env, order))
+            return self.poch_bound(node, main, syms, env, order)
         if isinstance(node, Call) and FUNCTIONS[node.name].unit_constant_term:
             return Bound({}, False, 0)
         if isinstance(node, BigO):
@@ -223,6 +223,69 @@ class TermBounds:
             start = self._eventually(b.poly, 1, main, max(start, b.start),
                                      "a q-Pochhammer parameter without positive valuation")
         return start
+
+    def poch_bound(self, node: Poch, main: str, syms: dict[str, int], env: dict[str, int],
+                   order: int) -> Bound:
+        """The valuation of (params; q^t)_n as n grows: 0 from some n on (``poch_start``),
+        or, when a fixed parameter is c q^v with v <= 0, the constant sum of the negative
+        valuations v + t j of its first factors, once n has passed them (the factor with
+        v + t j = 0 is 1 - c, a nonzero constant unless c = 1, which is refused).
+
+        >>> from qseries.lang.parser import parse
+        >>> from qseries.engine import Evaluator
+        >>> b = TermBounds(Evaluator()).poch_bound(parse("(-q^-3;q)_n", bound={"n"}), "n",
+        ...                                        {"n": 1}, {}, 10)
+        >>> b.poly, b.exact, b.start
+        ({(): Fraction(-6, 1)}, True, 4)
+        """
+        try:
+            return Bound({}, True, self.poch_start(node, main, syms, env, order))
+        except NoBound as err:
+            found = self._negative_parameters(node, main, syms, env, order)
+            if found is None:
+                raise err from None
+            return found
+
+    def _negative_parameters(self, node: Poch, main: str, syms: dict[str, int],
+                             env: dict[str, int], order: int) -> Bound | None:
+        ev = self.ev
+        if self._symbolic(node.base, syms) or node.length is None \
+                or not self._symbolic(node.length, syms):
+            return None
+        try:
+            t = ev._base_step(node, env, 1)
+        except QSeriesError:
+            return None
+        total, factors, start = Fraction(0), 0, 0
+        for p in node.params:
+            if not ev.has_q(p):
+                if self._symbolic(p, syms) or ev.scalar(p, env) == 1:
+                    return None
+                continue
+            if not self._symbolic(p, syms):
+                mono = ev._exact_monomial(p, env)
+                parts = monomial_parts(mono) if mono is not None else None
+                if parts is not None and parts[1].denominator == 1 and parts[1] <= 0:
+                    c, v = parts[0], int(parts[1])
+                    negative = (-v + t - 1) // t if v < 0 else 0   # j with v + t j < 0
+                    total += sum(v + t * j for j in range(negative))
+                    if v + t * negative == 0 and c == 1:
+                        return None                  # the factor 1 - 1: the term is 0
+                    factors = max(factors, negative + 1)
+                    continue
+                if self._unit_start(p, env, order):
+                    continue
+            try:
+                b = self.lower(p, main, syms, env, order)
+                start = self._eventually(b.poly, 1, main, max(start, b.start), "")
+            except NoBound:
+                return None
+        try:
+            start = self._eventually(self.poly_of(node.length, syms, env), factors, main,
+                                     start, "")
+        except NoBound:
+            return None
+        return Bound(sym.m_const(total) if total else {}, True, start)
 
     def _unit_start(self, p: Node, env: dict[str, int], order: int) -> bool:
         """True when the parameter is exactly c + O(q) with c a constant other than 1 (such

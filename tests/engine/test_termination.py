@@ -13,3 +13,24 @@ def test_an_inner_sum_from_an_outer_index_sees_the_difference_is_non_negative():
     lhs = "sum_{n_1>=n_2>=0} q^(n_1^2+n_2^2+n_1+n_2)/((q;q)_{n_1-n_2} (q;q)_{n_2})"
     rhs = "1/((q^2;q^7)_inf (q^3;q^7)_inf (q^4;q^7)_inf (q^5;q^7)_inf)"
     assert check(lhs, rhs, 150).holds is True
+
+
+def test_a_parameter_of_negative_valuation_in_a_sum():
+    # issue 13 item 8: (a;q)_n with a = -q^-3 has three factors of negative degree, then
+    # valuation -6 for ever: the sum terminates.  The q-binomial theorem
+    # sum (a;q)_n z^n/(q;q)_n = (az;q)_inf/(z;q)_inf (G. Gasper, M. Rahman, Basic
+    # Hypergeometric Series (2004), (1.3.2), from memory) at a = -q^-3, z = q^4
+    from qseries import check
+    for method in ("exact", "modular"):
+        r = check("sum_{n>=0} (-q^-3;q)_n q^(4n)/(q;q)_n", "(-q;q)_inf/(q^4;q)_inf", 100,
+                  method=method)
+        assert r.holds is True, method
+
+
+def test_a_parameter_with_a_factor_one_minus_one_is_still_refused_clearly():
+    import pytest
+
+    from qseries import evaluate
+    from qseries.errors import UnableError
+    with pytest.raises(UnableError, match="without positive valuation"):
+        evaluate("sum_{n>=0} (q^-2;q^2)_n q^(n^2)/(q^2;q^2)_n", 20)
