@@ -561,16 +561,19 @@ class LaurentRing(Ring):
         return self._wrap(p.m * self._qpow(k), p.shift)
 
     def _shift_down(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
-        """p / q^k for k >= 0; here p must be divisible by q^k (callers shift down
-        by at most the valuation).
+        """p // q^k for k >= 0: drops the k lowest coefficients, as in the other rings.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
         >>> R.coefficients(R.shift_down(R.poly([0, z]), 1))
         [z]
+        >>> R.coefficients(R.shift_down(R.poly([1, z, 2]), 1))
+        [z, 2]
         """
-        return self._wrap(p.m / self._qpow(k), p.shift) if k else p
+        # floor division by the monomial q^k (lex order, q first) drops the lower terms
+        return self._wrap(p.m // self._qpow(k), p.shift) if k else p
 
-    def _mul_low(self, a: LaurentPoly, b: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
+    def _mul_low(self, a: LaurentPoly, b: LaurentPoly,  # type: ignore[override]
+                 n: int) -> LaurentPoly:
         """a * b modulo q^n.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
