@@ -154,7 +154,7 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
     if s.precision is not None and s.precision < order:
         raise UnableError(f"only the coefficients below q^{s.precision} are known")
     # all coefficients in one pass over the series (not one extraction per size)
-    coeffs = s.ring.coefficients(s.poly)
+    coeffs = s.ring._coefficients(s.poly)
     out = []
     for n in sizes:
         i = n - s.start

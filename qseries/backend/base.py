@@ -20,7 +20,13 @@ from typing import Any
 
 import flint
 
-from ..errors import DomainError, UnableError
+from ..errors import (
+    ArgumentTypeError,
+    DomainError,
+    UnableError,
+    integer_argument,
+    typed_argument,
+)
 
 Number = int | Fraction
 
@@ -62,8 +68,12 @@ def _py_coeffs(p: Any) -> list[Number]:
 class Ring:
     """Operations on dense truncated polynomials over one coefficient ring.
 
-    Subclasses bind a FLINT polynomial type.  Methods whose name starts with an underscore
-    assume validated input, as in FLINT.
+    Subclasses bind a FLINT polynomial type.  Each operation on polynomials (``mul_low``,
+    ``inv_series``, ``inflate``, ...) is public once, here: it checks its arguments (the
+    polynomials are of this ring, lengths and exponents are non-negative ints, ...; an
+    ``ArgumentError`` naming the argument otherwise) and calls its unchecked twin
+    ``_mul_low``, ``_inv_series``, ...  Rings implement only the underscore methods, and
+    code inside qseries calls them directly (the checks are O(1), but the calls are many).
 
     >>> from qseries.backend import QQ
     >>> QQ.coefficients(QQ.mul_low(QQ.poly([1, 1]), QQ.poly([1, -1]), 3))
@@ -78,6 +88,10 @@ class Ring:
     #: p for GF(p), else None
     modulus: int | None = None
     _ptype: Any = None
+    #: the type of this ring's polynomials, which the public operations accept
+    _poly_type: type = object
+    #: the scalars c of ``binomial_mul`` / ``binomial_div`` (bool is refused)
+    _scalar_types: tuple[type, ...] = (int, Fraction, flint.fmpz, flint.fmpq, flint.nmod)
 
     @property
     def fractions(self) -> Ring:
@@ -148,44 +162,24 @@ class Ring:
         """
         return int(c)
 
-    def coefficients(self, p: Any) -> list[Number]:
-        """All coefficients of p as Python numbers, low degree first.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.poly([3, 0, -1]))
-        [3, 0, -1]
-        """
+    def _coefficients(self, p: Any) -> list[Number]:
+        """All coefficients of p as Python numbers, low degree first."""
         return [self.to_number(c) for c in p.coeffs()]
 
     # -- queries ---------------------------------------------------------------------
     @staticmethod
-    def length(p: Any) -> int:
-        """Number of coefficients up to the last nonzero one.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.length(ZZ.poly([1, 2, 0]))
-        2
-        """
+    def _length(p: Any) -> int:
+        """Number of coefficients up to the last nonzero one."""
         return p.length()
 
     @staticmethod
-    def coeff(p: Any, i: int) -> Any:
-        """Coefficient i of p (in the ring's own type).
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coeff(ZZ.poly([1, 2]), 1)
-        2
-        """
+    def _coeff(p: Any, i: int) -> Any:
+        """Coefficient i of p (in the ring's own type)."""
         return p[i]
 
     @staticmethod
-    def valuation(p: Any) -> int | None:
-        """Index of the first nonzero coefficient, or None for the zero polynomial.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.valuation(ZZ.poly([0, 0, 5])), ZZ.valuation(ZZ.zero())
-        (2, None)
-        """
+    def _valuation(p: Any) -> int | None:
+        """Index of the first nonzero coefficient, or None for the zero polynomial."""
         n = p.length()
         if n == 0:
             return None
@@ -205,13 +199,8 @@ class Ring:
 
     # -- arithmetic ------------------------------------------------------------------
     @staticmethod
-    def coefficient_bits(p: Any) -> int:
-        """Bits of the largest coefficient (numerators and denominators for QQ).
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficient_bits(ZZ.poly([1, 255]))
-        8
-        """
+    def _coefficient_bits(p: Any) -> int:
+        """Bits of the largest coefficient (numerators and denominators for QQ)."""
         if p.length() == 0:
             return 0
         if isinstance(p, flint.fmpz_poly):
@@ -221,23 +210,13 @@ class Ring:
         return 0   # modular coefficients do not grow
 
     @staticmethod
-    def truncate(p: Any, n: int) -> Any:
-        """p modulo q^n (n < 0 counts as 0).
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.truncate(ZZ.poly([1, 2, 3]), 2))
-        [1, 2]
-        """
+    def _truncate(p: Any, n: int) -> Any:
+        """p modulo q^n (n < 0 counts as 0)."""
         return p.truncate(max(n, 0))
 
     @staticmethod
-    def shift_up(p: Any, k: int) -> Any:
-        """p * q^k for k >= 0 (refused beyond MAX_SHIFT, where FLINT would abort).
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.shift_up(ZZ.poly([1, 2]), 2))
-        [0, 0, 1, 2]
-        """
+    def _shift_up(p: Any, k: int) -> Any:
+        """p * q^k for k >= 0 (refused beyond MAX_SHIFT, where FLINT would abort)."""
         if not k or p.length() == 0:
             return p
         if k + p.length() > MAX_SHIFT:
@@ -245,46 +224,26 @@ class Ring:
         return p.left_shift(k)
 
     @staticmethod
-    def shift_down(p: Any, k: int) -> Any:
-        """p // q^k for k >= 0 (drops the k lowest coefficients).
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.shift_down(ZZ.poly([1, 2, 3]), 1))
-        [2, 3]
-        """
+    def _shift_down(p: Any, k: int) -> Any:
+        """p // q^k for k >= 0 (drops the k lowest coefficients)."""
         return p.right_shift(k) if k else p
 
     @staticmethod
-    def mul_low(a: Any, b: Any, n: int) -> Any:
-        """a * b modulo q^n.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.mul_low(ZZ.poly([1, 1]), ZZ.poly([1, 1]), 2))
-        [1, 2]
-        """
+    def _mul_low(a: Any, b: Any, n: int) -> Any:
+        """a * b modulo q^n."""
         if n <= 0:
             return a.truncate(0)
         return a.mul_low(b, n)
 
     @staticmethod
-    def pow_low(p: Any, e: int, n: int) -> Any:
-        """p^e modulo q^n for e >= 0.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.pow_low(ZZ.poly([1, 1]), 3, 3))
-        [1, 3, 3]
-        """
+    def _pow_low(p: Any, e: int, n: int) -> Any:
+        """p^e modulo q^n for e >= 0."""
         if n <= 0:
             return p.truncate(0)
         return p.pow_trunc(e, n)
 
-    def inflate(self, p: Any, d: int) -> Any:
-        """p(q^d) for an integer d >= 1.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.inflate(ZZ.poly([1, 2]), 3))
-        [1, 0, 0, 2]
-        """
+    def _inflate(self, p: Any, d: int) -> Any:
+        """p(q^d) for an integer d >= 1."""
         if d == 1 or p.length() <= 1:
             return p
         coeffs = p.coeffs()
@@ -292,13 +251,8 @@ class Ring:
         out[::d] = coeffs
         return self._ptype(out)
 
-    def inv_series(self, p: Any, n: int) -> Any:
-        """1/p modulo q^n, by Newton iteration; p[0] must be a unit (checked).
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.inv_series(ZZ.poly([1, -1]), 4))
-        [1, 1, 1, 1]
-        """
+    def _inv_series(self, p: Any, n: int) -> Any:
+        """1/p modulo q^n, by Newton iteration; p[0] must be a unit (checked)."""
         if n <= 0:
             return self.zero()
         c0 = p[0] if p.length() else self.coerce(0)
@@ -310,43 +264,33 @@ class Ring:
         two = self._ptype([2])
         while m < n:
             m = min(2 * m, n)
-            e = two - self.mul_low(p.truncate(m), g, m)
-            g = self.mul_low(g, e, m)
+            e = two - self._mul_low(p.truncate(m), g, m)
+            g = self._mul_low(g, e, m)
         return g
 
     def _unit_inverse(self, c: Any) -> Any:  # pragma: no cover - abstract
         raise NotImplementedError
 
-    def binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
-        """p * (1 - c q^j), truncated to length n when n is not None; O(length) work.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.binomial_mul(ZZ.poly([1, 1]), 1, 1, None))
-        [1, 0, -1]
-        """
+    def _binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
+        """p * (1 - c q^j), truncated to length n when n is not None; O(length) work."""
         if n is not None and j >= n:
             return p.truncate(max(n, 0))
         if n is not None:
             p = p.truncate(max(n, 0))
-            shifted = self.shift_up(p.truncate(max(n - j, 0)), j)
+            shifted = self._shift_up(p.truncate(max(n - j, 0)), j)
         else:
-            shifted = self.shift_up(p, j)
+            shifted = self._shift_up(p, j)
         cc = self._multiplier(c)
         return p - shifted if cc == 1 else p - shifted * cc
 
-    def binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
+    def _binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
         """p / (1 - c q^j) modulo q^n for j >= 1, by the doubling
-        1/(1-x) = (1+x)(1+x^2)(1+x^4)...; each step is a shift and an add.
-
-        >>> from qseries.backend import ZZ
-        >>> ZZ.coefficients(ZZ.binomial_div(ZZ.poly([1]), 2, 1, 4))
-        [1, 2, 4, 8]
-        """
+        1/(1-x) = (1+x)(1+x^2)(1+x^4)...; each step is a shift and an add."""
         p = p.truncate(max(n, 0))
         cc = self._multiplier(c)
         step = j
         while step < n and cc != 0:
-            shifted = self.shift_up(p.truncate(n - step), step)
+            shifted = self._shift_up(p.truncate(n - step), step)
             p = p + shifted if cc == 1 else p + shifted * cc
             step *= 2
             cc = self._multiplier(cc * cc)
@@ -356,19 +300,224 @@ class Ring:
         """c as a scalar that polynomials of this ring can be multiplied by."""
         return self.coerce(c)
 
-    def exp_integral(self, s: list[int], n: int) -> Any | None:
+    def _exp_integral(self, s: list[int], n: int) -> Any | None:
         """exp(sum_{k>=1} s[k] q^k / k) modulo q^n for integers s[k] (s[0] is ignored): the
         Euler transform, which turns a long product of binomials into a logarithm known in
         closed form.  None where this ring cannot divide by k < n.  Here (for ZZ) the result
-        must be integral, else ``ArithmeticError``; QQ also accepts a rational one.
+        must be integral, else ``ArithmeticError``; QQ also accepts a rational one."""
+        if n <= 0:
+            return self.zero()
+        return self.poly_from_ints(exp_online(s, n, flint.fmpz_poly, _exact_quotient))
+
+    # -- the public operations: check the arguments, then call the unchecked ``_name`` --
+    # Each check is O(1) (types and signs, never a pass over coefficients).  Subclasses
+    # implement only ``_name``; code inside qseries calls ``_name`` directly.
+    def _poly_argument(self, name: str, p: Any) -> None:
+        """Refuse ``p`` unless it is a polynomial of this ring (``ArgumentTypeError`` naming
+        the argument ``name``); GF(p) and the Laurent rings also check the modulus or ring.
+
+        >>> from qseries.backend import QQ, ZZ
+        >>> ZZ.length(QQ.poly([1]))  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentTypeError: p must be a polynomial over ZZ (fmpz_poly), not 1 ...
+        """
+        if not isinstance(p, self._poly_type):
+            typed_argument(name, p, self._poly_type,
+                           f"a polynomial over {self.name} ({self._poly_type.__name__})")
+
+    def _scalar_argument(self, name: str, c: Any) -> None:
+        if isinstance(c, bool) or not isinstance(c, self._scalar_types):
+            raise ArgumentTypeError(f"{name} must be a number (int or Fraction) or a coefficient "
+                                    f"of {self.name}, not {c!r:.60} ({type(c).__name__})")
+
+    def coefficients(self, p: Any) -> list[Any]:
+        """All coefficients of p as Python numbers (scalars over a Laurent ring), low degree
+        first.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.poly([3, 0, -1]))
+        [3, 0, -1]
+        >>> ZZ.coefficients([3, 0, -1])  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentTypeError: p must be a polynomial over ZZ (fmpz_poly), not [3, ...
+        """
+        self._poly_argument("p", p)
+        return self._coefficients(p)
+
+    def length(self, p: Any) -> int:
+        """Number of coefficients up to the last nonzero one (one more than the degree in q).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.length(ZZ.poly([1, 2, 0]))
+        2
+        """
+        self._poly_argument("p", p)
+        return self._length(p)
+
+    def coeff(self, p: Any, i: int) -> Any:
+        """Coefficient i >= 0 of p (in the ring's own type; 0 beyond the degree).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coeff(ZZ.poly([1, 2]), 1)
+        2
+        >>> ZZ.coeff(ZZ.poly([1, 2]), -1)
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentError: i must be an integer non-negative, not -1
+        """
+        self._poly_argument("p", p)
+        integer_argument("i", i, 0)
+        return self._coeff(p, i)
+
+    def valuation(self, p: Any) -> int | None:
+        """Index of the first nonzero coefficient, or None for the zero polynomial.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.valuation(ZZ.poly([0, 0, 5])), ZZ.valuation(ZZ.zero())
+        (2, None)
+        """
+        self._poly_argument("p", p)
+        return self._valuation(p)
+
+    def coefficient_bits(self, p: Any) -> int:
+        """Bits of the largest coefficient (numerators and denominators over QQ).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficient_bits(ZZ.poly([1, 255]))
+        8
+        """
+        self._poly_argument("p", p)
+        return self._coefficient_bits(p)
+
+    def truncate(self, p: Any, n: int) -> Any:
+        """p modulo q^n for n >= 0.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.truncate(ZZ.poly([1, 2, 3]), 2))
+        [1, 2]
+        """
+        self._poly_argument("p", p)
+        integer_argument("n", n, 0)
+        return self._truncate(p, n)
+
+    def shift_up(self, p: Any, k: int) -> Any:
+        """p * q^k for k >= 0 (refused beyond MAX_SHIFT, where FLINT would abort).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.shift_up(ZZ.poly([1, 2]), 2))
+        [0, 0, 1, 2]
+        """
+        self._poly_argument("p", p)
+        integer_argument("k", k, 0)
+        return self._shift_up(p, k)
+
+    def shift_down(self, p: Any, k: int) -> Any:
+        """p // q^k for k >= 0: drops the k lowest coefficients (over a Laurent ring p must
+        be divisible by q^k).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.shift_down(ZZ.poly([1, 2, 3]), 1))
+        [2, 3]
+        """
+        self._poly_argument("p", p)
+        integer_argument("k", k, 0)
+        return self._shift_down(p, k)
+
+    def mul_low(self, a: Any, b: Any, n: int) -> Any:
+        """a * b modulo q^n for n >= 0.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.mul_low(ZZ.poly([1, 1]), ZZ.poly([1, 1]), 2))
+        [1, 2]
+        >>> ZZ.mul_low(ZZ.poly([1, 1]), ZZ.poly([1, 1]), 'x')
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentTypeError: n must be an integer, not 'x' (str)
+        """
+        self._poly_argument("a", a)
+        self._poly_argument("b", b)
+        integer_argument("n", n, 0)
+        return self._mul_low(a, b, n)
+
+    def pow_low(self, p: Any, e: int, n: int) -> Any:
+        """p^e modulo q^n for e >= 0 and n >= 0.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.pow_low(ZZ.poly([1, 1]), 3, 3))
+        [1, 3, 3]
+        """
+        self._poly_argument("p", p)
+        integer_argument("e", e, 0)
+        integer_argument("n", n, 0)
+        return self._pow_low(p, e, n)
+
+    def inflate(self, p: Any, d: int) -> Any:
+        """p(q^d) for an integer d >= 1.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.inflate(ZZ.poly([1, 2]), 3))
+        [1, 0, 0, 2]
+        >>> ZZ.inflate(ZZ.poly([1, 2]), 0)
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentError: d must be an integer positive, not 0
+        """
+        self._poly_argument("p", p)
+        integer_argument("d", d, 1)
+        return self._inflate(p, d)
+
+    def inv_series(self, p: Any, n: int) -> Any:
+        """1/p modulo q^n for n >= 0; the constant term of p must be a unit (else a
+        ``DomainError``).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.inv_series(ZZ.poly([1, -1]), 4))
+        [1, 1, 1, 1]
+        """
+        self._poly_argument("p", p)
+        integer_argument("n", n, 0)
+        return self._inv_series(p, n)
+
+    def binomial_mul(self, p: Any, c: Any, j: int, n: int | None) -> Any:
+        """p * (1 - c q^j) for j >= 0, truncated to length n >= 0 when n is not None.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.binomial_mul(ZZ.poly([1, 1]), 1, 1, None))
+        [1, 0, -1]
+        """
+        self._poly_argument("p", p)
+        self._scalar_argument("c", c)
+        integer_argument("j", j, 0)
+        if n is not None:
+            integer_argument("n", n, 0)
+        return self._binomial_mul(p, c, j, n)
+
+    def binomial_div(self, p: Any, c: Any, j: int, n: int) -> Any:
+        """p / (1 - c q^j) modulo q^n for j >= 1 and n >= 0.
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.binomial_div(ZZ.poly([1]), 2, 1, 4))
+        [1, 2, 4, 8]
+        """
+        self._poly_argument("p", p)
+        self._scalar_argument("c", c)
+        integer_argument("j", j, 1)
+        integer_argument("n", n, 0)
+        return self._binomial_div(p, c, j, n)
+
+    def exp_integral(self, s: list[int], n: int) -> Any | None:
+        """exp(sum_{k>=1} s[k] q^k / k) modulo q^n for a list of integers s (s[0] is
+        ignored) and n >= 0; None where this ring cannot compute it (see ``_exp_integral``).
 
         >>> from qseries.backend import ZZ
         >>> ZZ.coefficients(ZZ.exp_integral([0, -1, -1], 3))   # exp(log(1 - q)) = 1 - q
         [1, -1]
         """
-        if n <= 0:
-            return self.zero()
-        return self.poly_from_ints(exp_online(s, n, flint.fmpz_poly, _exact_quotient))
+        typed_argument("s", s, (list, tuple), "a list of integers")
+        integer_argument("n", n, 0)
+        return self._exp_integral(s, n)
 
 
 def _exact_quotient(a: Any, k: int) -> Any:

@@ -28,6 +28,7 @@ class IntegerRing(Ring):
 
     name = "ZZ"
     _ptype = flint.fmpz_poly
+    _poly_type = flint.fmpz_poly
     int_coefficients = True
 
     @property

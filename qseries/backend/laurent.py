@@ -20,6 +20,7 @@ from typing import Any
 import flint
 
 from ..errors import (
+    ArgumentTypeError,
     DomainError,
     IncompatibleRingError,
     UnableError,
@@ -192,7 +193,7 @@ class LaurentPoly:
             for d in self.m.degrees():
                 box *= int(d) * e + 1
             # each coefficient of the power has at most e * (bits + log2(terms)) bits
-            bits = e * (self.ring.coefficient_bits(self) + len(self.m).bit_length())
+            bits = e * (self.ring._coefficient_bits(self) + len(self.m).bit_length())
             if box > MAX_LAURENT_PRODUCT or min(box, e + 1) * bits > MAX_LAURENT_BITS:
                 raise UnableError(f"the power ({laurent_text(self)[:40]})^{e} is beyond the "
                                   f"limit (up to {_about(box)} terms of up to {_about(bits)} "
@@ -289,7 +290,23 @@ class LaurentRing(Ring):
         self._no_shift = (0,) * len(names)
         self._qpowers: dict[int, Any] = {}
 
-    def exp_integral(self, s: list[int], n: int) -> Any | None:
+    _poly_type = LaurentPoly
+    _scalar_types = (*Ring._scalar_types, LaurentPoly)
+
+    def _poly_argument(self, name: str, p: Any) -> None:
+        """As :meth:`Ring._poly_argument`, and ``p`` must belong to this very ring.
+
+        >>> laurent_ring(("z",)).length(laurent_ring(("a",)).zero())  # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentTypeError: p must be ... ZZ[z and inverses], not one over ZZ[a ...
+        """
+        super()._poly_argument(name, p)
+        if p.ring is not self:
+            raise ArgumentTypeError(f"{name} must be a polynomial over {self.name}, not one "
+                                    f"over {p.ring.name}")
+
+    def _exp_integral(self, s: list[int], n: int) -> Any | None:
         """None: a product over this ring is multiplied out factor by factor.
 
         >>> laurent_ring(("z",)).exp_integral([0, -1], 3) is None
@@ -427,14 +444,14 @@ class LaurentRing(Ring):
             return c
         return _number(c)
 
-    def coefficients(self, p: LaurentPoly) -> list[Any]:
+    def _coefficients(self, p: LaurentPoly) -> list[Any]:
         """All coefficients of p (in q), low degree first: numbers where constant, else scalars.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
         >>> R.coefficients(R.poly([2, z + 1]))
         [2, z + 1]
         """
-        n = self.length(p)
+        n = self._length(p)
         buckets: list[dict] = [{} for _ in range(n)]
         for exps, c in p.m.to_dict().items():
             buckets[int(exps[0])][(0, *exps[1:])] = c
@@ -447,7 +464,7 @@ class LaurentRing(Ring):
         return out
 
     # -- queries ---------------------------------------------------------------------
-    def length(self, p: LaurentPoly) -> int:  # type: ignore[override]
+    def _length(self, p: LaurentPoly) -> int:  # type: ignore[override]
         """One more than the degree in q (0 for the zero polynomial).
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -456,7 +473,7 @@ class LaurentRing(Ring):
         """
         return 0 if p.m.is_zero() else int(p.m.degrees()[0]) + 1
 
-    def coeff(self, p: LaurentPoly, i: int) -> LaurentPoly:  # type: ignore[override]
+    def _coeff(self, p: LaurentPoly, i: int) -> LaurentPoly:  # type: ignore[override]
         """The coefficient of q^i of p, as a scalar.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -466,7 +483,7 @@ class LaurentRing(Ring):
         part = (p.m % self._qpow(i + 1)) - (p.m % self._qpow(i)) if i else p.m % self._q
         return self._wrap(part / self._qpow(i) if i else part, p.shift)
 
-    def valuation(self, p: LaurentPoly) -> int | None:  # type: ignore[override]
+    def _valuation(self, p: LaurentPoly) -> int | None:  # type: ignore[override]
         """The least exponent of q in p, or None for the zero polynomial.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -501,7 +518,7 @@ class LaurentRing(Ring):
         return self._wrap(inv, tuple(-(e + s) for e, s in zip(exps[1:], c.shift, strict=True)))
 
     # -- arithmetic ------------------------------------------------------------------
-    def coefficient_bits(self, p: LaurentPoly) -> int:  # type: ignore[override]
+    def _coefficient_bits(self, p: LaurentPoly) -> int:  # type: ignore[override]
         """Bits of the largest numeric coefficient (numerator plus denominator over QQ).
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -516,7 +533,7 @@ class LaurentRing(Ring):
                 best = max(best, int(c).bit_length())
         return best
 
-    def truncate(self, p: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
+    def _truncate(self, p: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
         """p modulo q^n.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -529,7 +546,7 @@ class LaurentRing(Ring):
             return p
         return self._wrap(p.m % self._qpow(n), p.shift)
 
-    def shift_up(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
+    def _shift_up(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
         """p * q^k for k >= 0 (refused beyond MAX_SHIFT).
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -538,22 +555,25 @@ class LaurentRing(Ring):
         """
         if not k or p.m.is_zero():
             return p
-        if k + self.length(p) > MAX_SHIFT:
-            raise UnableError(f"a polynomial of degree {k + self.length(p) - 1} exceeds the "
+        if k + self._length(p) > MAX_SHIFT:
+            raise UnableError(f"a polynomial of degree {k + self._length(p) - 1} exceeds the "
                               f"limit")
         return self._wrap(p.m * self._qpow(k), p.shift)
 
-    def shift_down(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
-        """p / q^k for k >= 0; here p must be divisible by q^k (callers shift down
-        by at most the valuation).
+    def _shift_down(self, p: LaurentPoly, k: int) -> LaurentPoly:  # type: ignore[override]
+        """p // q^k for k >= 0: drops the k lowest coefficients, as in the other rings.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
         >>> R.coefficients(R.shift_down(R.poly([0, z]), 1))
         [z]
+        >>> R.coefficients(R.shift_down(R.poly([1, z, 2]), 1))
+        [z, 2]
         """
-        return self._wrap(p.m / self._qpow(k), p.shift) if k else p
+        # floor division by the monomial q^k (lex order, q first) drops the lower terms
+        return self._wrap(p.m // self._qpow(k), p.shift) if k else p
 
-    def mul_low(self, a: LaurentPoly, b: LaurentPoly, n: int) -> LaurentPoly:  # type: ignore[override]
+    def _mul_low(self, a: LaurentPoly, b: LaurentPoly,  # type: ignore[override]
+                 n: int) -> LaurentPoly:
         """a * b modulo q^n.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -562,9 +582,9 @@ class LaurentRing(Ring):
         """
         if n <= 0:
             return self.zero()
-        return self.truncate(self.truncate(a, n) * self.truncate(b, n), n)
+        return self._truncate(self._truncate(a, n) * self._truncate(b, n), n)
 
-    def pow_low(self, p: LaurentPoly, e: int, n: int) -> LaurentPoly:  # type: ignore[override]
+    def _pow_low(self, p: LaurentPoly, e: int, n: int) -> LaurentPoly:  # type: ignore[override]
         """p^e modulo q^n for e >= 0, by repeated squaring.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -572,16 +592,16 @@ class LaurentRing(Ring):
         [1, 3*z, 3*z^2]
         """
         result = self.coerce(1)
-        base = self.truncate(p, n)
+        base = self._truncate(p, n)
         while e:
             if e & 1:
-                result = self.mul_low(result, base, n)
+                result = self._mul_low(result, base, n)
             e >>= 1
             if e:
-                base = self.mul_low(base, base, n)
+                base = self._mul_low(base, base, n)
         return result
 
-    def inflate(self, p: LaurentPoly, d: int) -> LaurentPoly:
+    def _inflate(self, p: LaurentPoly, d: int) -> LaurentPoly:
         """p(q^d) for an integer d >= 1.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -593,7 +613,7 @@ class LaurentRing(Ring):
         return self._wrap(self.ctx.from_dict({(e[0] * d, *e[1:]): c
                                               for e, c in p.m.to_dict().items()}), p.shift)
 
-    def inv_series(self, p: LaurentPoly, n: int) -> LaurentPoly:
+    def _inv_series(self, p: LaurentPoly, n: int) -> LaurentPoly:
         """1/p modulo q^n by Newton iteration; the constant term must be a unit (a single
         term), else the error suggests a weight.
 
@@ -603,7 +623,7 @@ class LaurentRing(Ring):
         """
         if n <= 0:
             return self.zero()
-        c0 = self.coeff(p, 0)
+        c0 = self._coeff(p, 0)
         if not self.is_unit(c0):
             text = laurent_text(c0) if c0 else "0"
             raise weight_may_help(DomainError(
@@ -614,11 +634,11 @@ class LaurentRing(Ring):
         m = 1
         while m < n:
             m = min(2 * m, n)
-            e = 2 - self.mul_low(p, g, m)
-            g = self.mul_low(g, e, m)
+            e = 2 - self._mul_low(p, g, m)
+            g = self._mul_low(g, e, m)
         return g
 
-    def binomial_mul(self, p: LaurentPoly, c: Any, j: int, n: int | None) -> LaurentPoly:
+    def _binomial_mul(self, p: LaurentPoly, c: Any, j: int, n: int | None) -> LaurentPoly:
         """p * (1 - c q^j) for a scalar c, truncated to length n when n is not None.
 
         >>> R = laurent_ring(("z",)); z = R.gen("z")
@@ -627,14 +647,14 @@ class LaurentRing(Ring):
         """
         if n is not None:
             if j >= n:
-                return self.truncate(p, n)
-            p = self.truncate(p, n)
-            shifted = self.shift_up(self.truncate(p, n - j), j)
+                return self._truncate(p, n)
+            p = self._truncate(p, n)
+            shifted = self._shift_up(self._truncate(p, n - j), j)
         else:
-            shifted = self.shift_up(p, j)
+            shifted = self._shift_up(p, j)
         return p - shifted * self.coerce(c)
 
-    def binomial_div(self, p: LaurentPoly, c: Any, j: int, n: int) -> LaurentPoly:
+    def _binomial_div(self, p: LaurentPoly, c: Any, j: int, n: int) -> LaurentPoly:
         """p / (1 - c q^j) modulo q^n for j >= 1 and a scalar c, by the doubling
         (1+x)(1+x^2)(1+x^4)...
 
@@ -642,11 +662,11 @@ class LaurentRing(Ring):
         >>> R.coefficients(R.binomial_div(R.poly([1]), z, 1, 3))
         [1, z, z^2]
         """
-        p = self.truncate(p, n)
+        p = self._truncate(p, n)
         cc = self.coerce(c)
         step = j
         while step < n and cc:
-            p = p + self.shift_up(self.truncate(p, n - step), step) * cc
+            p = p + self._shift_up(self._truncate(p, n - step), step) * cc
             step *= 2
             cc = cc * cc
         return p

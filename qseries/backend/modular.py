@@ -34,6 +34,7 @@ class ModularRing(Ring):
 
     exact = False
     int_coefficients = True
+    _poly_type = flint.nmod_poly
 
     def __init__(self, p: int) -> None:
         if p < 2 or not flint.fmpz(p).is_prime():
@@ -43,6 +44,19 @@ class ModularRing(Ring):
         self.p = p
         self.modulus = p
         self.name = f"GF({p})"
+
+    def _poly_argument(self, name: str, p: Any) -> None:
+        """As :meth:`Ring._poly_argument`, and the modulus must be p.
+
+        >>> GF(7).length(GF(5).poly([1]))
+        Traceback (most recent call last):
+        ...
+        qseries.errors.ArgumentTypeError: p must be a polynomial over GF(7), not one over GF(5)
+        """
+        super()._poly_argument(name, p)
+        if p.modulus() != self.p:
+            raise ArgumentTypeError(f"{name} must be a polynomial over {self.name}, not one "
+                                    f"over GF({p.modulus()})")
 
     def _ptype(self, coeffs: list) -> Any:  # type: ignore[override]
         return flint.nmod_poly([int(c) for c in coeffs], self.p)
@@ -98,7 +112,7 @@ class ModularRing(Ring):
     def _unit_inverse(self, c: Any) -> Any:
         return 1 / c
 
-    def inv_series(self, p: Any, n: int) -> Any:
+    def _inv_series(self, p: Any, n: int) -> Any:
         """1/p modulo q^n by FLINT's ``inverse_series_trunc``; p[0] must be nonzero
         (checked: FLINT itself only rejects the zero polynomial).
 
@@ -111,7 +125,7 @@ class ModularRing(Ring):
             raise DomainError(f"constant term is not invertible modulo {self.p}")
         return p.inverse_series_trunc(n)
 
-    def exp_integral(self, s: list[int], n: int) -> Any | None:
+    def _exp_integral(self, s: list[int], n: int) -> Any | None:
         """As :meth:`Ring.exp_integral` modulo p, by Newton's iteration; None unless p > n
         (the logarithm divides by every k < n).
 
@@ -152,7 +166,7 @@ class ModularRing(Ring):
         """
         return flint.nmod_poly([], self.p)
 
-    def inflate(self, p: Any, d: int) -> Any:
+    def _inflate(self, p: Any, d: int) -> Any:
         """p(q^d) for an integer d >= 1.
 
         >>> GF(3).coefficients(GF(3).inflate(GF(3).poly([1, 2]), 2))

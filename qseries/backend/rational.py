@@ -25,6 +25,7 @@ class RationalRing(Ring):
 
     name = "QQ"
     _ptype = flint.fmpq_poly
+    _poly_type = flint.fmpq_poly
 
     def coerce(self, c: Number) -> Any:
         """A number (int, Fraction, fmpz, fmpq) as an fmpq.
@@ -70,7 +71,7 @@ class RationalRing(Ring):
     def _unit_inverse(self, c: Any) -> Any:
         return 1 / c
 
-    def exp_integral(self, s: list[int], n: int) -> Any | None:
+    def _exp_integral(self, s: list[int], n: int) -> Any | None:
         """As :meth:`Ring.exp_integral`, with rational coefficients where they arise.
 
         >>> QQ.coefficients(QQ.exp_integral([0, 1], 4))      # exp(q)

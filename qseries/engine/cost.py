@@ -86,11 +86,11 @@ def footprint(s: Series) -> int:
     24
     """
     R = s.ring
-    n = R.length(s.poly)
+    n = R._length(s.poly)
     if getattr(R, "names", ()):
         return 16 * sum(len(c.terms()) if hasattr(c, "terms") else 1
-                        for c in R.coefficients(s.poly))
-    return n * max(R.coefficient_bits(s.poly), 64) // 8
+                        for c in R._coefficients(s.poly))
+    return n * max(R._coefficient_bits(s.poly), 64) // 8
 
 
 def _growth(small: float, large: float, ratio: float, lo: float, hi: float) -> float:

@@ -149,7 +149,7 @@ class Evaluator:
         return None
 
     def _is_unit(self, s: Series, order: int) -> bool:
-        return (s.offset == 0 and s.valuation == 0 and s.ring.is_unit(s.ring.coeff(s.poly, 0))
+        return (s.offset == 0 and s.valuation == 0 and s.ring.is_unit(s.ring._coeff(s.poly, 0))
                 and (s.precision is None or s.precision >= order))
 
     def _evaluate(self, node: Node, order: int, retries: int) -> Series:

@@ -63,7 +63,7 @@ def scalar_power(c: LaurentPoly, n: int) -> LaurentPoly:
         raise weight_may_help(DomainError(
             f"{c} is not a monomial, so its negative powers are not Laurent polynomials (give "
             f"the extra variables a weight to expand them)"))
-    bits = c.ring.coefficient_bits(c)
+    bits = c.ring._coefficient_bits(c)
     one = 2 if getattr(c.ring, "rational", False) else 1     # the bits of the coefficient 1
     growth = 0 if bits <= one and c.ring.is_unit(c) else max(bits, 1)  # +-z^k stays small
     if abs(n) * growth > MAX_BITS or abs(n) > MAX_LENGTH:
@@ -164,17 +164,17 @@ def binomial_parts(s: Series) -> tuple[Fraction | int, int] | None:
     if not s.is_exact or s.offset != 0 or s.start != 0:
         return None
     R = s.ring
-    n = R.length(s.poly)
+    n = R._length(s.poly)
     if n < 2 or n > 1 << 20:
         return None
-    if R.coeff(s.poly, 0) != 1:
+    if R._coeff(s.poly, 0) != 1:
         return None
     j = n - 1
     if n > 2:
         for i in range(1, j):
-            if R.coeff(s.poly, i) != 0:
+            if R._coeff(s.poly, i) != 0:
                 return None
-    return -R.to_number(R.coeff(s.poly, j)), j
+    return -R.to_number(R._coeff(s.poly, j)), j
 
 
 def times_binomial(acc: Series, a: Series, mono: tuple | None, shift: int, times: int,

@@ -30,9 +30,9 @@ def monomial_parts(s: Series) -> tuple[int | Fraction, Fraction] | None:
     >>> monomial_parts(Series.monomial(3, c=-2))
     (-2, Fraction(3, 1))
     """
-    if not s.is_exact or s.is_zero() or s.ring.length(s.poly) != 1:
+    if not s.is_exact or s.is_zero() or s.ring._length(s.poly) != 1:
         return None
-    return s.ring.to_number(s.ring.coeff(s.poly, 0)), Fraction(s.start) + s.offset
+    return s.ring.to_number(s.ring._coeff(s.poly, 0)), Fraction(s.start) + s.offset
 
 
 def has_zero_factor(a: Series, t: int, n: int | None) -> bool:
@@ -353,7 +353,7 @@ def euler_log(c: int, a: int, t: int, order: int, modulus: int | None = None) ->
 def _euler_transform(c: int, a: int, t: int, ring: Ring, order: int) -> Series | None:
     """(c q^a; q^t)_inf modulo q^order as exp of its logarithm (None where the ring has no
     exponential: a prime not above the order, extra variables)."""
-    poly = ring.exp_integral(euler_log(c, a, t, order, ring.modulus), order)
+    poly = ring._exp_integral(euler_log(c, a, t, order, ring.modulus), order)
     if poly is None:
         return None
     return Series(ring, poly, 0, 0, order)

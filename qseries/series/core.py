@@ -178,15 +178,15 @@ class Series:
         if prec is not None:
             if prec - start > MAX_LENGTH:
                 raise UnableError(f"precision O(q^{prec}) exceeds the limit {MAX_LENGTH}")
-            poly = ring.truncate(poly, prec - start)
-        v = ring.valuation(poly)
+            poly = ring._truncate(poly, prec - start)
+        v = ring._valuation(poly)
         if v is None:
             start = prec if prec is not None else 0
         elif v:
-            poly = ring.shift_down(poly, v)
+            poly = ring._shift_down(poly, v)
             start += v
-        if ring.length(poly) > MAX_LENGTH:
-            raise UnableError(f"a polynomial of length {ring.length(poly)} exceeds the limit")
+        if ring._length(poly) > MAX_LENGTH:
+            raise UnableError(f"a polynomial of length {ring._length(poly)} exceeds the limit")
         self.ring = ring
         self.poly = poly
         self.start = start
@@ -279,7 +279,7 @@ class Series:
 
     def is_zero(self) -> bool:
         """True when every known coefficient vanishes (``O(q^N)`` counts as zero to that order)."""
-        return self.ring.length(self.poly) == 0
+        return self.ring._length(self.poly) == 0
 
     @property
     def valuation(self) -> Exponent | None:
@@ -318,9 +318,9 @@ class Series:
         if f != self.offset:
             return 0
         i = n - self.start
-        if i < 0 or i >= self.ring.length(self.poly):
+        if i < 0 or i >= self.ring._length(self.poly):
             return 0
-        return self.ring.to_number(self.ring.coeff(self.poly, i))
+        return self.ring.to_number(self.ring._coeff(self.poly, i))
 
     @overload
     def __getitem__(self, e: slice) -> Series: ...
@@ -357,12 +357,12 @@ class Series:
                                  f"not known")
         R, poly, prec = self.ring, self.poly, self.prec
         if hi is not None:        # exponents offset + k with k < ceil(hi - offset)
-            poly = R.truncate(poly, _ceil(hi - self.offset) - self.start)
+            poly = R._truncate(poly, _ceil(hi - self.offset) - self.start)
             prec = None
         if lo is not None:
             k_lo = _ceil(lo - self.offset)
             if k_lo > self.start:
-                poly = poly - R.truncate(poly, k_lo - self.start)
+                poly = poly - R._truncate(poly, k_lo - self.start)
             if prec is not None:  # the tail is known to vanish below q^lo
                 prec = max(prec, k_lo)
         return Series(R, poly, self.start, self.offset, prec)
@@ -416,7 +416,7 @@ class Series:
         >>> list(Series.from_coefficients([1, 0, -3], start=-1).terms())
         [(-1, 1), (1, -3)]
         """
-        for i, c in enumerate(self.ring.coefficients(self.poly)):
+        for i, c in enumerate(self.ring._coefficients(self.poly)):
             if c:
                 e = self.start + i + self.offset
                 yield (e.numerator if e.denominator == 1 else e), c
@@ -463,7 +463,7 @@ class Series:
                                 f"(its valuation), or slice f[a:b] for a window")
         base = int(v - s)             # the position of the first term in the list
         R = self.ring
-        coeffs = R.coefficients(R.truncate(self.poly, n - base))
+        coeffs = R._coefficients(R._truncate(self.poly, n - base))
         out: list[Number] = [0] * n
         out[base:base + len(coeffs)] = coeffs
         return out
@@ -537,7 +537,7 @@ class Series:
         s = min(a.start, b.start)
         if prec is not None:
             s = min(s, prec)
-        top = max(a.start + R.length(a.poly), b.start + R.length(b.poly))
+        top = max(a.start + R._length(a.poly), b.start + R._length(b.poly))
         if prec is not None:
             top = min(top, prec)
         if top - s > MAX_LENGTH:
@@ -545,8 +545,8 @@ class Series:
                               f"{MAX_LENGTH}")
         polys = []
         for x in (a, b):
-            px = x.poly if prec is None else R.truncate(x.poly, prec - x.start)
-            polys.append(R.shift_up(px, x.start - s) if R.length(px) else px)
+            px = x.poly if prec is None else R._truncate(x.poly, prec - x.start)
+            polys.append(R._shift_up(px, x.start - s) if R._length(px) else px)
         return Series(R, polys[0] + polys[1], s, a.offset, prec)._capped(
             _min_prec(a.precision, b.precision))
 
@@ -596,12 +596,12 @@ class Series:
                           prec + carry if prec is not None else None)._capped(absolute)
         start = va + vb + carry
         if prec is None:
-            if R.length(a.poly) + R.length(b.poly) > MAX_LENGTH:
+            if R._length(a.poly) + R._length(b.poly) > MAX_LENGTH:
                 raise UnableError("the exact product is too long; truncate first")
             poly = a.poly * b.poly
         else:
             prec += carry
-            poly = R.mul_low(a.poly, b.poly, prec - start)
+            poly = R._mul_low(a.poly, b.poly, prec - start)
         return Series(R, poly, start, off, prec)._capped(absolute)
 
     __rmul__ = __mul__
@@ -622,14 +622,14 @@ class Series:
             return Series.zero(a.ring)
         R = a.ring
         start = va + vb
-        if start + R.length(a.poly) + R.length(b.poly) - 1 <= order:
+        if start + R._length(a.poly) + R._length(b.poly) - 1 <= order:
             return Series(R, a.poly * b.poly, start, 0, None)
         for x, y in ((a, b), (b, a)):
-            if R.length(x.poly) == 1:   # a monomial: a scalar multiple, no multiplication
-                c = R.coeff(x.poly, 0)
-                poly = R.truncate(y.poly, order - start)
+            if R._length(x.poly) == 1:   # a monomial: a scalar multiple, no multiplication
+                c = R._coeff(x.poly, 0)
+                poly = R._truncate(y.poly, order - start)
                 return Series(R, poly if c == 1 else poly * c, start, 0, order)
-        return Series(R, R.mul_low(a.poly, b.poly, order - start), start, 0, order)
+        return Series(R, R._mul_low(a.poly, b.poly, order - start), start, 0, order)
 
     def shift(self, e: Exponent) -> Series:
         """Multiply by q^e (e an integer or a Fraction); precision moves with it.
@@ -655,7 +655,7 @@ class Series:
         """
         if self.prec is not None and self.prec <= order:
             return self
-        if self.prec is None and self.start + self.ring.length(self.poly) <= order:
+        if self.prec is None and self.start + self.ring._length(self.poly) <= order:
             return self
         return self._with(self.poly, self.start, self.offset, order, cap=self.cap)
 
@@ -679,10 +679,10 @@ class Series:
         """
         v, u, r = self._unit_part()
         R = self.ring
-        if not R.is_unit(R.coeff(u, 0)):
+        if not R.is_unit(R._coeff(u, 0)):
             if R.fractions != R:
                 return self.change_ring(R.fractions).inverse(order)
-            c0 = R.to_number(R.coeff(u, 0))
+            c0 = R.to_number(R._coeff(u, 0))
             if isinstance(c0, LaurentPoly):
                 raise weight_may_help(DomainError(
                     f"cannot divide by a series with leading coefficient {c0}: its inverse is "
@@ -692,8 +692,8 @@ class Series:
             raise DomainError(f"leading coefficient {c0} is not invertible over {R.name}")
         neg_off = Fraction(0) if self.offset == 0 else 1 - self.offset
         carry = 1 if self.offset else 0
-        if r is None and R.length(u) == 1:
-            return Series(R, R.inv_series(u, 1), -v - carry, neg_off, None)
+        if r is None and R._length(u) == 1:
+            return Series(R, R._inv_series(u, 1), -v - carry, neg_off, None)
         if r is None:
             if order is None:
                 raise UnableError("the inverse of a polynomial is an infinite series: "
@@ -707,7 +707,7 @@ class Series:
             self.precision - 2 * self.valuation  # type: ignore[operator]
         if r <= 0:
             return Series(R, R.zero(), prec, neg_off, prec)._capped(absolute)
-        return Series(R, R.inv_series(u, r), -v - carry, neg_off, prec)._capped(absolute)
+        return Series(R, R._inv_series(u, r), -v - carry, neg_off, prec)._capped(absolute)
 
     def __truediv__(self, other: Any) -> Series:
         other = self._operand(other)
@@ -763,24 +763,24 @@ class Series:
             p = p + n_off if order is None else min(p + n_off, order)
             return Series(R, R.zero(), p, f_off, p)._capped(e * self.precision)
         start = v * e + n_off
-        bits = R.coefficient_bits(self.poly)
-        if bits and e * (bits + R.length(self.poly).bit_length()) > MAX_COEFFICIENT_BITS:
+        bits = R._coefficient_bits(self.poly)
+        if bits and e * (bits + R._length(self.poly).bit_length()) > MAX_COEFFICIENT_BITS:
             raise UnableError(f"the coefficients of this power would have about "
                               f"{e * bits} bits, beyond the limit {MAX_COEFFICIENT_BITS}")
         if self.prec is None:
             if order is None:
-                if (R.length(self.poly) - 1) * e > MAX_LENGTH:
+                if (R._length(self.poly) - 1) * e > MAX_LENGTH:
                     raise UnableError("the exact power is too large; give an order")
                 return Series(R, self.poly ** e, start, f_off, None)
-            if (R.length(self.poly) - 1) * e + start < order:
+            if (R._length(self.poly) - 1) * e + start < order:
                 return Series(R, self.poly ** e, start, f_off, None)
-            return Series(R, R.pow_low(self.poly, e, order - start), start, f_off, order)
+            return Series(R, R._pow_low(self.poly, e, order - start), start, f_off, order)
         rel = self.prec - v
         prec = start + rel
         if order is not None:
             prec = min(prec, order)
         absolute = self.precision + (e - 1) * _valuation_bound(self)  # type: ignore[operator]
-        return Series(R, R.pow_low(self.poly, e, prec - start), start, f_off,
+        return Series(R, R._pow_low(self.poly, e, prec - start), start, f_off,
                       prec)._capped(absolute)
 
     # -- fast paths --------------------------------------------------------------------------
@@ -821,10 +821,10 @@ class Series:
         R = self.ring
         prec = _min_prec(self.prec, order)
         if self.prec is None and prec is not None and \
-                self.start + R.length(self.poly) + j <= prec:
+                self.start + R._length(self.poly) + j <= prec:
             prec = None  # the exact product is short enough to stay exact
         n = None if prec is None else prec - self.start
-        return Series(R, R.binomial_mul(self.poly, c, j, n), self.start, self.offset, prec,
+        return Series(R, R._binomial_mul(self.poly, c, j, n), self.start, self.offset, prec,
                       self.cap)
 
     def div_binomial(self, c: Number, j: int, order: int | None = None) -> Series:
@@ -845,7 +845,7 @@ class Series:
         n = prec - self.start
         if n <= 0:
             return Series(R, R.zero(), prec, self.offset, prec, self.cap)
-        return Series(R, R.binomial_div(self.poly, c, j, n), self.start, self.offset, prec,
+        return Series(R, R._binomial_div(self.poly, c, j, n), self.start, self.offset, prec,
                       self.cap)
 
     def inflate(self, d: int) -> Series:
@@ -858,7 +858,7 @@ class Series:
             raise UnableError("q -> q^d needs an integer d >= 1")
         n, f = _split_exponent(self.offset * d)
         prec = None if self.prec is None else self.prec * d + n
-        return Series(self.ring, self.ring.inflate(self.poly, d), self.start * d + n, f, prec,
+        return Series(self.ring, self.ring._inflate(self.poly, d), self.start * d + n, f, prec,
                       None if self.cap is None else self.cap * d)
 
     # -- comparison --------------------------------------------------------------------------
@@ -892,7 +892,7 @@ class Series:
         if self.is_zero() or other.is_zero():
             return self.is_zero() and other.is_zero()
         if self.offset != other.offset or self.start != other.start or \
-                self.ring.length(self.poly) != other.ring.length(other.poly):
+                self.ring._length(self.poly) != other.ring._length(other.poly):
             return False
         return bool(R.convert(self.poly) == R.convert(other.poly))
 
@@ -902,8 +902,8 @@ class Series:
         if self.is_zero():
             return hash(0) if self.prec is None else hash(("O", self.precision))
         R = self.ring
-        lead = R.to_number(R.coeff(self.poly, 0))
-        n = R.length(self.poly)
+        lead = R.to_number(R._coeff(self.poly, 0))
+        n = R._length(self.poly)
         if self.prec is None and self.start == 0 and self.offset == 0 and n == 1:
             return hash(lead)
         return hash((self.valuation, self.precision, n, lead))
@@ -1000,7 +1000,7 @@ def _poly_data(ring: Ring, poly: Any) -> list[Any]:
     ((exponents of q and the extra variables), coefficient)."""
     if isinstance(poly, LaurentPoly):
         return poly.terms()
-    return ring.coefficients(poly)
+    return ring._coefficients(poly)
 
 
 def _laurent_poly(ring: Ring, terms: list[Any]) -> Any:
@@ -1014,7 +1014,7 @@ def _laurent_poly(ring: Ring, terms: list[Any]) -> Any:
                 if p is None:
                     p = powers[(name, e)] = ring.gen(name) ** e  # type: ignore[attr-defined]
                 x = x * p
-        monomials.append(ring.shift_up(x, exps[0]))
+        monomials.append(ring._shift_up(x, exps[0]))
     while len(monomials) > 1:        # pairwise, so that the sum costs O(T log T)
         monomials = [sum(monomials[i:i + 2][1:], monomials[i])
                      for i in range(0, len(monomials), 2)]

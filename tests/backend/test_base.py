@@ -12,8 +12,9 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 import qseries
-from qseries.backend import GF, QQ, ZZ
+from qseries.backend import GF, QQ, ZZ, laurent_ring
 from qseries.backend.base import exp_online
+from qseries.errors import ArgumentError, ArgumentTypeError
 
 
 def _exp_reference(s: list[int], n: int) -> list[Fraction]:
@@ -110,3 +111,131 @@ def test_no_module_sets_the_global_cap_or_uses_capped_series():
                                                                   "nmod_series"):
                 problems.append(f"{path.name}:{node.lineno} uses {node.attr}")
     assert not problems, problems
+
+
+# -- public operations validate; the underscore twins are the unchecked implementations --
+
+#: every operation of the Ring interface on polynomials, with good arguments (``P`` stands for
+#: a polynomial of the ring under test)
+P = object()
+OPERATIONS = {
+    "coefficients": (P,), "length": (P,), "valuation": (P,), "coefficient_bits": (P,),
+    "coeff": (P, 0), "truncate": (P, 2), "shift_up": (P, 1), "shift_down": (P, 0),
+    "mul_low": (P, P, 3), "pow_low": (P, 2, 3), "inflate": (P, 2), "inv_series": (P, 3),
+    "binomial_mul": (P, 1, 1, 3), "binomial_div": (P, 1, 1, 3), "exp_integral": ([0, -1, -1], 3),
+}
+#: for each operation, (argument index, bad value, name in the message, error type)
+BAD_ARGUMENTS = {
+    "coeff": [(1, -1, "i", ArgumentError), (1, 1.0, "i", ArgumentTypeError)],
+    "truncate": [(1, -1, "n", ArgumentError), (1, "2", "n", ArgumentTypeError)],
+    "shift_up": [(1, -1, "k", ArgumentError), (1, True, "k", ArgumentTypeError)],
+    "shift_down": [(1, -1, "k", ArgumentError)],
+    "mul_low": [(2, "x", "n", ArgumentTypeError), (2, -3, "n", ArgumentError)],
+    "pow_low": [(1, -2, "e", ArgumentError), (2, -1, "n", ArgumentError),
+                (1, 0.5, "e", ArgumentTypeError)],
+    "inflate": [(1, 0, "d", ArgumentError), (1, 2.0, "d", ArgumentTypeError)],
+    "inv_series": [(1, -1, "n", ArgumentError), (1, None, "n", ArgumentTypeError)],
+    "binomial_mul": [(1, "1", "c", ArgumentTypeError), (1, True, "c", ArgumentTypeError),
+                     (2, -1, "j", ArgumentError), (3, -1, "n", ArgumentError)],
+    "binomial_div": [(1, 1.5, "c", ArgumentTypeError), (2, 0, "j", ArgumentError),
+                     (3, "3", "n", ArgumentTypeError)],
+    "exp_integral": [(0, "s", "s", ArgumentTypeError), (1, -1, "n", ArgumentError)],
+}
+RINGS = [ZZ, QQ, GF(101), laurent_ring(("z",))]
+
+
+def _arguments(ring, op):
+    return [ring.poly([1, 1]) if a is P else a for a in OPERATIONS[op]]
+
+
+@pytest.mark.parametrize("ring", RINGS, ids=repr)
+@pytest.mark.parametrize("op", OPERATIONS)
+def test_public_operation_agrees_with_its_unchecked_twin(ring, op):
+    args = _arguments(ring, op)
+    got, twin = getattr(ring, op)(*args), getattr(ring, "_" + op)(*args)
+    assert got == twin
+
+
+@pytest.mark.parametrize("ring", RINGS, ids=repr)
+@pytest.mark.parametrize("op", [op for op in OPERATIONS if P in OPERATIONS[op]])
+def test_public_operation_refuses_a_foreign_polynomial(ring, op):
+    names = ["a", "b"] if op == "mul_low" else ["p"]
+    for i, name in enumerate(names):
+        for bad in ("x", [1, 1], 3, ZZ.poly([1]) if ring != ZZ else QQ.poly([1])):
+            args = _arguments(ring, op)
+            args[i] = bad
+            with pytest.raises(ArgumentTypeError, match=rf"^{name} must be a polynomial over"):
+                getattr(ring, op)(*args)
+
+
+@pytest.mark.parametrize("ring", RINGS, ids=repr)
+@pytest.mark.parametrize("op, index, bad, name, error",
+                         [(op, *case) for op, cases in BAD_ARGUMENTS.items() for case in cases])
+def test_public_operation_refuses_a_bad_number(ring, op, index, bad, name, error):
+    args = _arguments(ring, op)
+    args[index] = bad
+    with pytest.raises(error, match=rf"^{name} must be") as got:
+        getattr(ring, op)(*args)
+    assert isinstance(got.value, ArgumentError)
+    if error is ArgumentError:
+        assert not isinstance(got.value, ArgumentTypeError)
+
+
+def test_the_examples_of_the_issue_are_refused_by_name():
+    p = ZZ.poly([1, 1])
+    for call, name in ((lambda: ZZ.mul_low(p, p, "x"), "n"), (lambda: ZZ.inv_series("x", 3), "p"),
+                       (lambda: ZZ.inflate(p, 0), "d"), (lambda: ZZ.pow_low(p, -2, 3), "e")):
+        with pytest.raises(ArgumentError, match=rf"^{name} must be"):
+            call()
+
+
+def test_another_modulus_or_laurent_ring_is_refused():
+    with pytest.raises(ArgumentTypeError, match=r"^a must be a polynomial over GF\(7\), not one "
+                                                 r"over GF\(5\)"):
+        GF(7).mul_low(GF(5).poly([1]), GF(7).poly([1]), 2)
+    Rz, Rq = laurent_ring(("z",)), laurent_ring(("z",), rational=True)
+    with pytest.raises(ArgumentTypeError, match=r"^p must be a polynomial over ZZ\[z"):
+        Rz.truncate(Rq.poly([1]), 1)
+    # a scalar of the Laurent ring is a valid c
+    z = Rz.gen("z")
+    assert Rz.coefficients(Rz.binomial_mul(Rz.poly([1]), z, 1, None)) == [1, -z]
+
+
+def test_rings_override_only_the_unchecked_operations():
+    from qseries.backend.base import Ring
+    from qseries.backend.integer import IntegerRing
+    from qseries.backend.laurent import LaurentRing
+    from qseries.backend.modular import ModularRing
+    from qseries.backend.rational import RationalRing
+    for cls in (IntegerRing, RationalRing, ModularRing, LaurentRing):
+        assert not set(OPERATIONS) & set(vars(cls)), cls
+    for op in OPERATIONS:
+        assert op in vars(Ring) and "_" + op in vars(Ring)
+
+
+def test_code_inside_qseries_calls_the_unchecked_operations():
+    # the public names check their arguments (O(1), but on hot paths); the library's own
+    # calls on a ring (``R.op``, ``ring.op``, ``x.ring.op``, ``self.op`` in a ring) use ``_op``
+    root = pathlib.Path(qseries.__file__).parent
+    problems = []
+    for path in root.rglob("*.py"):
+        in_backend = path.parent.name == "backend"
+        for node in ast.walk(ast.parse(path.read_text())):
+            if not (isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute)
+                    and node.func.attr in OPERATIONS):
+                continue
+            owner = node.func.value
+            ring_like = (isinstance(owner, ast.Name) and owner.id in ("R", "ring", "ZZ", "QQ")) \
+                or (isinstance(owner, ast.Attribute) and owner.attr == "ring") \
+                or (in_backend and isinstance(owner, ast.Name) and owner.id == "self")
+            if ring_like:
+                problems.append(f"{path.name}:{node.lineno} calls {node.func.attr}")
+    assert not problems, problems
+
+
+@pytest.mark.parametrize("ring", RINGS, ids=repr)
+def test_shift_down_drops_the_lowest_coefficients_in_every_ring(ring):
+    # the Laurent ring used to divide exactly (FLINT's own DomainError when p had a term
+    # below q^k); every ring now drops them
+    assert ring.coefficients(ring.shift_down(ring.poly([1, 2, 3]), 1)) == [2, 3]
+    assert ring.coefficients(ring.shift_down(ring.poly([1, 2, 3]), 5)) == []
