@@ -1,5 +1,5 @@
 """Analyses on computed series: comparing the two sides of an identity, recovering product
-forms, and diagnosing failed checks.
+forms, diagnosing failed checks, dissections.
 
 >>> from qseries.analysis import check
 >>> check("(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)", order=300).holds
@@ -8,8 +8,10 @@ True
 
 from .compare import CheckResult, Mismatch, check, compare_series
 from .diagnose import Hint, diagnose
+from .dissection import Dissection, dissect, dissection
 from .product_form import ProductForm, product_form
 from .statistic import Distribution, distributions, normal_moment
 
-__all__ = ["CheckResult", "Distribution", "Hint", "Mismatch", "ProductForm", "check",
-           "compare_series", "diagnose", "distributions", "normal_moment", "product_form"]
+__all__ = ["CheckResult", "Dissection", "Distribution", "Hint", "Mismatch", "ProductForm",
+           "check", "compare_series", "diagnose", "dissect", "dissection", "distributions",
+           "normal_moment", "product_form"]

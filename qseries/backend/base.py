@@ -292,6 +292,18 @@ class Ring:
         out[::d] = coeffs
         return self._ptype(out)
 
+    def deflate(self, p: Any, m: int, r: int) -> Any:
+        """The strided read sum_n p[m n + r] q^n for integers m >= 1 and 0 <= r < m (one
+        pass over the coefficients: the inverse of ``inflate`` on one residue class).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.deflate(ZZ.poly([1, 2, 3, 4, 5, 6, 7]), 3, 1))
+        [2, 5]
+        """
+        if m == 1:
+            return p
+        return self._ptype(p.coeffs()[r::m])
+
     def inv_series(self, p: Any, n: int) -> Any:
         """1/p modulo q^n, by Newton iteration; p[0] must be a unit (checked).
 

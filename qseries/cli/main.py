@@ -15,7 +15,7 @@ from typing import Annotated, Any
 
 import typer
 
-from ..analysis import diagnose, distributions, product_form
+from ..analysis import diagnose, dissection, distributions, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
 from ..engine import evaluate
 from ..engine.chooser import AUTO_MODULAR_ORDER, COST_LIMIT_BYTES, COST_LIMIT_SECONDS
@@ -26,6 +26,8 @@ from ..products import FUNCTIONS
 from ..report import (
     check_json,
     check_lines,
+    dissection_json,
+    dissection_lines,
     distribution_lines,
     distributions_json,
     expand_json,
@@ -152,6 +154,11 @@ def expand(
     weight: WeightOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
+    dissect: Annotated[int | None, typer.Option(
+        "--dissect", min=1, max=MAX_LENGTH, metavar="M",
+        help="Print the whole M-dissection instead: for each residue r the series "
+             "sum_n a(Mn + r) q^n to O(q^N) (EXPR is evaluated once, to order about M*N); "
+             "for exponents in q^c times integer powers, r runs over c, c+1, ...")] = None,
 ) -> None:
     """Expand EXPR modulo q^N and print its coefficients.  Letters other than q that no sum
     binds are extra variables: coefficients are then Laurent polynomials in them, printed
@@ -160,6 +167,9 @@ def expand(
     Example: qseries expand "sum_{k>=0} q^(k^2)/(q;q)_k" --order 20
     """
     weights = _weights(weight)
+    if dissect is not None:
+        _expand_dissection(expr, dissect, order, weights, as_json, allow_long)
+        return
     _refuse_long(allow_long, [expr], order, None, weights)
     s: Series = _guarded(evaluate, expr, order, None, weights)
     if as_json:
@@ -169,6 +179,23 @@ def expand(
     note = expansion_note(s, order)
     if note:
         typer.echo(note, err=True)
+
+
+def _expand_dissection(expr: str, m: int, order: int, weights: dict[str, int] | None,
+                       as_json: bool, allow_long: bool) -> None:
+    """``expand --dissect M``: every part of the M-dissection, from one evaluation."""
+    work = m * order + m
+    if work > MAX_LENGTH:
+        _fail(f"--dissect {m} at order {order} needs the series to order {work}, beyond the "
+              f"limit {MAX_LENGTH}")
+    _refuse_long(allow_long, [expr], work, None, weights)
+    s: Series = _guarded(evaluate, expr, work, None, weights)
+    d = _guarded(dissection, s, m, order)
+    if as_json:
+        typer.echo(json.dumps(dissection_json(d, order)))
+        return
+    for line in dissection_lines(d, order):
+        typer.echo(line)
 
 
 def _print_check(r: CheckResult) -> None:

@@ -12,10 +12,11 @@ Each function returns text, lines or plain data; printing is the caller's busine
 """
 
 from .distribution import decimal_text, distribution_lines, trend_csv
-from .expansion import expansion_note, expansion_text
+from .expansion import dissection_lines, expansion_note, expansion_text
 from .hints import hint_line
 from .json_shapes import (
     check_json,
+    dissection_json,
     distribution_json,
     distributions_json,
     entry_json,
@@ -36,7 +37,8 @@ from .product import no_product_line, product_lines
 from .tables import listing_summary, listing_table, verify_summary, verify_table
 from .verdict import check_lines, entry_verdict_text, mismatch_report, mismatch_text
 
-__all__ = ["check_json", "check_lines", "decimal_text", "distribution_json",
+__all__ = ["check_json", "check_lines", "decimal_text", "dissection_json", "dissection_lines",
+           "distribution_json",
            "distribution_lines", "distributions_json", "entry_json", "entry_verdict_text",
            "expand_json", "expansion_note", "expansion_text", "exponent_json", "finite_json",
            "hint_json", "hint_line", "listing_json", "listing_rows", "listing_summary",

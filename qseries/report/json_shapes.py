@@ -18,7 +18,7 @@ from collections.abc import Iterable, Sequence
 from fractions import Fraction
 from typing import Any, Protocol
 
-from ..analysis import CheckResult, Distribution, Hint, ProductForm, normal_moment
+from ..analysis import CheckResult, Dissection, Distribution, Hint, ProductForm, normal_moment
 from ..series import Series
 from ..series.formatting import coefficient_text, number_text
 
@@ -162,6 +162,22 @@ def expand_json(s: Series, order: int) -> dict[str, Any]:
     known = known_order(s, order)
     terms = [[exponent_json(e), coefficient_text(c)] for e, c in s.terms() if e < known]
     return {"order": exponent_json(known), "terms": terms}
+
+
+def dissection_json(d: Dissection, order: int) -> dict[str, Any]:
+    """The result of ``qseries expand --dissect M --json``: the order below which every
+    part is known, m, and per residue r the part F_r = sum_n a(m n + r) q^n in the shape
+    of ``expand --json``.
+
+    >>> from qseries.analysis import dissection
+    >>> out = dissection_json(dissection("1/(1-q^2)", 2, 3), 3)
+    >>> out["order"], out["m"], out["parts"][0]
+    (3, 2, {'r': 0, 'order': 3, 'terms': [[0, '1'], [1, '1'], [2, '1']]})
+    """
+    parts = [{"r": exponent_json(r), **expand_json(f, order)}
+             for r, f in zip(d.residues, d.parts, strict=True)]
+    known = min((p["order"] for p in parts), key=Fraction, default=order)
+    return {"order": known, "m": d.m, "parts": parts}
 
 
 def product_json(pf: ProductForm) -> dict[str, Any]:

@@ -328,3 +328,41 @@ def test_the_distribution_refusal_names_the_options_that_set_the_sizes(monkeypat
     r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "100000")
     assert r.exit_code == 2
     assert "--trend-upto" in r.output and "--order" not in r.output
+
+
+def test_expand_extractor_gives_partitions_in_a_progression():
+    """The scripted form of issue 14: p(5n+4) as the coefficient of q^n."""
+    from qseries.backend import partitions_p
+
+    r = run("expand", "[q^(5n+4)] 1/(q;q)_inf", "--order", "100", "--json")
+    assert r.exit_code == 0
+    data = json.loads(r.stdout)
+    assert data["order"] == 100
+    assert data["terms"] == [[n, str(partitions_p(5 * n + 4))] for n in range(100)]
+    latex = run("expand", r"[q^{5n+4}] \frac{1}{(q;q)_\infty}", "--order", "100", "--json")
+    assert json.loads(latex.stdout) == data
+
+
+def test_expand_dissect_option():
+    from qseries.backend import partitions_p
+
+    r = run("expand", "1/(q;q)_inf", "--order", "30", "--dissect", "7", "--json")
+    assert r.exit_code == 0
+    data = json.loads(r.stdout)
+    assert data["order"] == 30 and data["m"] == 7 and len(data["parts"]) == 7
+    for part in data["parts"]:
+        want = [[n, str(partitions_p(7 * n + part["r"]))] for n in range(30)]
+        assert part["terms"] == want
+    text = run("expand", "1/(q;q)_inf", "-n", "3", "--dissect", "2")
+    assert text.stdout.splitlines() == ["r=0: 1 + 2q + 5q^2 + O(q^3)",
+                                        "r=1: 1 + 3q + 7q^2 + O(q^3)"]
+
+
+@pytest.mark.parametrize("args", [
+    ("expand", "[q^(5n+4)] eta(q)"),
+    ("expand", "[q^(5n+4) 1/(q;q)_inf"),
+    ("expand", "1/(q;q)_inf", "--dissect", "0"),
+])
+def test_expand_extractor_errors_exit_2(args):
+    r = run(*args)
+    assert r.exit_code == 2 and "Traceback" not in r.output

@@ -176,3 +176,17 @@ def test_listing_counts_family_members_once_per_key():
         {"id": "one", "members": 1, "title": "O", "source": "src2", "tags": ["t"],
          "expect": "holds", "file": "g.toml:1"}]
     assert listing_json([single]) == {"identities": rows[1:]}
+
+
+def test_dissection_json_shape():
+    from qseries.analysis import dissection
+    from qseries.report import dissection_json
+
+    out = dissection_json(dissection("1/(q;q)_inf", 3, 4), 4)
+    assert json.loads(json.dumps(out)) == out
+    assert out["order"] == 4 and out["m"] == 3
+    assert [p["r"] for p in out["parts"]] == [0, 1, 2]
+    assert out["parts"][2] == {"r": 2, "order": 4,
+                               "terms": [[0, "2"], [1, "7"], [2, "22"], [3, "56"]]}
+    frac = dissection_json(dissection("eta(q)", 2, 3), 3)
+    assert [p["r"] for p in frac["parts"]] == ["1/24", "25/24"]
