@@ -18,7 +18,16 @@ from collections.abc import Iterable, Sequence
 from fractions import Fraction
 from typing import Any, Protocol
 
-from ..analysis import CheckResult, Dissection, Distribution, Hint, ProductForm, normal_moment
+from ..analysis import (
+    CheckResult,
+    CongruenceSearch,
+    Dissection,
+    Distribution,
+    Divisibility,
+    Hint,
+    ProductForm,
+    normal_moment,
+)
 from ..series import Series
 from ..series.formatting import coefficient_text, number_text
 
@@ -178,6 +187,35 @@ def dissection_json(d: Dissection, order: int) -> dict[str, Any]:
              for r, f in zip(d.residues, d.parts, strict=True)]
     known = min((p["order"] for p in parts), key=Fraction, default=order)
     return {"order": known, "m": d.m, "parts": parts}
+
+
+def congruences_json(s: CongruenceSearch) -> dict[str, Any]:
+    """The result of ``qseries congruences --json`` (a search): the order below which every
+    coefficient was read and the congruences found, implied ones omitted.
+
+    >>> from qseries.analysis import find_congruences
+    >>> congruences_json(find_congruences("1/(q;q)_inf", 1000, max_m=6))
+    {'order': 1000, 'congruences': [{'m': 5, 'r': 4, 'modulus': 5}]}
+    """
+    return {"order": s.order,
+            "congruences": [{"m": c.m, "r": c.r, "modulus": c.modulus}
+                            for c in s.congruences]}
+
+
+def divisibility_json(d: Divisibility) -> dict[str, Any]:
+    """The result of ``qseries congruences --modulus M --json``: whether every a(m n + r)
+    below the order is divisible by M, and the first counterexample (null when none).
+
+    >>> from qseries.analysis import divisible
+    >>> divisibility_json(divisible("1/(q;q)_inf", 3, 10, m=2, r=1))["counterexample"]
+    {'n': 0, 'exponent': 1, 'residue': 1, 'value': None}
+    """
+    c = d.counterexample
+    return {"order": exponent_json(d.order), "modulus": d.modulus, "m": d.m,
+            "r": exponent_json(d.r), "checked": d.checked, "divisible": d.holds,
+            "counterexample": None if c is None else {
+                "n": c.n, "exponent": exponent_json(c.exponent), "residue": c.residue,
+                "value": None if c.value is None else coefficient_text(c.value)}}
 
 
 def product_json(pf: ProductForm) -> dict[str, Any]:

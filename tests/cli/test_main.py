@@ -366,3 +366,49 @@ def test_expand_dissect_option():
 def test_expand_extractor_errors_exit_2(args):
     r = run(*args)
     assert r.exit_code == 2 and "Traceback" not in r.output
+
+
+def test_congruences_search_json():
+    """Ramanujan's three (Andrews, The Theory of Partitions, Ch. 10; from memory)."""
+    r = run("congruences", "1/(q;q)_inf", "--order", "2000", "--json")
+    assert r.exit_code == 0
+    assert json.loads(r.stdout) == {"order": 2000, "congruences": [
+        {"m": 5, "r": 4, "modulus": 5}, {"m": 7, "r": 5, "modulus": 7},
+        {"m": 11, "r": 6, "modulus": 11}]}
+    r = run("congruences", "1/(q;q)_inf", "-n", "3000", "--moduli", "5, 25", "--max-step", "25")
+    assert r.exit_code == 0
+    assert r.stdout.splitlines()[1:] == ["a(5n + 4) = 0 (mod 5)  on 600 coefficients",
+                                         "a(25n + 24) = 0 (mod 25)  on 120 coefficients"]
+
+
+def test_congruences_test_mode_exit_codes():
+    ok = run("congruences", "[q^(5n+4)] 1/(q;q)_inf", "--modulus", "5", "-n", "5000")
+    assert ok.exit_code == 0 and "divisible" in ok.stdout
+    same = run("congruences", "1/(q;q)_inf", "-M", "5", "--step", "5", "--residue", "4",
+               "-n", "5000", "--json")
+    assert same.exit_code == 0 and json.loads(same.stdout)["divisible"] is True
+    bad = run("congruences", "1/(q;q)_inf", "-M", "7", "--step", "5", "--residue", "4",
+              "--json")
+    assert bad.exit_code == 1
+    assert json.loads(bad.stdout)["counterexample"] == {"n": 0, "exponent": 4, "residue": 5,
+                                                        "value": None}
+    frac = run("congruences", "q^(-1/24)/(q;q)_inf", "-M", "5", "--step", "5", "--residue",
+               "95/24")
+    assert frac.exit_code == 0
+
+
+@pytest.mark.parametrize("args, words", [
+    (("1/(q;q)_inf", "-M", "1"), "--modulus"),
+    (("1/(q;q)_inf", "-M", "5", "--step", "0"), "--step"),
+    (("1/(q;q)_inf", "-M", "5", "--step", "5", "--residue", "5"), "0 <= r < m"),
+    (("1/(q;q)_inf", "-M", "5", "--residue", "x"), "--residue"),
+    (("1/(q;q)_inf", "--moduli", "5,x"), "--moduli"),
+    (("1/(q;q)_inf", "--moduli", "1"), "modulus"),
+    (("1/(q;q)_inf", "--step", "5"), "go with --modulus"),
+    (("1/(q;q", "-M", "5"), "column 7"),
+    (("eta(q)",), "integer powers"),
+])
+def test_congruences_bad_input_exit_2(args, words):
+    r = run("congruences", *args)
+    assert r.exit_code == 2 and "Traceback" not in r.output
+    assert words in r.output

@@ -190,3 +190,20 @@ def test_dissection_json_shape():
                                "terms": [[0, "2"], [1, "7"], [2, "22"], [3, "56"]]}
     frac = dissection_json(dissection("eta(q)", 2, 3), 3)
     assert [p["r"] for p in frac["parts"]] == ["1/24", "25/24"]
+
+
+def test_congruence_json_shapes():
+    from qseries.analysis import divisible, find_congruences
+    from qseries.report import congruences_json, divisibility_json
+
+    out = congruences_json(find_congruences("1/(q;q)_inf", 1000))
+    assert out == {"order": 1000, "congruences": [{"m": 5, "r": 4, "modulus": 5},
+                                                  {"m": 7, "r": 5, "modulus": 7},
+                                                  {"m": 11, "r": 6, "modulus": 11}]}
+    d = divisibility_json(divisible("1/(q;q)_inf", 25, 100, m=5, r=4))
+    assert json.loads(json.dumps(d)) == d
+    assert d == {"order": 100, "modulus": 25, "m": 5, "r": 4, "checked": 100,
+                 "divisible": False,
+                 "counterexample": {"n": 0, "exponent": 4, "residue": 5, "value": "5"}}
+    frac = divisibility_json(divisible("q^(-1/24)/(q;q)_inf", 5, 10, m=5, r=Fraction(95, 24)))
+    assert frac["r"] == "95/24" and frac["divisible"] is True
