@@ -28,6 +28,7 @@ from .analysis import (
                        divisible,
                        find_congruences,
                        product_form,
+                       relations,
 )
 from .backend import GF, QQ, ZZ, laurent_ring
 from .engine import evaluate
@@ -51,5 +52,5 @@ __all__ = [
     "DomainError", "GF", "IncompatibleRingError", "Mismatch", "ParseError", "PrecisionError",
     "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose",
     "dissect", "dissection", "distributions", "divisible", "evaluate", "find_congruences",
-    "laurent_ring", "parse", "product_form", "show",
+    "laurent_ring", "parse", "product_form", "relations", "show",
 ]

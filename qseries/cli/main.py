@@ -46,6 +46,8 @@ from ..report import (
     no_product_line,
     product_json,
     product_lines,
+    relation_lines,
+    relations_json,
     trend_csv,
     trend_json,
     verify_json,
@@ -441,6 +443,35 @@ def congruences_cmd(
         for line in divisibility_lines(result):
             typer.echo(line)
     raise typer.Exit(0 if result.holds else 1)
+
+
+@app.command(name="relations")
+def relations_cmd(
+    exprs: Annotated[list[str], typer.Argument(
+        help="The series, e.g. \"theta_3(q)^4\" \"theta_2(q)^4\" \"theta_4(q)^4\".")],
+    order: OrderOption = 200,
+    degree: Annotated[int, typer.Option(
+        "--degree", "-d", min=1, max=12,
+        help="Find polynomial relations of total degree <= D instead (the monomials in the "
+             "series, 1 included, are the unknowns).")] = 1,
+    as_json: JsonOption = False,
+) -> None:
+    """Integer relations c_1 f_1 + ... + c_k f_k = 0 among the series EXPRS below q^N (a
+    reduced basis, by exact linear algebra and LLL), or polynomial ones with --degree.
+    Exit 0 when a relation is found, 1 when none, 2 for bad input (more unknowns than
+    coefficients is refused: raise the order).  Evidence below the order, not a proof.
+
+    Example: qseries relations "theta_3(q)^4" "theta_2(q)^4" "theta_4(q)^4" -n 200
+    """
+    from ..analysis import relations
+
+    found = _guarded(lambda: relations(exprs, order, degree=degree))
+    if as_json:
+        typer.echo(json.dumps(relations_json(found)))
+    else:
+        for line in relation_lines(found):
+            typer.echo(line)
+    raise typer.Exit(0 if found.relations else 1)
 
 
 @app.command()

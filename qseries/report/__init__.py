@@ -1,9 +1,9 @@
 """Every rendering of results, in one layer after the analyses: verdict text
 (:mod:`.verdict`), the table around a mismatch (:mod:`.neighbours`), hints (:mod:`.hints`),
 the JSON shapes shared by the command line and the catalogue (:mod:`.json_shapes`),
-expansions and dissections (:mod:`.expansion`), congruences (:mod:`.congruences`), product
-forms (:mod:`.product`), distributions (:mod:`.distribution`) and the tables of ``verify``
-and ``list`` (:mod:`.tables`).
+expansions and dissections (:mod:`.expansion`), congruences (:mod:`.congruences`),
+relations (:mod:`.relations`), product forms (:mod:`.product`), distributions
+(:mod:`.distribution`) and the tables of ``verify`` and ``list`` (:mod:`.tables`).
 
 Each function returns text, lines or plain data; printing is the caller's business.
 
@@ -33,11 +33,13 @@ from .json_shapes import (
     mismatch_json,
     no_product_json,
     product_json,
+    relations_json,
     trend_json,
     verify_json,
 )
 from .neighbours import neighbour_table
 from .product import no_product_line, product_lines
+from .relations import relation_lines
 from .tables import listing_summary, listing_table, verify_summary, verify_table
 from .verdict import check_lines, entry_verdict_text, mismatch_report, mismatch_text
 
@@ -48,6 +50,7 @@ __all__ = ["check_json", "check_lines", "congruence_lines", "congruences_json",
            "hint_json", "hint_line", "listing_json", "listing_rows", "listing_summary",
            "listing_table", "mismatch_json", "mismatch_report", "mismatch_text",
            "neighbour_table", "no_product_json", "no_product_line", "product_json",
-           "divisibility_json", "divisibility_lines", "progression_text",
+           "divisibility_json", "divisibility_lines", "progression_text", "relation_lines",
+           "relations_json",
            "product_lines", "trend_csv", "trend_json", "verify_json", "verify_summary",
            "verify_table"]

@@ -26,6 +26,7 @@ from ..analysis import (
     Divisibility,
     Hint,
     ProductForm,
+    Relations,
     normal_moment,
 )
 from ..series import Series
@@ -216,6 +217,24 @@ def divisibility_json(d: Divisibility) -> dict[str, Any]:
             "counterexample": None if c is None else {
                 "n": c.n, "exponent": exponent_json(c.exponent), "residue": c.residue,
                 "value": None if c.value is None else coefficient_text(c.value)}}
+
+
+def relations_json(r: Relations) -> dict[str, Any]:
+    """The result of ``qseries relations --json``: the order below which the coefficients
+    were compared, one list of integer coefficients (strings) per relation of the reduced
+    basis, in the order of ``monomials`` (for degree 1 the series as given), the relations
+    as text, and the evidence (equations, unknowns, confirmed, stable).
+
+    >>> from qseries.analysis import relations
+    >>> out = relations_json(relations(["theta_3(q)^4", "theta_2(q)^4", "theta_4(q)^4"], 40))
+    >>> out["order"], out["relations"], out["confirmed"]
+    (40, [['1', '-1', '-1']], 37)
+    """
+    return {"order": exponent_json(r.order),
+            "relations": [[str(c) for c in v] for v in r.relations],
+            "monomials": [list(m) for m in r.monomials], "degree": r.degree,
+            "texts": [r.text(v) for v in r.relations], "equations": r.equations,
+            "unknowns": r.unknowns, "confirmed": r.confirmed, "stable": r.stable}
 
 
 def product_json(pf: ProductForm) -> dict[str, Any]:

@@ -412,3 +412,16 @@ def test_congruences_bad_input_exit_2(args, words):
     r = run("congruences", *args)
     assert r.exit_code == 2 and "Traceback" not in r.output
     assert words in r.output
+
+
+def test_relations_command():
+    r = run("relations", "theta_3(q)^4", "theta_2(q)^4", "theta_4(q)^4", "-n", "200", "--json")
+    assert r.exit_code == 0
+    data = json.loads(r.stdout)
+    assert data["order"] == 200 and data["relations"] == [["1", "-1", "-1"]]
+    none = run("relations", "1/(q;q)_inf", "(q;q)_inf")
+    assert none.exit_code == 1 and none.stdout.startswith("no integer relation")
+    short = run("relations", "1/(q;q)_inf", "(q;q)_inf", "-n", "1")
+    assert short.exit_code == 2 and "raise the order" in short.output
+    bad = run("relations", "(q;q", "q")
+    assert bad.exit_code == 2 and "column" in bad.output and "Traceback" not in bad.output

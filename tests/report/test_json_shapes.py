@@ -207,3 +207,13 @@ def test_congruence_json_shapes():
                  "counterexample": {"n": 0, "exponent": 4, "residue": 5, "value": "5"}}
     frac = divisibility_json(divisible("q^(-1/24)/(q;q)_inf", 5, 10, m=5, r=Fraction(95, 24)))
     assert frac["r"] == "95/24" and frac["divisible"] is True
+
+
+def test_relations_json_shape():
+    from qseries.analysis import relations
+    from qseries.report import relations_json
+
+    out = relations_json(relations(["theta_3(q)^4", "theta_2(q)^4", "theta_4(q)^4"], 60))
+    assert json.loads(json.dumps(out)) == out
+    assert out["order"] == 60 and out["relations"] == [["1", "-1", "-1"]]
+    assert out["monomials"] == [[1, 0, 0], [0, 1, 0], [0, 0, 1]] and out["stable"] is True
