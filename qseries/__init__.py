@@ -16,13 +16,19 @@ compare.  Agreement to O(q^N) is evidence, not a proof.
 
 from .analysis import (
                        CheckResult,
+                       Dissection,
                        Distribution,
                        Mismatch,
                        ProductForm,
                        check,
                        diagnose,
+                       dissect,
+                       dissection,
                        distributions,
+                       divisible,
+                       find_congruences,
                        product_form,
+                       relations,
 )
 from .backend import GF, QQ, ZZ, laurent_ring
 from .engine import evaluate
@@ -42,8 +48,9 @@ from .series import Series
 __version__ = "0.1.0"
 
 __all__ = [
-    "ArgumentError", "ArgumentTypeError", "CheckResult", "Distribution", "DomainError", "GF",
-    "IncompatibleRingError", "Mismatch", "ParseError", "PrecisionError", "ProductForm", "QQ",
-    "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose", "distributions",
-    "evaluate", "laurent_ring", "parse", "product_form", "show",
+    "ArgumentError", "ArgumentTypeError", "CheckResult", "Dissection", "Distribution",
+    "DomainError", "GF", "IncompatibleRingError", "Mismatch", "ParseError", "PrecisionError",
+    "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose",
+    "dissect", "dissection", "distributions", "divisible", "evaluate", "find_congruences",
+    "laurent_ring", "parse", "product_form", "relations", "show",
 ]

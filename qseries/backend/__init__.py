@@ -36,6 +36,7 @@ from .laurent import (
     laurent_ring,
     laurent_text,
 )
+from .linalg import integer_kernel, matrix_rank
 from .modular import GF
 from .rational import QQ
 from .ring import join_rings, ring_for
@@ -43,4 +44,5 @@ from .ring import join_rings, ring_for
 __all__ = ["ZZ", "QQ", "GF", "Ring", "LaurentPoly", "laurent_ring", "laurent_text",
            "laurent_budget", "ring_for", "join_rings", "int_to_decimal", "is_prime",
            "partitions_p", "FLINT_VERSION", "MAX_SHIFT", "MAX_LAURENT_TERMS",
-           "MAX_VARIABLES", "LAURENT_SECONDS", "MAX_LAURENT_PRODUCT", "MAX_LAURENT_BITS"]
+           "MAX_VARIABLES", "LAURENT_SECONDS", "MAX_LAURENT_PRODUCT", "MAX_LAURENT_BITS",
+           "integer_kernel", "matrix_rank"]

@@ -251,6 +251,12 @@ class Ring:
         out[::d] = coeffs
         return self._ptype(out)
 
+    def _deflate(self, p: Any, m: int, r: int) -> Any:
+        """The strided read sum_n p[m n + r] q^n, unchecked (see :meth:`deflate`)."""
+        if m == 1:
+            return p
+        return self._ptype(p.coeffs()[r::m])
+
     def _inv_series(self, p: Any, n: int) -> Any:
         """1/p modulo q^n, by Newton iteration; p[0] must be a unit (checked)."""
         if n <= 0:
@@ -452,6 +458,19 @@ class Ring:
         integer_argument("e", e, 0)
         integer_argument("n", n, 0)
         return self._pow_low(p, e, n)
+
+    def deflate(self, p: Any, m: int, r: int) -> Any:
+        """The strided read sum_n p[m n + r] q^n for integers m >= 1 and 0 <= r < m (one
+        pass over the coefficients: the inverse of ``inflate`` on one residue class).
+
+        >>> from qseries.backend import ZZ
+        >>> ZZ.coefficients(ZZ.deflate(ZZ.poly([1, 2, 3, 4, 5, 6, 7]), 3, 1))
+        [2, 5]
+        """
+        self._poly_argument("p", p)
+        integer_argument("m", m, 1)
+        integer_argument("r", r, 0, m - 1)
+        return self._deflate(p, m, r)
 
     def inflate(self, p: Any, d: int) -> Any:
         """p(q^d) for an integer d >= 1.

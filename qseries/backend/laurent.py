@@ -613,6 +613,19 @@ class LaurentRing(Ring):
         return self._wrap(self.ctx.from_dict({(e[0] * d, *e[1:]): c
                                               for e, c in p.m.to_dict().items()}), p.shift)
 
+    def _deflate(self, p: LaurentPoly, m: int, r: int) -> LaurentPoly:
+        """sum_n p[m n + r] q^n (see :meth:`Ring.deflate`).
+
+        >>> R = laurent_ring(("z",)); z = R.gen("z")
+        >>> R.coefficients(R._deflate(R.poly([1, z, 2, z + 1]), 2, 1))
+        [z, z + 1]
+        """
+        if m == 1:
+            return p
+        return self._wrap(self.ctx.from_dict({((e[0] - r) // m, *e[1:]): c
+                                              for e, c in p.m.to_dict().items()
+                                              if e[0] % m == r}), p.shift)
+
     def _inv_series(self, p: LaurentPoly, n: int) -> LaurentPoly:
         """1/p modulo q^n by Newton iteration; the constant term must be a unit (a single
         term), else the error suggests a weight.

@@ -179,6 +179,16 @@ class ModularRing(Ring):
         out[::d] = coeffs
         return flint.nmod_poly(out, self.p)
 
+    def _deflate(self, p: Any, m: int, r: int) -> Any:
+        """sum_n p[m n + r] q^n (see :meth:`Ring.deflate`).
+
+        >>> GF(3).coefficients(GF(3).deflate(GF(3).poly([1, 2, 2, 1]), 2, 1))
+        [2, 1]
+        """
+        if m == 1:
+            return p
+        return flint.nmod_poly([int(c) for c in p.coeffs()[r::m]], self.p)
+
     def __eq__(self, other: object) -> bool:
         return isinstance(other, ModularRing) and other.p == self.p
 

@@ -11,12 +11,13 @@ import contextvars
 import json
 import sys
 from enum import StrEnum
+from fractions import Fraction
 from pathlib import Path
 from typing import Annotated, Any
 
 import typer
 
-from ..analysis import diagnose, distributions, product_form
+from ..analysis import diagnose, dissection, distributions, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
 from ..engine import evaluate
 from ..engine.chooser import (
@@ -33,8 +34,14 @@ from ..products import FUNCTIONS
 from ..report import (
     check_json,
     check_lines,
+    congruence_lines,
+    congruences_json,
+    dissection_json,
+    dissection_lines,
     distribution_lines,
     distributions_json,
+    divisibility_json,
+    divisibility_lines,
     expand_json,
     expansion_note,
     expansion_text,
@@ -46,6 +53,8 @@ from ..report import (
     no_product_line,
     product_json,
     product_lines,
+    relation_lines,
+    relations_json,
     slowest_line,
     sources_lines,
     trend_csv,
@@ -201,6 +210,11 @@ def expand(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    dissect: Annotated[int | None, typer.Option(
+        "--dissect", min=1, max=MAX_LENGTH, metavar="M",
+        help="Print the whole M-dissection instead: for each residue r the series "
+             "sum_n a(Mn + r) q^n to O(q^N) (EXPR is evaluated once, to order about M*N); "
+             "for exponents in q^c times integer powers, r runs over c, c+1, ...")] = None,
 ) -> None:
     """Expand EXPR modulo q^N and print its coefficients.  Letters other than q that no sum
     binds are extra variables: coefficients are then Laurent polynomials in them, printed
@@ -210,6 +224,9 @@ def expand(
     """
     weights = _weights(weight)
     [node] = _parsed([expr], define)
+    if dissect is not None:
+        _expand_dissection(node, dissect, order, weights, as_json, allow_long)
+        return
     _refuse_long(allow_long, [node], order, None, weights)
     s: Series = _guarded(evaluate, node, order, None, weights)
     if as_json:
@@ -222,6 +239,23 @@ def expand(
     note = expansion_note(s, order)
     if note:
         typer.echo(note, err=True)
+
+
+def _expand_dissection(expr: Node, m: int, order: int, weights: dict[str, int] | None,
+                       as_json: bool, allow_long: bool) -> None:
+    """``expand --dissect M``: every part of the M-dissection, from one evaluation."""
+    work = m * order + m
+    if work > MAX_LENGTH:
+        _fail(f"--dissect {m} at order {order} needs the series to order {work}, beyond the "
+              f"limit {MAX_LENGTH}")
+    _refuse_long(allow_long, [expr], work, None, weights)
+    s: Series = _guarded(evaluate, expr, work, None, weights)
+    d = _guarded(dissection, s, m, order)
+    if as_json:
+        typer.echo(json.dumps(dissection_json(d, order)))
+        return
+    for line in dissection_lines(d, order):
+        typer.echo(line)
 
 
 def _print_check(r: CheckResult) -> None:
@@ -404,6 +438,109 @@ def distribution(
                 _fail(f"cannot write {out}: {err.strerror}")
             typer.echo(f"wrote the mean and variance for n = 1 .. {trend_upto} to {out}",
                        err=True)
+
+
+@app.command(name="congruences")
+def congruences_cmd(
+    expr: Annotated[str, typer.Argument(
+        help="The series, e.g. \"1/(q;q)_inf\" or a dissection \"[q^(5n+4)] 1/(q;q)_inf\".")],
+    order: Annotated[int, typer.Option(
+        "--order", "-n", min=1, max=MAX_LENGTH,
+        help="Read the coefficients of q^0 .. q^(N-1) (with --step M: a(Mn + R) for n < N); "
+             "a class resting on few coefficients can vanish by chance, so the search "
+             "marks those on fewer than 20.")] = 2000,
+    modulus: Annotated[int | None, typer.Option(
+        "--modulus", "-M", min=2,
+        help="Test mode: is every coefficient (of the progression) divisible by M?  Exit 0 "
+             "if so, 1 at the first that is not (reported).")] = None,
+    step: Annotated[int, typer.Option(
+        "--step", min=1, max=MAX_LENGTH, metavar="M",
+        help="With --modulus: test a(Mn + R) only.")] = 1,
+    residue: Annotated[str | None, typer.Option(
+        "--residue", metavar="R",
+        help="With --modulus: the residue R, 0 <= R < M (a fraction such as 95/24 for "
+             "exponents in q^c times integer powers); default: every coefficient's class.")]
+        = None,
+    max_step: Annotated[int, typer.Option(
+        "--max-step", min=1, max=1000,
+        help="Search mode: steps m = 1 .. this, every residue 0 <= r < m.")] = 30,
+    moduli: Annotated[str, typer.Option(
+        "--moduli",
+        help="Search mode: the moduli, comma-separated (primes are worked modulo the prime "
+             "directly; others from the exact series).")] = "2,3,5,7,11,13",
+    as_json: JsonOption = False,
+) -> None:
+    """Congruences a(mn + r) = 0 (mod M) among the coefficients of EXPR.  Without --modulus:
+    search every step m <= --max-step, residue r and modulus of --moduli, listing those not
+    implied by another found (m' | m, r = r' mod m', M | M'); exit 0.  With --modulus M: test
+    divisibility (of a(Mn + R) with --step/--residue); exit 0 all divisible, 1 a
+    counterexample, 2 bad input.  Agreement below the order is evidence, not a proof.
+
+    Example: qseries congruences "1/(q;q)_inf" --order 10000
+    """
+    from ..analysis import divisible, find_congruences
+
+    if modulus is None:
+        if step != 1 or residue is not None:
+            _fail("--step and --residue go with --modulus (the test mode); the search "
+                  "takes --max-step and --moduli")
+        mods = []
+        for item in moduli.split(","):
+            item = item.strip()
+            if not item.isascii() or not item.isdigit() or len(item) > 19:
+                _fail(f"--moduli {moduli!r}: write whole numbers >= 2 separated by commas")
+            mods.append(int(item))
+        found = _guarded(lambda: find_congruences(expr, order, max_m=max_step, moduli=mods))
+        if as_json:
+            typer.echo(json.dumps(congruences_json(found)))
+            return
+        for line in congruence_lines(found):
+            typer.echo(line)
+        return
+    r = None
+    if residue is not None:
+        try:
+            r = Fraction(residue.strip()) if len(residue) < 40 else None
+        except (ValueError, ZeroDivisionError):
+            r = None
+        if r is None:
+            _fail(f"--residue {residue!r}: write a whole number or a fraction such as 95/24")
+    result = _guarded(lambda: divisible(expr, modulus, order, m=step, r=r))
+    if as_json:
+        typer.echo(json.dumps(divisibility_json(result)))
+    else:
+        for line in divisibility_lines(result):
+            typer.echo(line)
+    raise typer.Exit(0 if result.holds else 1)
+
+
+@app.command(name="relations")
+def relations_cmd(
+    exprs: Annotated[list[str], typer.Argument(
+        help="The series, e.g. \"theta_3(q)^4\" \"theta_2(q)^4\" \"theta_4(q)^4\".")],
+    order: OrderOption = 200,
+    degree: Annotated[int, typer.Option(
+        "--degree", "-d", min=1, max=12,
+        help="Find polynomial relations of total degree <= D instead (the monomials in the "
+             "series, 1 included, are the unknowns).")] = 1,
+    as_json: JsonOption = False,
+) -> None:
+    """Integer relations c_1 f_1 + ... + c_k f_k = 0 among the series EXPRS below q^N (a
+    reduced basis, by exact linear algebra and LLL), or polynomial ones with --degree.
+    Exit 0 when a relation is found, 1 when none, 2 for bad input (more unknowns than
+    coefficients is refused: raise the order).  Evidence below the order, not a proof.
+
+    Example: qseries relations "theta_3(q)^4" "theta_2(q)^4" "theta_4(q)^4" -n 200
+    """
+    from ..analysis import relations
+
+    found = _guarded(lambda: relations(exprs, order, degree=degree))
+    if as_json:
+        typer.echo(json.dumps(relations_json(found)))
+    else:
+        for line in relation_lines(found):
+            typer.echo(line)
+    raise typer.Exit(0 if found.relations else 1)
 
 
 @app.command()

@@ -124,6 +124,23 @@ def sum_spine(node: Node) -> tuple[Node, list[tuple[str, Node]]]:
     return left, spine[::-1]
 
 
+@dataclass(frozen=True)
+class Dissect(Node):
+    """``[q^(m n + r)] body``: the series sum_n [q^(m n + r)]body q^n (a dissection; Atkin's
+    U_m is r = 0).  ``m`` is an integer >= 1, ``r`` a rational number in the class of the
+    body's exponents; ``var`` is the index letter as written (for printing only).
+
+    >>> Dissect(5, Fraction(4), Q(), "n") == Dissect(5, Fraction(4), Q(pos=3), "k")
+    True
+    """
+
+    m: int
+    r: Fraction
+    body: Node
+    var: str = field(default="n", compare=False)
+    pos: int = field(default=0, compare=False)
+
+
 def children(node: Node) -> tuple[Node, ...]:
     """The direct sub-nodes of a node.
 
@@ -144,6 +161,8 @@ def children(node: Node) -> tuple[Node, ...]:
         return node.args
     if isinstance(node, BigO):
         return (node.exponent,)
+    if isinstance(node, Dissect):
+        return (node.body,)
     return ()
 
 
@@ -184,7 +203,7 @@ def mentions_q(node: Node) -> bool:
     stack = [node]
     while stack:
         c = stack.pop()
-        if isinstance(c, (Q, Var, Poch, Call, BigO)):
+        if isinstance(c, (Q, Var, Poch, Call, BigO, Dissect)):
             return True
         stack.extend([c.body] if isinstance(c, BigOp) else children(c))
     return False

@@ -13,9 +13,13 @@ Grammar (informally; juxtaposition is multiplication)::
              | "(" expr ")" "_" subscript                            -- (a)_n = (a;q)_n
              | ("sum" | "prod") "_" "{" name (">=" expr | "=" bound) "}" ("^" upper)? term
              | function "(" expr ("," expr)* ")" | "O" "(" expr ")"
+             | "[" "q" "^" ("(" lin ")" | "{" lin "}") "]" term      -- dissection
+             | "U" "_" (number | "{" number "}") "(" expr ")"       -- Atkin's U_m
              | \frac{expr}{expr} | \binom{expr}{expr} ("_" "q")?
              | \begin{bmatrix} expr \\ expr \end{bmatrix} "_" "q"
     subscript := "inf" | "∞" | number | name | "(" expr ")" | "{" expr "}"
+    lin     := an expression m n + r linear in one fresh index letter n, with m >= 1 an
+               integer and r a rational number
 
 A function is a registry builder (``eta``, ``theta_3``, ...), a registry function defined in
 the notation (``phi``, ``psi``, ``chi``, ``f``) or a user definition; the latter two are
@@ -46,7 +50,7 @@ from math import factorial
 
 from ..errors import ArgumentTypeError, ParseError, typed_argument
 from ..products import FUNCTIONS
-from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var
+from .ast import BigO, BigOp, BinOp, Call, Dissect, Name, Neg, Node, Num, Poch, Q, Var
 from .definitions import Definition, parse_definitions, split_head, substitute
 from .tokens import MAX_DIGITS, MAX_TEXT, Token, tokenize
 
@@ -77,6 +81,10 @@ NOTATION_FORMS = [
     ("\\sum_{n\\ge0}\\frac{q^{n^2}}{(q;q)_n}", "LaTeX as papers print it (\\frac, \\binom{n}{k}_q, "
                                            "\\infty, \\eta(\\tau), \\theta_3, ...)"),
     ("Σ ∏ ≥ ≤ η θ φ ψ χ τ", "Unicode as PDFs print it"),
+    ("[q^(5n+4)] F   [q^{5n+4}] F", "dissection: the series sum_n [q^(5n+4)]F q^n; F is the "
+                                    "product term that follows; any fresh index letter; "
+                                    "r may be fractional, in the class of F's exponents"),
+    ("U_5(F)  U_{5}(F)", "Atkin's operator U_m: [q^(5n)] F"),
     ("z, a, b, x1  (z q;q)_inf  z^-1", "extra variables: letters other than q that no sum "
                                       "binds; coefficients become Laurent polynomials in them"),
 ]
@@ -154,7 +162,7 @@ class _Parser:
             return True
         if t.kind == "cmd":
             return not t.text.startswith("end")
-        return t.kind == "sym" and t.text in ("(", "{", "∞")
+        return t.kind == "sym" and t.text in ("(", "{", "∞", "[")
 
     def adjacent(self, offset: int = 1) -> bool:
         """True when the token ``offset`` ahead touches the current one (no space between)."""
@@ -222,6 +230,8 @@ class _Parser:
                 node = self.expr()
                 self.expect("}")
                 return node
+            if t.text == "[":
+                return self.extractor()
             raise self.error(f"unexpected {t.text!r}")
         # a name
         name = t.text
@@ -246,6 +256,8 @@ class _Parser:
         if name in self.bound:
             self.take()
             return Name(name, t.pos)
+        if name == "U" and self.toks[self.i + 1].text == "_" and "U" not in self.params:
+            return self.atkin()
         if name == "theta" and self.toks[self.i + 1].text == "_":
             return self.call(self.subscripted_name())
         if name in FUNCTIONS or name in self.defs:
@@ -266,6 +278,82 @@ class _Parser:
                                             for k, ch in enumerate(name)]
             return self.atom()
         raise self.error(_unknown_name_message(name, self.bound, list(self.defs)))
+
+    def extractor(self) -> Node:
+        """``[q^(m n + r)] term`` (after checking the shape): a Dissect node."""
+        t = self.take()
+        form = "write the coefficient extractor as [q^(5n+4)] F"
+        if not self.at("q"):
+            raise self.error(f"'[' starts a coefficient extractor here: {form}")
+        self.take()
+        self.expect("^", f" ({form})")
+        if not self.at("(", "{"):
+            raise self.error(f"the exponent of an extractor goes in parentheses: {form}")
+        group = self.tok
+        close = ")" if group.text == "(" else "}"
+        var = self.index_letter(form)
+        self.take()
+        self.bound.append(var)
+        try:
+            exponent = self.expr()
+        finally:
+            self.bound.pop()
+        self.expect(close)
+        self.expect("]", f" closing the extractor ({form})")
+        lin = _linear(exponent, var)
+        if lin is None or lin[0] < 1 or lin[0].denominator != 1:
+            raise ParseError(f"the exponent of an extractor must be m {var} + r with m a whole "
+                             f"number >= 1 and r a number ({form})", self.text, group.pos)
+        body = self.term()
+        self.tail_taken = True
+        return Dissect(int(lin[0]), lin[1], body, var, t.pos)
+
+    def index_letter(self, form: str) -> str:
+        """The one letter in the bracketed exponent at the current token that is not bound
+        outside (the extractor's index), without consuming anything."""
+        depth, j, seen, outer = 0, self.i, [], []
+        while True:
+            u = self.toks[j]
+            if u.kind == "end":
+                raise self.error(f"the extractor's exponent is not closed ({form})")
+            if u.text in ("(", "{"):
+                depth += 1
+            elif u.text in (")", "}"):
+                depth -= 1
+                if depth == 0:
+                    break
+            elif u.kind == "name" and u.text not in self.bound and u.text not in seen:
+                seen.append(u.text)
+            elif u.kind == "name" and u.text in self.bound and u.text not in outer:
+                outer.append(u.text)
+            j += 1
+        if not seen and outer:
+            raise self.error(f"{outer[0]!r} is bound by an enclosing sum or product; the "
+                             f"extractor needs its own index letter ({form})")
+        if len(seen) != 1 or not is_extra_variable(seen[0]):
+            what = "no index letter" if not seen else f"the names {', '.join(seen)}"
+            raise self.error(f"the exponent of an extractor has {what}; it takes exactly one "
+                             f"index letter that no enclosing sum binds ({form})")
+        return seen[0]
+
+    def atkin(self) -> Node:
+        """``U_m(F)``: Atkin's operator, the extractor [q^(m n)] F."""
+        t = self.take()
+        self.take()                                   # the "_"
+        braced = self.at("{")
+        if braced:
+            self.take()
+        num = self.tok
+        if num.kind != "num" or int(num.text) < 1:
+            raise self.error("Atkin's operator is written U_m(F) with m a whole number >= 1, "
+                             "such as U_5(F)")
+        self.take()
+        if braced:
+            self.expect("}")
+        self.expect("(", " after U_m (write U_5(F))")
+        body = self.expr()
+        self.expect(")")
+        return Dissect(int(num.text), Fraction(0), body, "n", t.pos)
 
     def letters_of_a_product(self, name: str) -> bool:
         return (len(name) > 1 and name.isascii() and name.isalpha()
@@ -599,6 +687,33 @@ def is_extra_variable(name: str) -> bool:
         return False   # Q is refused too: it is far more often a mistyped q
     rest = name[1:]
     return rest == "" or (rest.isascii() and rest.isdigit())
+
+
+def _linear(node: Node, var: str) -> tuple[Fraction, Fraction] | None:
+    """(a, b) when ``node`` is a var + b with rational a and b, else None."""
+    if isinstance(node, Num):
+        return Fraction(0), node.value
+    if isinstance(node, Name) and node.name == var:
+        return Fraction(1), Fraction(0)
+    if isinstance(node, Neg):
+        inner = _linear(node.operand, var)
+        return None if inner is None else (-inner[0], -inner[1])
+    if not isinstance(node, BinOp):
+        return None
+    left, right = _linear(node.left, var), _linear(node.right, var)
+    if left is None or right is None:
+        return None
+    if node.op in "+-":
+        sign = 1 if node.op == "+" else -1
+        return left[0] + sign * right[0], left[1] + sign * right[1]
+    if node.op == "*" and (left[0] == 0 or right[0] == 0):
+        return left[0] * right[1] + right[0] * left[1], left[1] * right[1]
+    if node.op == "/" and right[0] == 0 and right[1] != 0:
+        return left[0] / right[1], left[1] / right[1]
+    if node.op == "^" and left[0] == 0 and right[0] == 0 and right[1].denominator == 1 \
+            and abs(right[1]) <= 64 and (left[1] != 0 or right[1] > 0):
+        return Fraction(0), left[1] ** int(right[1])
+    return None
 
 
 def _suggestion(name: str, defined: list[str]) -> str | None:

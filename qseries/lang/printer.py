@@ -10,7 +10,7 @@ from __future__ import annotations
 from fractions import Fraction
 
 from ..errors import typed_argument
-from .ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, Var, sum_spine
+from .ast import BigO, BigOp, BinOp, Call, Dissect, Name, Neg, Node, Num, Poch, Q, Var, sum_spine
 
 # precedence levels: 1 sums, 2 products, 3 signed, 4 powers, 5 atoms
 _LEVEL = {"+": 1, "-": 1, "*": 2, "/": 2, "^": 4}
@@ -21,7 +21,7 @@ def _level(node: Node) -> int:
         return _LEVEL[node.op]
     if isinstance(node, Neg):
         return 3
-    if isinstance(node, BigOp):
+    if isinstance(node, (BigOp, Dissect)):
         return 3
     if isinstance(node, Num) and (node.value.denominator != 1 or node.value < 0):
         return 0  # printed as a quotient: always parenthesise
@@ -30,7 +30,7 @@ def _level(node: Node) -> int:
 
 def _takes_tail(node: Node) -> bool:
     """Whether the printed node ends in a bare sum or product that would swallow what follows."""
-    if isinstance(node, BigOp):
+    if isinstance(node, (BigOp, Dissect)):
         return True
     if isinstance(node, Neg):
         return _takes_tail(node.operand)
@@ -99,6 +99,8 @@ def _bare(node: Node) -> str:
             upper = "inf" if node.upper is None else _bare(node.upper)
             head = f"{node.kind}_{{{node.var}={lower}}}^{{{upper}}}"
         return f"{head} {_fmt(node.body, 2, True)}"
+    if isinstance(node, Dissect):
+        return f"{_extractor(node)} {_fmt(node.body, 2, True)}"
     if isinstance(node, Call):
         return f"{node.name}({', '.join(_bare(a) for a in node.args)})"
     if isinstance(node, BigO):
@@ -106,6 +108,21 @@ def _bare(node: Node) -> str:
             return "O(q)"
         return f"O(q^{_fmt(node.exponent, 4, False)})"
     raise TypeError(f"not a syntax-tree node: {node!r}")
+
+
+def _progression(node: Dissect) -> str:
+    """``5n + 4``, ``n``, ``5n - 1/24``: the exponent of an extractor."""
+    lin = node.var if node.m == 1 else f"{node.m}{node.var}"
+    if node.r > 0:
+        lin += f" + {_num(node.r)}"
+    elif node.r < 0:
+        lin += f" - {_num(-node.r)}"
+    return lin
+
+
+def _extractor(node: Dissect) -> str:
+    """``[q^(5n + 4)]``, ``[q^(n)]``, ``[q^(5n - 1/24)]``."""
+    return f"[q^({_progression(node)})]"
 
 
 def show(node: Node) -> str:
@@ -172,6 +189,8 @@ def _tex(node: Node) -> str:
     if isinstance(node, Poch):
         params = ", ".join(_tex(p) for p in node.params)
         return f"({params};{_tex(node.base)})_{_tex_sub(node.length)}"
+    if isinstance(node, Dissect):
+        return f"[q^{{{_progression(node)}}}] {_tex_fmt(node.body, 2, True)}"
     if isinstance(node, BigOp):
         op = "\\sum" if node.kind == "sum" else "\\prod"
         var = _tex_name(node.var)

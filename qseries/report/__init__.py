@@ -1,7 +1,8 @@
 """Every rendering of results, in one layer after the analyses: verdict text
 (:mod:`.verdict`), the table around a mismatch (:mod:`.neighbours`), hints (:mod:`.hints`),
 the JSON shapes shared by the command line and the catalogue (:mod:`.json_shapes`),
-expansions (:mod:`.expansion`), product forms (:mod:`.product`), distributions
+expansions and dissections (:mod:`.expansion`), congruences (:mod:`.congruences`),
+relations (:mod:`.relations`), product forms (:mod:`.product`), distributions
 (:mod:`.distribution`) and the tables of ``verify`` and ``list`` (:mod:`.tables`).
 
 Each function returns text, lines or plain data; printing is the caller's business.
@@ -11,13 +12,17 @@ Each function returns text, lines or plain data; printing is the caller's busine
 {'index': 2, 'lhs': '1', 'rhs': '0'}
 """
 
+from .congruences import congruence_lines, divisibility_lines, progression_text
 from .distribution import decimal_text, distribution_lines, trend_csv
-from .expansion import expansion_note, expansion_text
+from .expansion import dissection_lines, expansion_note, expansion_text
 from .hints import hint_line
 from .json_shapes import (
     check_json,
+    congruences_json,
+    dissection_json,
     distribution_json,
     distributions_json,
+    divisibility_json,
     entry_json,
     expand_json,
     exponent_json,
@@ -28,11 +33,13 @@ from .json_shapes import (
     mismatch_json,
     no_product_json,
     product_json,
+    relations_json,
     trend_json,
     verify_json,
 )
 from .neighbours import neighbour_table
 from .product import no_product_line, product_lines
+from .relations import relation_lines
 from .tables import (
     listing_summary,
     listing_table,
@@ -44,11 +51,14 @@ from .tables import (
 )
 from .verdict import check_lines, entry_verdict_text, mismatch_report, mismatch_text
 
-__all__ = ["check_json", "check_lines", "decimal_text", "distribution_json",
+__all__ = ["check_json", "check_lines", "congruence_lines", "congruences_json",
+           "decimal_text", "dissection_json", "dissection_lines", "distribution_json",
            "distribution_lines", "distributions_json", "entry_json", "entry_verdict_text",
            "expand_json", "expansion_note", "expansion_text", "exponent_json", "finite_json",
            "hint_json", "hint_line", "listing_json", "listing_rows", "listing_summary",
            "listing_table", "mismatch_json", "mismatch_report", "mismatch_text",
            "neighbour_table", "no_product_json", "no_product_line", "product_json",
+           "divisibility_json", "divisibility_lines", "progression_text", "relation_lines",
+           "relations_json",
            "product_lines", "row_label", "slowest_line", "sources_lines", "trend_csv",
            "trend_json", "verify_json", "verify_summary", "verify_table"]

@@ -7,6 +7,7 @@
 
 from __future__ import annotations
 
+from ..analysis import Dissection
 from ..series import Series
 from ..series.formatting import coefficient_text, format_series
 from .json_shapes import known_order
@@ -38,3 +39,15 @@ def expansion_note(s: Series, order: int) -> str | None:
         return None
     return (f"note: only the coefficients below q^{coefficient_text(known)} are known "
             f"(negative powers of q or an O(q^N) term cost precision)")
+
+
+def dissection_lines(d: Dissection, order: int) -> list[str]:
+    """One line per part of an m-dissection, ``r=R: F_R`` with F_R = sum_n a(m n + R) q^n
+    (``qseries expand --dissect M``).
+
+    >>> from qseries.analysis import dissection
+    >>> dissection_lines(dissection("1/(q;q)_inf", 2, 3), 3)
+    ['r=0: 1 + 2q + 5q^2 + O(q^3)', 'r=1: 1 + 3q + 7q^2 + O(q^3)']
+    """
+    return [f"r={coefficient_text(r)}: {expansion_text(f, order)}"
+            for r, f in zip(d.residues, d.parts, strict=True)]

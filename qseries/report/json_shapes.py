@@ -18,7 +18,17 @@ from collections.abc import Iterable, Sequence
 from fractions import Fraction
 from typing import Any, Protocol
 
-from ..analysis import CheckResult, Distribution, Hint, ProductForm, normal_moment
+from ..analysis import (
+    CheckResult,
+    CongruenceSearch,
+    Dissection,
+    Distribution,
+    Divisibility,
+    Hint,
+    ProductForm,
+    Relations,
+    normal_moment,
+)
 from ..series import Series
 from ..series.formatting import coefficient_text, number_text
 
@@ -162,6 +172,69 @@ def expand_json(s: Series, order: int) -> dict[str, Any]:
     known = known_order(s, order)
     terms = [[exponent_json(e), coefficient_text(c)] for e, c in s.terms() if e < known]
     return {"order": exponent_json(known), "terms": terms}
+
+
+def dissection_json(d: Dissection, order: int) -> dict[str, Any]:
+    """The result of ``qseries expand --dissect M --json``: the order below which every
+    part is known, m, and per residue r the part F_r = sum_n a(m n + r) q^n in the shape
+    of ``expand --json``.
+
+    >>> from qseries.analysis import dissection
+    >>> out = dissection_json(dissection("1/(1-q^2)", 2, 3), 3)
+    >>> out["order"], out["m"], out["parts"][0]
+    (3, 2, {'r': 0, 'order': 3, 'terms': [[0, '1'], [1, '1'], [2, '1']]})
+    """
+    parts = [{"r": exponent_json(r), **expand_json(f, order)}
+             for r, f in zip(d.residues, d.parts, strict=True)]
+    known = min((p["order"] for p in parts), key=Fraction, default=order)
+    return {"order": known, "m": d.m, "parts": parts}
+
+
+def congruences_json(s: CongruenceSearch) -> dict[str, Any]:
+    """The result of ``qseries congruences --json`` (a search): the order below which every
+    coefficient was read and the congruences found, implied ones omitted.
+
+    >>> from qseries.analysis import find_congruences
+    >>> congruences_json(find_congruences("1/(q;q)_inf", 1000, max_m=6))
+    {'order': 1000, 'congruences': [{'m': 5, 'r': 4, 'modulus': 5}]}
+    """
+    return {"order": s.order,
+            "congruences": [{"m": c.m, "r": c.r, "modulus": c.modulus}
+                            for c in s.congruences]}
+
+
+def divisibility_json(d: Divisibility) -> dict[str, Any]:
+    """The result of ``qseries congruences --modulus M --json``: whether every a(m n + r)
+    below the order is divisible by M, and the first counterexample (null when none).
+
+    >>> from qseries.analysis import divisible
+    >>> divisibility_json(divisible("1/(q;q)_inf", 3, 10, m=2, r=1))["counterexample"]
+    {'n': 0, 'exponent': 1, 'residue': 1, 'value': None}
+    """
+    c = d.counterexample
+    return {"order": exponent_json(d.order), "modulus": d.modulus, "m": d.m,
+            "r": exponent_json(d.r), "checked": d.checked, "divisible": d.holds,
+            "counterexample": None if c is None else {
+                "n": c.n, "exponent": exponent_json(c.exponent), "residue": c.residue,
+                "value": None if c.value is None else coefficient_text(c.value)}}
+
+
+def relations_json(r: Relations) -> dict[str, Any]:
+    """The result of ``qseries relations --json``: the order below which the coefficients
+    were compared, one list of integer coefficients (strings) per relation of the reduced
+    basis, in the order of ``monomials`` (for degree 1 the series as given), the relations
+    as text, and the evidence (equations, unknowns, confirmed, stable).
+
+    >>> from qseries.analysis import relations
+    >>> out = relations_json(relations(["theta_3(q)^4", "theta_2(q)^4", "theta_4(q)^4"], 40))
+    >>> out["order"], out["relations"], out["confirmed"]
+    (40, [['1', '-1', '-1']], 37)
+    """
+    return {"order": exponent_json(r.order),
+            "relations": [[str(c) for c in v] for v in r.relations],
+            "monomials": [list(m) for m in r.monomials], "degree": r.degree,
+            "texts": [r.text(v) for v in r.relations], "equations": r.equations,
+            "unknowns": r.unknowns, "confirmed": r.confirmed, "stable": r.stable}
 
 
 def product_json(pf: ProductForm) -> dict[str, Any]:

@@ -861,6 +861,43 @@ class Series:
         return Series(self.ring, self.ring._inflate(self.poly, d), self.start * d + n, f, prec,
                       None if self.cap is None else self.cap * d)
 
+    def section(self, m: int, r: Exponent) -> Series:
+        """The terms of exponent m n + r, as the series sum_n [q^(m n + r)]f q^n (for an
+        integer m >= 1; n runs over every integer, negative ones included).  ``r`` must be in
+        the class of the series' exponents (an integer for a series in integer powers,
+        r - 1/24 + an integer for q^(-1/24) (q;q)_inf^-1, ...): another class holds no term
+        and is refused, as almost surely a mistake.  Honest precision: from f known to
+        O(q^N) the section is known to O(q^ceil((N - r)/m)).  One strided read of the
+        coefficients (``Ring.deflate``).
+
+        >>> f = Series.from_coefficients([1, 1, 2, 3, 5, 7, 11, 15, 22, 30], prec=10)
+        >>> f.section(5, 4)
+        5 + 30q + O(q^2)
+        >>> (Series.monomial(Fraction(-1, 24)) * f).section(5, Fraction(95, 24))
+        5 + 30q + O(q^2)
+        >>> f.section(3, -1)
+        2q + 7q^2 + 22q^3 + O(q^4)
+        """
+        if isinstance(m, bool) or not isinstance(m, numbers.Integral) or m < 1:
+            raise ArgumentError(f"the step m of a dissection must be an integer >= 1, not {m!r}")
+        m = int(m)
+        r = _as_exponent(r, "the residue r")
+        s = Fraction(r) - self.offset
+        known = self.precision
+        prec = None if known is None else _ceil((Fraction(known) - Fraction(r)) / m)
+        R = self.ring
+        if self.is_zero():
+            return Series(R, R.zero(), 0, 0, prec)
+        if s.denominator != 1:
+            raise DomainError(f"the exponents of this series are {_power_text(self.offset)} "
+                              f"times integer powers of q, so none of them is m n + {r}: "
+                              f"choose r in their class, or multiply by a power of q first")
+        s_int = s.numerator
+        n0 = -((s_int - self.start) // m)           # the least n with m n + s >= start
+        i0 = m * n0 + s_int - self.start             # its index in the coefficients
+        poly = R._deflate(self.poly, m, i0)             # 0 <= i0 < m
+        return Series(R, poly, n0, 0, prec)
+
     # -- comparison --------------------------------------------------------------------------
     def __eq__(self, other: object) -> bool:
         """The same truncated series: the same precision (both exact, or the same O(q^N))

@@ -239,3 +239,21 @@ def test_shift_down_drops_the_lowest_coefficients_in_every_ring(ring):
     # below q^k); every ring now drops them
     assert ring.coefficients(ring.shift_down(ring.poly([1, 2, 3]), 1)) == [2, 3]
     assert ring.coefficients(ring.shift_down(ring.poly([1, 2, 3]), 5)) == []
+
+
+@given(st.lists(st.integers(-50, 50), max_size=40), st.integers(1, 7), st.data())
+def test_deflate_is_the_strided_read(coeffs, m, data):
+    """Ring.deflate(p, m, r) against Python's slice of the coefficient list (ZZ, QQ)."""
+    r = data.draw(st.integers(0, m - 1))
+    for R in (ZZ, QQ):
+        got = R.coefficients(R.deflate(R.poly(coeffs), m, r))
+        want = coeffs[r::m]
+        while want and want[-1] == 0:
+            want = want[:-1]
+        assert got == want
+
+
+def test_deflate_undoes_inflate():
+    p = ZZ.poly([3, -1, 4, 1, 5])
+    assert ZZ.deflate(ZZ.inflate(p, 4), 4, 0) == p
+    assert ZZ.length(ZZ.deflate(ZZ.inflate(p, 4), 4, 3)) == 0

@@ -59,3 +59,13 @@ def test_bad_variable_names_are_refused():
         laurent_ring(("q",))
     with pytest.raises(DomainError):
         laurent_ring(("z", "z"))
+
+
+def test_deflate_reads_every_m_th_coefficient():
+    """The Laurent ring's deflate: coefficients in z carried along, the shift kept."""
+    R = laurent_ring(("z",))
+    z = R.gen("z")
+    p = R.poly([1, z, 2 * z, z + 1, 0, z**-1])
+    assert R.coefficients(R.deflate(p, 2, 1)) == [z, z + 1, z**-1]
+    assert R.coefficients(R.deflate(p, 3, 0)) == [1, z + 1]
+    assert R.coefficients(R.deflate(p, 1, 0)) == R.coefficients(p)

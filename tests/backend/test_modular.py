@@ -64,3 +64,14 @@ def test_exponential_of_a_logarithm_modulo_p():
     assert got + [0] * (n - len(got)) == expected
     # dividing by k < 30 modulo 29 is impossible: the ring says so instead of guessing
     assert GF(29).exp_integral(s, n) is None
+
+
+@given(st.lists(st.integers(-50, 50), max_size=40), st.integers(1, 7), st.data())
+def test_deflate_is_the_strided_read(coeffs, m, data):
+    """GF(p).deflate against the slice of the reduced coefficients."""
+    r = data.draw(st.integers(0, m - 1))
+    R = GF(7)
+    want = [c % 7 for c in coeffs][r::m]
+    while want and want[-1] == 0:
+        want = want[:-1]
+    assert R.coefficients(R.deflate(R.poly(coeffs), m, r)) == want

@@ -472,3 +472,100 @@ def test_latex_output_of_expand_product_and_check():
     assert r.exit_code == 0 and "\\frac{1}{(q, q^{4};q^{5})_\\infty}" in r.stdout
     r = run("check", "(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)", "--latex")
     assert r.exit_code == 0 and r.stdout.startswith("% AGREES")
+
+
+def test_expand_extractor_gives_partitions_in_a_progression():
+    """The scripted form of issue 14: p(5n+4) as the coefficient of q^n."""
+    from qseries.backend import partitions_p
+
+    r = run("expand", "[q^(5n+4)] 1/(q;q)_inf", "--order", "100", "--json")
+    assert r.exit_code == 0
+    data = json.loads(r.stdout)
+    assert data["order"] == 100
+    assert data["terms"] == [[n, str(partitions_p(5 * n + 4))] for n in range(100)]
+    latex = run("expand", r"[q^{5n+4}] \frac{1}{(q;q)_\infty}", "--order", "100", "--json")
+    assert json.loads(latex.stdout) == data
+
+
+def test_expand_dissect_option():
+    from qseries.backend import partitions_p
+
+    r = run("expand", "1/(q;q)_inf", "--order", "30", "--dissect", "7", "--json")
+    assert r.exit_code == 0
+    data = json.loads(r.stdout)
+    assert data["order"] == 30 and data["m"] == 7 and len(data["parts"]) == 7
+    for part in data["parts"]:
+        want = [[n, str(partitions_p(7 * n + part["r"]))] for n in range(30)]
+        assert part["terms"] == want
+    text = run("expand", "1/(q;q)_inf", "-n", "3", "--dissect", "2")
+    assert text.stdout.splitlines() == ["r=0: 1 + 2q + 5q^2 + O(q^3)",
+                                        "r=1: 1 + 3q + 7q^2 + O(q^3)"]
+
+
+@pytest.mark.parametrize("args", [
+    ("expand", "[q^(5n+4)] eta(q)"),
+    ("expand", "[q^(5n+4) 1/(q;q)_inf"),
+    ("expand", "1/(q;q)_inf", "--dissect", "0"),
+])
+def test_expand_extractor_errors_exit_2(args):
+    r = run(*args)
+    assert r.exit_code == 2 and "Traceback" not in r.output
+
+
+def test_congruences_search_json():
+    """Ramanujan's three (Andrews, The Theory of Partitions, Ch. 10; from memory)."""
+    r = run("congruences", "1/(q;q)_inf", "--order", "2000", "--json")
+    assert r.exit_code == 0
+    assert json.loads(r.stdout) == {"order": 2000, "congruences": [
+        {"m": 5, "r": 4, "modulus": 5}, {"m": 7, "r": 5, "modulus": 7},
+        {"m": 11, "r": 6, "modulus": 11}]}
+    r = run("congruences", "1/(q;q)_inf", "-n", "3000", "--moduli", "5, 25", "--max-step", "25")
+    assert r.exit_code == 0
+    assert r.stdout.splitlines()[1:] == ["a(5n + 4) = 0 (mod 5)  on 600 coefficients",
+                                         "a(25n + 24) = 0 (mod 25)  on 120 coefficients"]
+
+
+def test_congruences_test_mode_exit_codes():
+    ok = run("congruences", "[q^(5n+4)] 1/(q;q)_inf", "--modulus", "5", "-n", "5000")
+    assert ok.exit_code == 0 and "divisible" in ok.stdout
+    same = run("congruences", "1/(q;q)_inf", "-M", "5", "--step", "5", "--residue", "4",
+               "-n", "5000", "--json")
+    assert same.exit_code == 0 and json.loads(same.stdout)["divisible"] is True
+    bad = run("congruences", "1/(q;q)_inf", "-M", "7", "--step", "5", "--residue", "4",
+              "--json")
+    assert bad.exit_code == 1
+    assert json.loads(bad.stdout)["counterexample"] == {"n": 0, "exponent": 4, "residue": 5,
+                                                        "value": None}
+    frac = run("congruences", "q^(-1/24)/(q;q)_inf", "-M", "5", "--step", "5", "--residue",
+               "95/24")
+    assert frac.exit_code == 0
+
+
+@pytest.mark.parametrize("args, words", [
+    (("1/(q;q)_inf", "-M", "1"), "--modulus"),
+    (("1/(q;q)_inf", "-M", "5", "--step", "0"), "--step"),
+    (("1/(q;q)_inf", "-M", "5", "--step", "5", "--residue", "5"), "0 <= r < m"),
+    (("1/(q;q)_inf", "-M", "5", "--residue", "x"), "--residue"),
+    (("1/(q;q)_inf", "--moduli", "5,x"), "--moduli"),
+    (("1/(q;q)_inf", "--moduli", "1"), "modulus"),
+    (("1/(q;q)_inf", "--step", "5"), "go with --modulus"),
+    (("1/(q;q", "-M", "5"), "column 7"),
+    (("eta(q)",), "integer powers"),
+])
+def test_congruences_bad_input_exit_2(args, words):
+    r = run("congruences", *args)
+    assert r.exit_code == 2 and "Traceback" not in r.output
+    assert words in r.output
+
+
+def test_relations_command():
+    r = run("relations", "theta_3(q)^4", "theta_2(q)^4", "theta_4(q)^4", "-n", "200", "--json")
+    assert r.exit_code == 0
+    data = json.loads(r.stdout)
+    assert data["order"] == 200 and data["relations"] == [["1", "-1", "-1"]]
+    none = run("relations", "1/(q;q)_inf", "(q;q)_inf")
+    assert none.exit_code == 1 and none.stdout.startswith("no integer relation")
+    short = run("relations", "1/(q;q)_inf", "(q;q)_inf", "-n", "1")
+    assert short.exit_code == 2 and "raise the order" in short.output
+    bad = run("relations", "(q;q", "q")
+    assert bad.exit_code == 2 and "column" in bad.output and "Traceback" not in bad.output

@@ -325,3 +325,56 @@ def test_a_base_minus_q_to_the_t_is_the_product_it_names(poch, product):
 def test_a_base_minus_q_with_a_negative_length_is_refused_clearly():
     with pytest.raises(UnableError, match="n < 0"):
         evaluate("(q;-q)_(-2)", 10)
+
+
+# -- the coefficient extractor [q^(m n + r)] F -------------------------------------------
+def test_extractor_gives_partition_numbers_in_progressions():
+    """sum_n p(5n+4) q^n and sum_n p(7n+5) q^n against python-flint's partitions_p."""
+    from qseries.backend import partitions_p
+
+    for m, r in ((5, 4), (7, 5), (11, 6), (3, 0)):
+        s = evaluate(f"[q^({m}n+{r})] 1/(q;q)_inf", 120)
+        assert s.precision == 120
+        assert s.coefficient_list(120) == [partitions_p(m * n + r) for n in range(120)]
+
+
+def test_extractor_precision_is_honest():
+    """From F known to O(q^N) the part is known to O(q^ceil((N - r)/m)), never more."""
+    for n_known in (19, 20, 21, 24, 25):
+        s = evaluate(f"[q^(5n+4)] (1/(q;q)_inf + O(q^{n_known}))", 10)
+        assert s.precision == -(-(n_known - 4) // 5)
+    # the working order is raised for negative powers inside the body
+    s = evaluate("[q^(2n)] q^-9/(q;q)_inf", 10)
+    assert s.precision == 10
+
+
+def test_extractor_takes_negative_and_fractional_residues():
+    from qseries.backend import partitions_p
+
+    # q^(-1/24)/(q;q)_inf = sum p(k) q^(k - 1/24): the exponents 5n + 4 - 1/24 give p(5n+4)
+    s = evaluate("[q^(5n + 4 - 1/24)] q^(-1/24)/(q;q)_inf", 30)
+    assert s.coefficient_list(30) == [partitions_p(5 * n + 4) for n in range(30)]
+    # a residue outside 0..m-1 shifts: [q^(5n-1)] F = q [q^(5n+4)] F
+    a = evaluate("[q^(5n-1)] 1/(q;q)_inf", 20)
+    b = evaluate("q [q^(5n+4)] 1/(q;q)_inf", 20)
+    assert a == b
+    with pytest.raises(DomainError, match="none of them is m n"):
+        evaluate("[q^(5n+4)] eta(q)", 10)
+
+
+def test_extractor_over_other_rings_and_inside_sums():
+    from qseries.backend import partitions_p
+    from qseries.series import GF
+
+    s = evaluate("[q^(5n+4)] 1/(q;q)_inf", 200, ring=GF(5))
+    assert s.is_zero() and s.precision == 200          # Ramanujan: p(5n+4) = 0 mod 5
+    s = evaluate("[q^(5n+4)] 1/(q;q)_inf", 50, ring=GF(7))
+    assert s.coefficient_list(50) == [partitions_p(5 * n + 4) % 7 for n in range(50)]
+    # with an extra variable: coefficients in z come along
+    whole = evaluate("(z q;q)_inf", 12)
+    part = evaluate("[q^(2n+1)] (z q;q)_inf", 5)
+    assert [part.coefficient(n) for n in range(5)] == [whole.coefficient(2 * n + 1)
+                                                       for n in range(5)]
+    # inside a finite sum, the part of each term
+    assert evaluate("sum_{k=0}^{3} [q^(2n)] q^k/(1-q)", 6) == \
+        evaluate("1/(1-q) + 2q/(1-q) + q^2/(1-q)", 6)

@@ -115,3 +115,56 @@ def test_extra_variables_are_single_letters_not_bound():
     assert parse("z") == Var("z")
     # a bound letter is not an extra variable
     assert extra_variables(parse("sum_{z>=0} q^z")) == frozenset()
+
+
+def test_coefficient_extractor_forms():
+    from qseries.lang.ast import Dissect
+
+    body = parse("1/(q;q)_inf")
+    d = parse("[q^(5n+4)] 1/(q;q)_inf")
+    assert d == Dissect(5, Fraction(4), body)
+    # braces (LaTeX), any fresh index letter, the linear form written in other ways
+    assert parse(r"[q^{5n+4}]\frac{1}{(q;q)_\infty}") == d
+    assert parse("[q^(5k+4)] 1/(q;q)_inf") == d
+    assert parse("[q^(4 + n*5)] 1/(q;q)_inf") == d
+    assert parse("[q^(5(n+1) - 1)] 1/(q;q)_inf") == d
+    assert parse(r"\left[q^{5n+4}\right] \frac{1}{(q;q)_\infty}") == d
+    # Atkin's U_m is the residue 0
+    assert parse("U_5(1/(q;q)_inf)") == parse("U_{5}(1/(q;q)_inf)") == Dissect(5, Fraction(0),
+                                                                               body)
+    # fractional residues (the class of the body's exponents)
+    assert parse("[q^(5n - 1/24)] eta(q)").r == Fraction(-1, 24)
+    # the extractor takes the product term that follows, as a sum does
+    t = parse("[q^(2n)] q (q;q)_inf + 1")
+    assert isinstance(t, BinOp) and t.op == "+" and isinstance(t.left, Dissect)
+    assert t.left.body == parse("q (q;q)_inf")
+    # a factor before it multiplies
+    assert parse("3 [q^(2n)] q") == BinOp("*", Num(Fraction(3)), Dissect(2, Fraction(0), Q()))
+
+
+@pytest.mark.parametrize("text, column, words", [
+    ("[q^5n+4] F", 4, "in parentheses"),
+    ("[q^(5n+m)] q", 4, "exactly one index letter"),
+    ("[q^(n^2)] q", 4, "m n + r"),
+    ("[q^(n/2)] q", 4, "m n + r"),
+    ("[q^(-5n)] q", 4, "m n + r"),
+    ("[q^(5)] q", 4, "no index letter"),
+    ("[z^(n)] q", 2, "coefficient extractor"),
+    ("[q^(5n+4) q", 11, "closing the extractor"),
+    ("sum_{n>=0} [q^(5n)] q", 15, "'n' is bound by an enclosing sum"),
+    ("U_0(q)", 3, "U_5(F)"),
+    ("U_5 q", 5, "U_5(F)"),
+    ("[q^(5n+4)]", 11, "ends too early"),
+])
+def test_coefficient_extractor_errors(text, column, words):
+    with pytest.raises(ParseError) as err:
+        parse(text)
+    assert words in str(err.value)
+    assert f"column {column}" in str(err.value)
+
+
+def test_extractor_listed_in_notation():
+    from qseries.lang.parser import NOTATION_FORMS
+
+    forms = " ".join(f for f, _ in NOTATION_FORMS)
+    assert "[q^(5n+4)]" in forms and "U_5(F)" in forms

@@ -6,7 +6,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from qseries.lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Num, Poch, Q
+from qseries.lang.ast import BigO, BigOp, BinOp, Call, Dissect, Name, Neg, Num, Poch, Q
 from qseries.lang.ast import children as children_of
 from qseries.lang.parser import parse
 from qseries.lang.printer import show
@@ -24,6 +24,10 @@ EXAMPLES = [
     "sum_{n>=0} sum_{k=0}^{n} q^(n k)",
     "1/(q)_inf",
     "q^(1/24) (q;q)_(-3)",
+    "[q^(5n+4)] 1/(q;q)_inf",
+    "[q^{7k+5}] 1/(q;q)_inf + 1",
+    "U_5(q (q^5;q^5)_inf^5/(q;q)_inf^6) - 2 [q^(2n - 1/24)] q^(-1/24) eta(q)",
+    "[q^(n)] [q^(3n+2)] (q;q)_inf",
 ]
 
 
@@ -53,6 +57,8 @@ def _trees(var_names: tuple[str, ...] = ()):
             .filter(lambda b: not any(_has_bigop(c) for c in children_of(b))),
             st.builds(lambda e: Call("eta", (e,)), children),
             st.builds(BigO, children),
+            st.builds(lambda m, r, body: Dissect(m, r, body), st.integers(1, 12),
+                      st.fractions(-30, 30, max_denominator=24), children),
         )
 
     return st.recursive(base, extend, max_leaves=12)

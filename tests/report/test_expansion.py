@@ -23,3 +23,13 @@ def test_a_series_known_to_less_says_so():
     assert expansion_text(s, 10).endswith("+ O(q^5)")
     assert expansion_note(s, 10) == ("note: only the coefficients below q^5 are known "
                                      "(negative powers of q or an O(q^N) term cost precision)")
+
+
+def test_dissection_lines_one_per_residue():
+    from qseries.analysis import dissection
+    from qseries.report import dissection_lines
+
+    lines = dissection_lines(dissection("q^(-1/24)/(q;q)_inf", 2, 3), 3)
+    # the exponent -1/24 = 2(-1) + 47/24: p(0) stands at q^-1 of the part r = 47/24
+    assert lines == ["r=23/24: 1 + 3q + 7q^2 + O(q^3)",
+                     "r=47/24: q^-1 + 2 + 5q + 11q^2 + O(q^3)"]

@@ -185,3 +185,44 @@ def test_listing_rows_carry_a_familys_ranges_and_a_note():
     rows = listing_rows(members + [noted])
     assert rows[0]["params"] == {"k": "0..2"} and "note" not in rows[0]
     assert rows[1]["note"] == "a misprint" and "params" not in rows[1]
+
+
+def test_dissection_json_shape():
+    from qseries.analysis import dissection
+    from qseries.report import dissection_json
+
+    out = dissection_json(dissection("1/(q;q)_inf", 3, 4), 4)
+    assert json.loads(json.dumps(out)) == out
+    assert out["order"] == 4 and out["m"] == 3
+    assert [p["r"] for p in out["parts"]] == [0, 1, 2]
+    assert out["parts"][2] == {"r": 2, "order": 4,
+                               "terms": [[0, "2"], [1, "7"], [2, "22"], [3, "56"]]}
+    frac = dissection_json(dissection("eta(q)", 2, 3), 3)
+    assert [p["r"] for p in frac["parts"]] == ["1/24", "25/24"]
+
+
+def test_congruence_json_shapes():
+    from qseries.analysis import divisible, find_congruences
+    from qseries.report import congruences_json, divisibility_json
+
+    out = congruences_json(find_congruences("1/(q;q)_inf", 1000))
+    assert out == {"order": 1000, "congruences": [{"m": 5, "r": 4, "modulus": 5},
+                                                  {"m": 7, "r": 5, "modulus": 7},
+                                                  {"m": 11, "r": 6, "modulus": 11}]}
+    d = divisibility_json(divisible("1/(q;q)_inf", 25, 100, m=5, r=4))
+    assert json.loads(json.dumps(d)) == d
+    assert d == {"order": 100, "modulus": 25, "m": 5, "r": 4, "checked": 100,
+                 "divisible": False,
+                 "counterexample": {"n": 0, "exponent": 4, "residue": 5, "value": "5"}}
+    frac = divisibility_json(divisible("q^(-1/24)/(q;q)_inf", 5, 10, m=5, r=Fraction(95, 24)))
+    assert frac["r"] == "95/24" and frac["divisible"] is True
+
+
+def test_relations_json_shape():
+    from qseries.analysis import relations
+    from qseries.report import relations_json
+
+    out = relations_json(relations(["theta_3(q)^4", "theta_2(q)^4", "theta_4(q)^4"], 60))
+    assert json.loads(json.dumps(out)) == out
+    assert out["order"] == 60 and out["relations"] == [["1", "-1", "-1"]]
+    assert out["monomials"] == [[1, 0, 0], [0, 1, 0], [0, 0, 1]] and out["stable"] is True

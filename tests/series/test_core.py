@@ -7,7 +7,13 @@ import sympy
 from hypothesis import given
 from hypothesis import strategies as st
 
-from qseries.errors import DomainError, IncompatibleRingError, PrecisionError, UnableError
+from qseries.errors import (
+    DomainError,
+    IncompatibleRingError,
+    PrecisionError,
+    QSeriesError,
+    UnableError,
+)
 from qseries.series import GF, QQ, ZZ, Series
 from qseries.series.reference import ref_inverse, ref_mul, ref_pow
 
@@ -246,3 +252,34 @@ def test_cap_kept_in_the_fuzzing_cases():
     assert f.inverse().precision == half                                # q^-1 (1 + O(q^(3/2)))
     g = Series.zero(prec=2) + Series.monomial(Fraction(7, 2))           # O(q^2)
     assert (g * 1).precision == 2
+
+
+@given(st.lists(st.integers(-9, 9), max_size=30), st.integers(-6, 6),
+       st.sampled_from([Fraction(0), Fraction(1, 24), Fraction(23, 24), Fraction(1, 2)]),
+       st.one_of(st.none(), st.integers(0, 40)), st.integers(1, 8), st.integers(-10, 10))
+def test_section_reads_coefficient_by_coefficient(coeffs, start, offset, prec, m, j):
+    """f.section(m, r) against f.coefficient(m n + r), one exponent at a time, and its
+    precision against ceil((N - r)/m)."""
+    f = Series.from_coefficients(coeffs, start=start, prec=prec, offset=offset)
+    r = offset + j
+    g = f.section(m, r)
+    if prec is None:
+        assert g.precision is None
+        top = (start + len(coeffs) + 2 - j) // m + 2
+    else:
+        known = f.precision
+        assert g.precision == -((-(known - r)) // m)
+        top = g.precision
+    for n in range(-20, top):
+        assert g.coefficient(n) == f.coefficient(m * n + r)
+
+
+def test_section_refuses_another_class_and_bad_steps():
+    f = Series.monomial(Fraction(1, 24)) * Series.from_coefficients([1, -1, -1], prec=3)
+    with pytest.raises(DomainError, match="none of them is m n"):
+        f.section(5, 4)
+    assert f.section(5, Fraction(1, 24)) == Series.from_coefficients([1], prec=1)
+    for bad in (0, -2, 1.5, True):
+        with pytest.raises(QSeriesError, match="integer >= 1"):
+            f.section(bad, Fraction(1, 24))
+    assert Series.zero(prec=10).section(3, 1).precision == 3     # ceil((10 - 1)/3)

@@ -1,0 +1,31 @@
+"""Relations among series (``qseries relations``) as text.
+
+>>> from qseries.analysis import relations
+>>> relation_lines(relations(["1/(1-q)", "q/(1-q)", "1"], 20))[1]
+'(1/(1-q)) - (q/(1-q)) - (1) = 0'
+"""
+
+from __future__ import annotations
+
+from ..analysis import Relations
+
+
+def relation_lines(r: Relations) -> list[str]:
+    """A header with the count and the evidence, then one relation per line in the
+    notation.
+
+    >>> from qseries.analysis import relations
+    >>> relation_lines(relations(["1/(1-q)", "(q;q)_inf"], 20))
+    ['no integer relation below q^20 (20 coefficients for 2 unknowns)']
+    """
+    evidence = f"{r.equations} coefficients for {r.unknowns} unknowns"
+    kind = "integer relation" if r.degree == 1 else f"polynomial relation of degree <= {r.degree}"
+    if not r.relations:
+        return [f"no {kind} below q^{r.order} ({evidence})"]
+    n = len(r.relations)
+    note = "" if r.stable else "; not yet stable: raise the order"
+    lines = [f"{n} {kind}{'s' if n > 1 else ''} below q^{r.order} (a reduced basis; "
+             f"{evidence}, {r.confirmed} beyond the unknowns confirm {'them' if n > 1 else 'it'}"
+             f"{note}):"]
+    lines += [r.text(v) for v in r.relations]
+    return lines
