@@ -65,6 +65,25 @@ def _py_coeffs(p: Any) -> list[Number]:
     return out
 
 
+
+_NOT_SCALARS = (str, bytes, float, complex, list, tuple, dict, set, type(None))
+
+
+def _scalar_argument(name: str, value: object) -> None:
+    """Refuse what cannot be a number or a coefficient (text, floats, containers, None,
+    bools) with an ArgumentTypeError naming the argument; O(1)."""
+    if isinstance(value, bool) or isinstance(value, _NOT_SCALARS):
+        raise ArgumentTypeError(f"{name} must be an integer, a Fraction or a coefficient of "
+                                f"the ring, not {value!r:.60} ({type(value).__name__})")
+
+
+def _sequence_argument(name: str, value: object) -> None:
+    """Refuse coefficients that are not given as a list, tuple or range."""
+    if not isinstance(value, (list, tuple, range)):
+        raise ArgumentTypeError(f"{name} must be a list of coefficients, not "
+                                f"{type(value).__name__}")
+
+
 class Ring:
     """Operations on dense truncated polynomials over one coefficient ring.
 
@@ -120,6 +139,7 @@ class Ring:
         >>> ZZ.poly([1, 0, 2])
         2*x^2 + 1
         """
+        _sequence_argument("coeffs", coeffs)
         return self._ptype([self.coerce(c) if isinstance(c, (int, Fraction)) else c
                             for c in coeffs])
 
@@ -140,6 +160,7 @@ class Ring:
         >>> ZZ.coefficients(ZZ.poly_from_ints([1, -1, -1]))
         [1, -1, -1]
         """
+        _sequence_argument("coeffs", coeffs)
         return self._ptype(coeffs)
 
     def convert(self, p: Any) -> Any:
@@ -149,6 +170,7 @@ class Ring:
         >>> QQ.coefficients(QQ.convert(ZZ.poly([1, 2])))
         [1, 2]
         """
+        _scalar_argument("p", p)
         if isinstance(p, self._ptype):
             return p
         return self._ptype([self.coerce(c) for c in _py_coeffs(p)])
@@ -160,6 +182,7 @@ class Ring:
         >>> ZZ.to_number(ZZ.poly([7])[0])
         7
         """
+        _scalar_argument("c", c)
         return int(c)
 
     def _coefficients(self, p: Any) -> list[Number]:

@@ -13,7 +13,7 @@ from typing import Any
 import flint
 
 from ..errors import IncompatibleRingError
-from .base import Number, Ring
+from .base import Number, Ring, _scalar_argument
 from .rational import QQ
 
 __all__ = ["ZZ", "IntegerRing"]
@@ -46,6 +46,7 @@ class IntegerRing(Ring):
         >>> ZZ.coerce(Fraction(6, 3))
         2
         """
+        _scalar_argument("c", c)
         if isinstance(c, flint.fmpz):
             return c
         if isinstance(c, Fraction):

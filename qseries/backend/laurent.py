@@ -28,7 +28,7 @@ from ..errors import (
     weight_may_help,
 )
 from .arith import _about, _decimal
-from .base import MAX_SHIFT, Number, Ring, _number
+from .base import MAX_SHIFT, Number, Ring, _number, _scalar_argument, _sequence_argument
 
 __all__ = ["LaurentPoly", "LaurentRing", "laurent_ring", "laurent_text", "laurent_budget",
            "MAX_LAURENT_TERMS", "MAX_VARIABLES", "LAURENT_SECONDS", "MAX_LAURENT_PRODUCT",
@@ -357,6 +357,7 @@ class LaurentRing(Ring):
         >>> R.coerce(3) + z
         z + 3
         """
+        _scalar_argument("c", c)
         if isinstance(c, LaurentPoly):
             if c.ring is self:
                 return c
@@ -386,6 +387,7 @@ class LaurentRing(Ring):
         >>> R.coefficients(R.poly([1, z]))
         [1, z]
         """
+        _sequence_argument("coeffs", coeffs)
         acc = self.zero()
         for i, c in enumerate(coeffs):
             if c:
@@ -406,6 +408,7 @@ class LaurentRing(Ring):
         >>> R = laurent_ring(("z",)); R.coefficients(R.poly_from_ints([1, 0, -2]))
         [1, 0, -2]
         """
+        _sequence_argument("coeffs", coeffs)
         k = len(self.names)
         return self._wrap(self.ctx.from_dict({(i, *([0] * k)): c
                                               for i, c in enumerate(coeffs) if c}))
@@ -418,6 +421,7 @@ class LaurentRing(Ring):
         >>> R = laurent_ring(("z",)); R.coefficients(R.convert(flint.fmpz_poly([2, 3])))
         [2, 3]
         """
+        _scalar_argument("p", p)
         if isinstance(p, LaurentPoly):
             return self.coerce(p)
         if isinstance(p, (flint.fmpz_poly, flint.fmpq_poly)):
@@ -438,6 +442,7 @@ class LaurentRing(Ring):
         >>> R.to_number(R.coerce(3)), R.to_number(2 * z)
         (3, 2*z)
         """
+        _scalar_argument("c", c)
         if isinstance(c, LaurentPoly):
             if c.shift == self._no_shift and c.m.is_constant():
                 return _number(c.m.coeffs()[0]) if not c.m.is_zero() else 0

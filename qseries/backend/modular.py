@@ -17,7 +17,7 @@ from typing import Any
 import flint
 
 from ..errors import ArgumentTypeError, DomainError, IncompatibleRingError, typed_argument
-from .base import Number, Ring, _py_coeffs
+from .base import Number, Ring, _py_coeffs, _scalar_argument, _sequence_argument
 
 __all__ = ["GF", "ModularRing"]
 
@@ -67,6 +67,7 @@ class ModularRing(Ring):
         >>> GF(5).coefficients(GF(5).poly([7, Fraction(1, 2)]))
         [2, 3]
         """
+        _sequence_argument("coeffs", coeffs)
         return flint.nmod_poly([int(self.coerce(c)) for c in coeffs], self.p)
 
     def poly_from_ints(self, coeffs: list[int]) -> Any:
@@ -75,6 +76,7 @@ class ModularRing(Ring):
         >>> GF(5).coefficients(GF(5).poly_from_ints([6, -1]))
         [1, 4]
         """
+        _sequence_argument("coeffs", coeffs)
         return flint.nmod_poly(coeffs, self.p)
 
     def convert(self, p: Any) -> Any:
@@ -83,6 +85,7 @@ class ModularRing(Ring):
         >>> GF(5).coefficients(GF(5).convert(flint.fmpz_poly([6, 7])))
         [1, 2]
         """
+        _scalar_argument("p", p)
         if isinstance(p, flint.nmod_poly):
             if p.modulus() != self.p:
                 raise IncompatibleRingError(f"cannot mix GF({p.modulus()}) with {self.name}")
@@ -95,6 +98,7 @@ class ModularRing(Ring):
         >>> GF(7).coerce(Fraction(1, 2))
         4
         """
+        _scalar_argument("c", c)
         if isinstance(c, Fraction):
             if c.denominator % self.p == 0:
                 raise DomainError(f"the denominator of {c} is not invertible modulo {self.p}")

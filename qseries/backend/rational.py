@@ -11,7 +11,14 @@ from typing import Any
 
 import flint
 
-from .base import Number, Ring, _exact_quotient, _fraction, exp_online
+from .base import (
+    Number,
+    Ring,
+    _exact_quotient,
+    _fraction,
+    _scalar_argument,
+    exp_online,
+)
 
 __all__ = ["QQ", "RationalRing"]
 
@@ -33,6 +40,7 @@ class RationalRing(Ring):
         >>> QQ.coerce(Fraction(3, 6))
         1/2
         """
+        _scalar_argument("c", c)
         if isinstance(c, flint.fmpq):
             return c
         if isinstance(c, Fraction):
@@ -47,6 +55,7 @@ class RationalRing(Ring):
         >>> QQ.to_number(QQ.coerce(4)), QQ.to_number(QQ.coerce(Fraction(1, 3)))
         (4, Fraction(1, 3))
         """
+        _scalar_argument("c", c)
         f = _fraction(c)
         return f.numerator if f.denominator == 1 else f
 
@@ -56,6 +65,7 @@ class RationalRing(Ring):
         >>> QQ.convert(flint.fmpz_poly([1, 2]))
         2*x + 1
         """
+        _scalar_argument("p", p)
         if isinstance(p, flint.fmpz_poly):
             return flint.fmpq_poly(p)
         return super().convert(p)

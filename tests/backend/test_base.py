@@ -257,3 +257,19 @@ def test_deflate_undoes_inflate():
     p = ZZ.poly([3, -1, 4, 1, 5])
     assert ZZ.deflate(ZZ.inflate(p, 4), 4, 0) == p
     assert ZZ.length(ZZ.deflate(ZZ.inflate(p, 4), 4, 3)) == 0
+
+
+@pytest.mark.parametrize("ring_name", ["ZZ", "QQ", "GF", "laurent"])
+def test_construction_methods_refuse_what_is_not_a_number_or_a_list(ring_name):
+    # issue 12: ZZ.poly("x") raised a bare TypeError from inside FLINT
+    import qseries.backend as b
+    from qseries.errors import ArgumentTypeError
+    ring = {"ZZ": b.ZZ, "QQ": b.QQ, "GF": b.GF(101), "laurent": b.laurent_ring(("z",))}[ring_name]
+    for call, name in [(lambda: ring.poly("x"), "coeffs"), (lambda: ring.poly(5), "coeffs"),
+                       (lambda: ring.poly_from_ints("12"), "coeffs"),
+                       (lambda: ring.coerce("x"), "c"), (lambda: ring.coerce(1.5), "c"),
+                       (lambda: ring.coerce(None), "c"), (lambda: ring.to_number("x"), "c"),
+                       (lambda: ring.convert("x"), "p")]:
+        with pytest.raises(ArgumentTypeError, match=f"^{name} must"):
+            call()
+    assert ring.to_number(ring.coerce(3)) == 3 or ring_name == "laurent"
