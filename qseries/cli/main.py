@@ -461,6 +461,7 @@ def congruences_cmd(
         help="With --modulus: the residue R, 0 <= R < M (a fraction such as 95/24 for "
              "exponents in q^c times integer powers); default: every coefficient's class.")]
         = None,
+    define: DefineOption = None,
     max_step: Annotated[int, typer.Option(
         "--max-step", min=1, max=1000,
         help="Search mode: steps m = 1 .. this, every residue 0 <= r < m.")] = 30,
@@ -480,6 +481,7 @@ def congruences_cmd(
     """
     from ..analysis import divisible, find_congruences
 
+    [node] = _parsed([expr], define)
     if modulus is None:
         if step != 1 or residue is not None:
             _fail("--step and --residue go with --modulus (the test mode); the search "
@@ -490,7 +492,7 @@ def congruences_cmd(
             if not item.isascii() or not item.isdigit() or len(item) > 19:
                 _fail(f"--moduli {moduli!r}: write whole numbers >= 2 separated by commas")
             mods.append(int(item))
-        found = _guarded(lambda: find_congruences(expr, order, max_m=max_step, moduli=mods))
+        found = _guarded(lambda: find_congruences(node, order, max_m=max_step, moduli=mods))
         if as_json:
             typer.echo(json.dumps(congruences_json(found)))
             return
@@ -505,7 +507,7 @@ def congruences_cmd(
             r = None
         if r is None:
             _fail(f"--residue {residue!r}: write a whole number or a fraction such as 95/24")
-    result = _guarded(lambda: divisible(expr, modulus, order, m=step, r=r))
+    result = _guarded(lambda: divisible(node, modulus, order, m=step, r=r))
     if as_json:
         typer.echo(json.dumps(divisibility_json(result)))
     else:
@@ -523,6 +525,7 @@ def relations_cmd(
         "--degree", "-d", min=1, max=12,
         help="Find polynomial relations of total degree <= D instead (the monomials in the "
              "series, 1 included, are the unknowns).")] = 1,
+    define: DefineOption = None,
     as_json: JsonOption = False,
 ) -> None:
     """Integer relations c_1 f_1 + ... + c_k f_k = 0 among the series EXPRS below q^N (a
@@ -534,7 +537,8 @@ def relations_cmd(
     """
     from ..analysis import relations
 
-    found = _guarded(lambda: relations(exprs, order, degree=degree))
+    nodes = _parsed(exprs, define)
+    found = _guarded(lambda: relations(nodes, order, degree=degree, labels=exprs))
     if as_json:
         typer.echo(json.dumps(relations_json(found)))
     else:

@@ -422,6 +422,9 @@ def test_define_lets_both_sides_call_a_function_at_any_argument():
 @pytest.mark.parametrize(("cmd", "define"), [
     (["expand", "G(-q)"], G_SUM),
     (["product", "G(q^2)"], G_SUM),
+    (["congruences", "G(q)", "-n", "100"], G_SUM),
+    (["congruences", "[q^(5n+4)] P(q)", "-M", "5", "-n", "50"], "P(q) = 1/(q;q)_inf"),
+    (["relations", "G(q)", "1/((q;q^5)_inf (q^4;q^5)_inf)", "-n", "60"], G_SUM),
     (["distribution", "D(z)", "--at", "4"], "D(z) = sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"),
 ])
 def test_every_command_taking_an_expression_takes_define(cmd, define):
