@@ -77,6 +77,25 @@ app = typer.Typer(
     pretty_exceptions_enable=False,
 )
 
+
+def _print_version(value: bool) -> None:
+    if value:
+        from importlib.metadata import version
+
+        from ..backend import FLINT_VERSION
+        typer.echo(f"qseries {version('qseries')} (python-flint {FLINT_VERSION}, Python "
+                   f"{sys.version.split()[0]})")
+        raise typer.Exit(0)
+
+
+@app.callback()
+def _main(
+    version: Annotated[bool, typer.Option(
+        "--version", callback=_print_version, is_eager=True,
+        help="Print the versions of qseries, python-flint and Python, and exit.")] = False,
+) -> None:
+    pass
+
 class Method(StrEnum):
     """How check compares the two sides."""
 

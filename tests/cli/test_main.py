@@ -572,3 +572,14 @@ def test_relations_command():
     assert short.exit_code == 2 and "raise the order" in short.output
     bad = run("relations", "(q;q", "q")
     assert bad.exit_code == 2 and "column" in bad.output and "Traceback" not in bad.output
+
+
+def test_version_names_the_installed_versions():
+    # issue 16: there was no --version; the figures come from the installed distributions
+    from importlib.metadata import version
+
+    import flint
+    r = run("--version")
+    assert r.exit_code == 0
+    assert r.stdout.startswith(f"qseries {version('qseries')} ")
+    assert f"python-flint {flint.__version__}" in r.stdout
