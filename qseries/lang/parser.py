@@ -265,6 +265,11 @@ class _Parser:
             return self.call(name, t)
         if name == "inf":
             raise self.error("'inf' may only stand as a subscript or a bound of a sum or product")
+        if name == "theta":
+            raise self.error("theta needs its subscript: theta_2(q), theta_3(q) or theta_4(q)")
+        if name == "tau":
+            raise self.error("'tau' is read only inside eta(...), as in eta(5tau); elsewhere "
+                             "write the series in q")
         if self.toks[self.i + 1].text == "(" and self.adjacent():
             raise self.error(_unknown_function_message(name, list(self.defs)))
         if name in self.params or is_extra_variable(name):

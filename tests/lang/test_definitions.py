@@ -185,3 +185,14 @@ def test_chains_of_indices_and_subscripted_names_as_papers_print_them():
 def test_bad_index_lists_are_clear_errors(text, words):
     with pytest.raises(ParseError, match=words):
         parse(text)
+
+
+def test_tau_outside_eta_is_not_read_as_t_a_u():
+    with pytest.raises(ParseError, match="only inside eta"):
+        parse("q^tau")
+    assert parse("eta(5 tau)") == parse("eta(q^5)")
+
+
+def test_theta_without_its_subscript_says_which_exist():
+    with pytest.raises(ParseError, match="theta_2\\(q\\), theta_3\\(q\\) or theta_4\\(q\\)"):
+        parse("theta(q)")
