@@ -59,6 +59,12 @@ __all__ = ["MAX_DEPTH", "MAX_DIGITS", "MAX_TEXT", "NOTATION_FORMS", "Token", "is
 
 #: deepest accepted nesting of parentheses, operators and sums
 MAX_DEPTH = 100
+#: longest run of letters read as a product of one-letter variables (zq, 6ij)
+MAX_LETTER_RUN = 3
+#: names of Greek letters, which papers use as names, never read as a product of letters
+GREEK_NAMES = frozenset({"alpha", "beta", "gamma", "delta", "epsilon", "zeta", "eta", "theta",
+                         "iota", "kappa", "lambda", "mu", "nu", "xi", "pi", "rho", "sigma",
+                         "tau", "upsilon", "phi", "chi", "psi", "omega"})
 #: largest k in an ordinary binomial \binom{n}{k} (a polynomial of degree k in n)
 MAX_BINOM_K = 24
 
@@ -361,7 +367,10 @@ class _Parser:
         return Dissect(int(num.text), Fraction(0), body, "n", t.pos)
 
     def letters_of_a_product(self, name: str) -> bool:
-        return (len(name) > 1 and name.isascii() and name.isalpha()
+        # only short runs (zq, 6ij, abc): a longer word (alpha, beta, sigma) is a name the
+        # user meant, and reading it as a product of letters would be a silent misreading
+        return (1 < len(name) <= MAX_LETTER_RUN and name.isascii() and name.isalpha()
+                and name.lower() not in GREEK_NAMES
                 and _suggestion(name, list(self.defs)) is None
                 and all(ch == "q" or ch in self.bound or ch in self.params
                         or is_extra_variable(ch) for ch in name))

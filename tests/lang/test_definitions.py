@@ -196,3 +196,11 @@ def test_tau_outside_eta_is_not_read_as_t_a_u():
 def test_theta_without_its_subscript_says_which_exist():
     with pytest.raises(ParseError, match="theta_2\\(q\\), theta_3\\(q\\) or theta_4\\(q\\)"):
         parse("theta(q)")
+
+
+@pytest.mark.parametrize("word", ["alpha", "beta", "mu", "nu", "pi", "sigma", "abcd"])
+def test_words_are_not_silently_read_as_products_of_letters(word):
+    # the letters-side-by-side rule covers short runs (zq, 6ij); a Greek name or a longer
+    # word is refused with a clear message instead of being read as a*l*p*h*a
+    with pytest.raises(ParseError, match="unknown name"):
+        parse(f"q^2 {word}")
