@@ -12,6 +12,8 @@ from qseries.backend import QQ, ZZ
 from qseries.errors import DomainError
 from qseries.series.reference import ref_inverse
 
+from .pentagonal import euler_case
+
 fractions = st.fractions(min_value=-5, max_value=5, max_denominator=7)
 
 
@@ -45,12 +47,6 @@ def test_exponential_with_rational_coefficients():
 def test_exponential_of_a_logarithm_over_the_rationals():
     # Euler's (q;q)_inf: the pentagonal numbers with signs + - - + + - - + +
     n = 30
-    s = [0] * n
-    for x in range(1, n):
-        for m in range(x, n, x):
-            s[m] -= x
-    expected = [0] * n
-    for e, c in ((0, 1), (1, -1), (2, -1), (5, 1), (7, 1), (12, -1), (15, -1), (22, 1), (26, 1)):
-        expected[e] = c
+    s, expected = euler_case(n)
     got = QQ.coefficients(QQ.exp_integral(s, n))
     assert got + [0] * (n - len(got)) == expected
