@@ -18,10 +18,11 @@ from .congruences import (
 from .diagnose import Hint, diagnose
 from .dissection import Dissection, dissect, dissection
 from .product_form import ProductForm, product_form
-from .relations import Relations, relations
+from .relations import Combination, Relations, express, relations
 from .statistic import Distribution, distributions, normal_moment
 
-__all__ = ["CheckResult", "Congruence", "CongruenceSearch", "Counterexample", "Dissection",
+__all__ = ["CheckResult", "Combination", "Congruence", "CongruenceSearch", "Counterexample",
+           "Dissection",
            "Distribution", "Divisibility", "Hint", "Mismatch", "ProductForm", "Relations",
            "check", "compare_series", "diagnose", "dissect", "dissection", "distributions",
-           "divisible", "find_congruences", "normal_moment", "product_form", "relations"]
+           "divisible", "express", "find_congruences", "normal_moment", "product_form", "relations"]

@@ -201,3 +201,89 @@ def relations(series: Sequence[str | Node | Series], order: int, *, degree: int 
     top_int = int(math.floor(top)) if top.denominator == 1 else top
     return Relations(tuple(names), top_int, degree, tuple(monos),  # type: ignore[arg-type]
                      tuple(tuple(v) for v in basis), n, unknowns, stable)
+
+
+@dataclass(frozen=True)
+class Combination:
+    """``target`` written as a combination of ``basis`` below q^``order``: ``coefficients``
+    (exact fractions, one per basis series, in the order given) or None when the target is
+    not in the span of the basis there.  The evidence is that of the underlying relation
+    search: ``equations`` coefficients for ``unknowns`` unknowns, ``stable`` as in
+    :class:`Relations`.  Agreement below the order is evidence, not a proof."""
+
+    target: str
+    basis: tuple[str, ...]
+    order: int
+    coefficients: tuple[Fraction, ...] | None
+    equations: int
+    unknowns: int
+    stable: bool
+
+    @property
+    def confirmed(self) -> int:
+        return self.equations - self.unknowns
+
+    def text(self) -> str:
+        """The combination in the notation, ``target = c_1 (b_1) + ...``.
+
+        >>> express("theta_3(q)^2", ["theta_3(q^2)^2", "theta_2(q^2)^2"], 40).text()
+        '(theta_3(q)^2) = (theta_3(q^2)^2) + (theta_2(q^2)^2)'
+        """
+        if self.coefficients is None:
+            return f"({self.target}) is not in the span of the basis below q^{self.order}"
+        parts: list[str] = []
+        for c, label in zip(self.coefficients, self.basis, strict=True):
+            if not c:
+                continue
+            size = abs(c)
+            term = f"({label})" if size == 1 else f"{size} ({label})"
+            parts.append((f"-{term}" if c < 0 else term) if not parts else
+                         f"{'-' if c < 0 else '+'} {term}")
+        return f"({self.target}) = " + (" ".join(parts) if parts else "0")
+
+
+def express(target: str | Node | Series, basis: Sequence[str | Node | Series], order: int,
+            *, definitions: Definitions = None,
+            labels: Sequence[str] | None = None) -> Combination:
+    """``target`` as a linear combination of the series in ``basis`` below q^order, with
+    exact rational coefficients, found by the relation search among target and basis (a
+    relation with a non-zero coefficient at the target, solved for it).  The basis must be
+    linearly independent below the order (else the combination is not unique: refused,
+    naming a relation among the basis); a target outside the span gives ``coefficients``
+    None.  ``labels`` names the target and then each basis series.
+
+    Ramanujan's sum_n p(5n+4) q^n = 5 (q^5;q^5)_inf^5/(q;q)_inf^6, from the dissection:
+
+    >>> express("[q^(5n+4)] 1/(q;q)_inf", ["(q^5;q^5)_inf^5/(q;q)_inf^6"], 60).coefficients
+    (Fraction(5, 1),)
+    >>> express("1/(1-q)", ["1", "q/(1-q)", "1/(1-q)^2"], 30).coefficients
+    (Fraction(1, 1), Fraction(1, 1), Fraction(0, 1))
+    """
+    if isinstance(basis, (str, bytes, Node, Series)) or not isinstance(basis, Sequence):
+        raise ArgumentTypeError("basis must be a list of expressions or Series")
+    if not basis:
+        raise ArgumentError("give at least one basis series")
+    found = relations([target, *basis], order, definitions=definitions, labels=labels)
+    dependent = [v for v in found.relations if v[0] == 0]
+    if len(found.relations) > 1 or dependent:
+        v = dependent[0] if dependent else _eliminate_target(found.relations)
+        among = Relations(found.labels[1:], found.order, 1,
+                          tuple(m[1:] for m in found.monomials[1:]), (v[1:],),
+                          found.equations, found.unknowns - 1, found.stable)
+        raise DomainError(f"the basis is linearly dependent below q^{found.order} "
+                          f"({among.text(v[1:])}): the combination would not be unique; "
+                          f"leave a series out")
+    coefficients = None
+    if found.relations:
+        v = found.relations[0]
+        coefficients = tuple(Fraction(-c, v[0]) for c in v[1:])
+    return Combination(found.labels[0], found.labels[1:], found.order, coefficients,
+                       found.equations, found.unknowns, found.stable)
+
+
+def _eliminate_target(basis: Sequence[Sequence[int]]) -> tuple[int, ...]:
+    """A non-zero vector of the lattice spanned by ``basis`` with first entry 0 (two
+    vectors with non-zero first entries combined to cancel it)."""
+    a, b = basis[0], basis[1]
+    g = math.gcd(a[0], b[0])
+    return tuple(b[0] // g * x - a[0] // g * y for x, y in zip(a, b, strict=True))

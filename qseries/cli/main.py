@@ -34,6 +34,8 @@ from ..products import FUNCTIONS
 from ..report import (
     check_json,
     check_lines,
+    combination_json,
+    combination_lines,
     congruence_lines,
     congruences_json,
     dissection_json,
@@ -564,6 +566,36 @@ def relations_cmd(
         for line in relation_lines(found):
             typer.echo(line)
     raise typer.Exit(0 if found.relations else 1)
+
+
+@app.command(name="express")
+def express_cmd(
+    target: Annotated[str, typer.Argument(
+        help="The series to express, e.g. \"[q^(5n+4)] 1/(q;q)_inf\".")],
+    basis: Annotated[list[str], typer.Argument(
+        help="The basis series, e.g. \"(q^5;q^5)_inf^5/(q;q)_inf^6\".")],
+    order: OrderOption = 200,
+    define: DefineOption = None,
+    as_json: JsonOption = False,
+) -> None:
+    """TARGET as a linear combination of the BASIS series below q^N, with exact rational
+    coefficients (by the relation search among them).  Exit 0 when it is one, 1 when the
+    target is not in their span, 2 for bad input (a basis that is linearly dependent below
+    q^N is refused, with the relation).  Evidence below the order, not a proof.
+
+    Example: qseries express "[q^(7n+5)] 1/(q;q)_inf" "(q^7;q^7)_inf^3/(q;q)_inf^4"
+    "q (q^7;q^7)_inf^7/(q;q)_inf^8" -n 200
+    """
+    from ..analysis import express
+
+    nodes = _parsed([target, *basis], define)
+    found = _guarded(lambda: express(nodes[0], nodes[1:], order, labels=[target, *basis]))
+    if as_json:
+        typer.echo(json.dumps(combination_json(found)))
+    else:
+        for line in combination_lines(found):
+            typer.echo(line)
+    raise typer.Exit(0 if found.coefficients is not None else 1)
 
 
 @app.command()

@@ -18,6 +18,7 @@ from .expansion import dissection_lines, expansion_note, expansion_text
 from .hints import hint_line
 from .json_shapes import (
     check_json,
+    combination_json,
     congruences_json,
     dissection_json,
     distribution_json,
@@ -39,7 +40,7 @@ from .json_shapes import (
 )
 from .neighbours import neighbour_table
 from .product import no_product_line, product_lines
-from .relations import relation_lines
+from .relations import combination_lines, relation_lines
 from .tables import (
     listing_summary,
     listing_table,
@@ -51,7 +52,8 @@ from .tables import (
 )
 from .verdict import check_lines, entry_verdict_text, mismatch_report, mismatch_text
 
-__all__ = ["check_json", "check_lines", "congruence_lines", "congruences_json",
+__all__ = ["check_json", "check_lines", "combination_json", "combination_lines",
+           "congruence_lines", "congruences_json",
            "decimal_text", "dissection_json", "dissection_lines", "distribution_json",
            "distribution_lines", "distributions_json", "entry_json", "entry_verdict_text",
            "expand_json", "expansion_note", "expansion_text", "exponent_json", "finite_json",

@@ -20,6 +20,7 @@ from typing import Any, Protocol
 
 from ..analysis import (
     CheckResult,
+    Combination,
     CongruenceSearch,
     Dissection,
     Distribution,
@@ -235,6 +236,23 @@ def relations_json(r: Relations) -> dict[str, Any]:
             "monomials": [list(m) for m in r.monomials], "degree": r.degree,
             "texts": [r.text(v) for v in r.relations], "equations": r.equations,
             "unknowns": r.unknowns, "confirmed": r.confirmed, "stable": r.stable}
+
+
+def combination_json(c: Combination) -> dict[str, Any]:
+    """The result of ``qseries express --json``: the order, the target and basis as given,
+    the coefficients as exact fractions (strings, in the order of the basis; null when the
+    target is not in the span), the combination as text and the evidence.
+
+    >>> from qseries.analysis import express
+    >>> out = combination_json(express("2/(1-q)", ["1/(1-q)", "q"], 20))
+    >>> out["coefficients"], out["confirmed"]
+    (['2', '0'], 17)
+    """
+    return {"order": exponent_json(c.order), "target": c.target, "basis": list(c.basis),
+            "coefficients": None if c.coefficients is None else
+            [str(x) for x in c.coefficients],
+            "text": c.text(), "equations": c.equations, "unknowns": c.unknowns,
+            "confirmed": c.confirmed, "stable": c.stable}
 
 
 def product_json(pf: ProductForm) -> dict[str, Any]:

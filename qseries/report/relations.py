@@ -7,7 +7,7 @@
 
 from __future__ import annotations
 
-from ..analysis import Relations
+from ..analysis import Combination, Relations
 
 
 def relation_lines(r: Relations) -> list[str]:
@@ -29,3 +29,20 @@ def relation_lines(r: Relations) -> list[str]:
              f"{note}):"]
     lines += [r.text(v) for v in r.relations]
     return lines
+
+
+def combination_lines(c: Combination) -> list[str]:
+    """The combination found by ``qseries express`` with its evidence, or why there is
+    none.
+
+    >>> from qseries.analysis import express
+    >>> combination_lines(express("q/(1-q)", ["1/(1-q)", "1"], 20))[1]
+    '(q/(1-q)) = (1/(1-q)) - (1)'
+    """
+    evidence = f"{c.equations} coefficients for {c.unknowns} unknowns"
+    if c.coefficients is None:
+        return [f"no combination of the {len(c.basis)} basis series gives the target below "
+                f"q^{c.order} ({evidence})"]
+    note = "" if c.stable else "; not yet stable: raise the order"
+    return [f"a unique combination below q^{c.order} ({evidence}, {c.confirmed} beyond the "
+            f"unknowns confirm it{note}):", c.text()]

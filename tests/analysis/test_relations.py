@@ -1,10 +1,12 @@
 """qseries.analysis.relations: integer and polynomial relations among series, checked on
 published theta-function and Rogers-Ramanujan identities."""
 
+from fractions import Fraction
+
 import pytest
 
 from qseries import evaluate
-from qseries.analysis import relations
+from qseries.analysis import express, relations
 from qseries.errors import ArgumentError, ArgumentTypeError, DomainError, ParseError, UnableError
 
 G = "1/((q;q^5)_inf (q^4;q^5)_inf)"
@@ -91,3 +93,66 @@ def test_dimension_of_weight_12_level_1_forms():
     r = relations([f"{e4}^3", f"{e6}^2", "q (q;q)_inf^24"], 100)
     assert r.relations == ((1, -1, -1728),)
     assert r.unknowns - len(r.relations) == 2
+
+
+# --- express: a series as a combination of a basis the user lists (issue 14, item 4) ---
+
+def test_p_5n_4_from_the_dissection_alone():
+    """sum_n p(5n+4) q^n = 5 (q^5;q^5)_inf^5/(q;q)_inf^6 (Ramanujan, Proc. Cambridge Philos.
+    Soc. 19 (1919); M. D. Hirschhorn, The Power of q, Springer 2017; from memory): recovered
+    from the dissection and a basis of three eta quotients, the other two getting 0."""
+    c = express("[q^(5n+4)] 1/(q;q)_inf",
+                ["(q^5;q^5)_inf^5/(q;q)_inf^6", "(q^5;q^5)_inf^6/(q;q)_inf^7",
+                 "q (q^5;q^5)_inf^11/(q;q)_inf^12"], 300)
+    assert c.coefficients == (5, 0, 0)
+    assert c.equations == 300 and c.unknowns == 4 and c.stable
+
+
+def test_p_7n_5_as_a_combination_of_two_quotients():
+    """sum_n p(7n+5) q^n = 7 (q^7;q^7)^3/(q;q)^4 + 49 q (q^7;q^7)^7/(q;q)^8 (Ramanujan 1919;
+    Hirschhorn, The Power of q; from memory)."""
+    c = express("[q^(7n+5)] 1/(q;q)_inf",
+                ["(q^7;q^7)_inf^3/(q;q)_inf^4", "q (q^7;q^7)_inf^7/(q;q)_inf^8"], 300)
+    assert c.coefficients == (7, 49)
+    assert c.text() == ("([q^(7n+5)] 1/(q;q)_inf) = 7 ((q^7;q^7)_inf^3/(q;q)_inf^4) "
+                        "+ 49 (q (q^7;q^7)_inf^7/(q;q)_inf^8)")
+
+
+def test_the_5_dissection_of_eulers_product_term_by_term():
+    """(q;q)_inf = (q^25;q^25)_inf (a(q^5) - q - q^2/a(q^5)) with
+    a(q) = (q^2,q^3;q^5)_inf/(q,q^4;q^5)_inf (Ramanujan, Proc. Cambridge Philos. Soc. 19
+    (1919); Hirschhorn, The Power of q, Springer 2017; from memory), and the parts at
+    residues 3 and 4 vanish: each part of the dissection against the same basis."""
+    a = "((q^2;q^5)_inf (q^3;q^5)_inf/((q;q^5)_inf (q^4;q^5)_inf))"
+    basis = [f"(q^5;q^5)_inf {a}", "(q^5;q^5)_inf", f"(q^5;q^5)_inf/{a}"]
+    expected = {0: (1, 0, 0), 1: (0, -1, 0), 2: (0, 0, -1), 3: (0, 0, 0), 4: (0, 0, 0)}
+    for r, coefficients in expected.items():
+        c = express(f"[q^(5n+{r})] (q;q)_inf", basis, 400)
+        assert c.coefficients == coefficients, r
+
+
+def test_rational_coefficients_and_a_target_outside_the_span():
+    # 1/(1-q^2) = (1/(1-q) + 1/(1+q))/2: a coefficient that is a fraction
+    c = express("1/(1-q^2)", ["1/(1-q)", "1/(1+q)"], 50)
+    assert c.coefficients == (Fraction(1, 2), Fraction(1, 2))
+    none = express("(q;q)_inf", ["1", "q", "1/(1-q)"], 50)
+    assert none.coefficients is None
+    assert none.text() == "((q;q)_inf) is not in the span of the basis below q^50"
+
+
+def test_a_dependent_basis_is_refused_with_the_relation():
+    with pytest.raises(DomainError, match=r"linearly dependent .* = 0\): the combination"):
+        express("1/(1-q)", ["1", "q/(1-q)", "1/(1-q)", "q"], 30)
+    with pytest.raises(DomainError, match="linearly dependent"):
+        express("(q;q)_inf", ["1/(1-q)", "2/(1-q)"], 30)
+
+
+@pytest.mark.parametrize(("call", "kind"), [
+    (lambda: express("1", "q", 10), ArgumentTypeError),
+    (lambda: express("1", [], 10), ArgumentError),
+    (lambda: express("1", ["q", "q^2"], 2), ArgumentError),
+    (lambda: express("(q;q", ["q"], 10), ParseError),
+])
+def test_express_bad_input(call, kind):
+    with pytest.raises(kind):
+        call()

@@ -425,6 +425,7 @@ def test_define_lets_both_sides_call_a_function_at_any_argument():
     (["congruences", "G(q)", "-n", "100"], G_SUM),
     (["congruences", "[q^(5n+4)] P(q)", "-M", "5", "-n", "50"], "P(q) = 1/(q;q)_inf"),
     (["relations", "G(q)", "1/((q;q^5)_inf (q^4;q^5)_inf)", "-n", "60"], G_SUM),
+    (["express", "G(q)", "1/((q;q^5)_inf (q^4;q^5)_inf)", "-n", "60"], G_SUM),
     (["distribution", "D(z)", "--at", "4"], "D(z) = sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"),
 ])
 def test_every_command_taking_an_expression_takes_define(cmd, define):
@@ -572,6 +573,25 @@ def test_relations_command():
     assert short.exit_code == 2 and "raise the order" in short.output
     bad = run("relations", "(q;q", "q")
     assert bad.exit_code == 2 and "column" in bad.output and "Traceback" not in bad.output
+
+
+def test_express_command():
+    # sum_n p(7n+5) q^n = 7 (q^7;q^7)^3/(q;q)^4 + 49 q (q^7;q^7)^7/(q;q)^8 (Ramanujan 1919;
+    # from memory)
+    r = run("express", "[q^(7n+5)] 1/(q;q)_inf", "(q^7;q^7)_inf^3/(q;q)_inf^4",
+            "q (q^7;q^7)_inf^7/(q;q)_inf^8", "-n", "150", "--json")
+    assert r.exit_code == 0, r.output
+    data = json.loads(r.stdout)
+    assert data["order"] == 150 and data["coefficients"] == ["7", "49"]
+    assert data["basis"] == ["(q^7;q^7)_inf^3/(q;q)_inf^4", "q (q^7;q^7)_inf^7/(q;q)_inf^8"]
+    half = run("express", "1/(1-q^2)", "1/(1-q)", "1/(1+q)", "-n", "40")
+    assert half.exit_code == 0 and "1/2 (1/(1-q))" in half.stdout
+    none = run("express", "(q;q)_inf", "1", "q")
+    assert none.exit_code == 1 and none.stdout.startswith("no combination")
+    dependent = run("express", "q", "1/(1-q)", "2/(1-q)")
+    assert dependent.exit_code == 2 and "linearly dependent" in dependent.output
+    bad = run("express", "q", "(q;q", "--json")
+    assert bad.exit_code == 2 and json.loads(bad.stdout)["error"]["position"] is not None
 
 
 def test_version_names_the_installed_versions():

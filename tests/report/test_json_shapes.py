@@ -226,3 +226,14 @@ def test_relations_json_shape():
     assert json.loads(json.dumps(out)) == out
     assert out["order"] == 60 and out["relations"] == [["1", "-1", "-1"]]
     assert out["monomials"] == [[1, 0, 0], [0, 1, 0], [0, 0, 1]] and out["stable"] is True
+
+
+def test_combination_json_shape():
+    from qseries.analysis import express
+    from qseries.report import combination_json
+
+    out = combination_json(express("1/(1-q^2)", ["1/(1-q)", "1/(1+q)"], 30))
+    assert out == {"order": 30, "target": "1/(1-q^2)", "basis": ["1/(1-q)", "1/(1+q)"],
+                   "coefficients": ["1/2", "1/2"],
+                   "text": "(1/(1-q^2)) = 1/2 (1/(1-q)) + 1/2 (1/(1+q))",
+                   "equations": 30, "unknowns": 3, "confirmed": 27, "stable": True}
