@@ -26,6 +26,7 @@ from .analysis import (
                        dissection,
                        distributions,
                        divisible,
+                       express,
                        find_congruences,
                        product_form,
                        relations,
@@ -51,6 +52,6 @@ __all__ = [
     "ArgumentError", "ArgumentTypeError", "CheckResult", "Dissection", "Distribution",
     "DomainError", "GF", "IncompatibleRingError", "Mismatch", "ParseError", "PrecisionError",
     "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose",
-    "dissect", "dissection", "distributions", "divisible", "evaluate", "find_congruences",
-    "laurent_ring", "parse", "product_form", "relations", "show",
+    "dissect", "dissection", "distributions", "divisible", "evaluate", "express",
+    "find_congruences", "laurent_ring", "parse", "product_form", "relations", "show",
 ]
