@@ -180,7 +180,7 @@ class CheckResult:
             return (f"the two sides agree to O(q^{order}) ({scope} compared{short}; evidence, "
                     f"not a proof)")
         m = self.first_mismatch
-        where = f"q^{_text(m.exponent)}"
+        where = _power(m.exponent)
         lhs, rhs = _text(m.lhs), _text(m.rhs)
         if self.weighted:
             where = f"weighted degree {_text(m.exponent)}"
@@ -215,10 +215,12 @@ class CheckResult:
         limit = min([Fraction(self.order_verified)] + known)
         start = min(_low(self.lhs), _low(self.rhs), e0)
         out = []
-        # only the steps d with start <= e0 + d < limit (a huge radius costs nothing)
-        for d in range(max(-radius, math.ceil(start - e0)),
-                       min(radius, math.ceil(limit - e0) - 1) + 1):
-            e = e0 + d
+        # a side in q^(1/den) (theta_2(q) + theta_3(q)) has a term at every 1/den step
+        step = Fraction(1, math.lcm(self.lhs.den, self.rhs.den))
+        # only the steps d with start <= e0 + d step < limit (a huge radius costs nothing)
+        for d in range(max(-radius, math.ceil((start - e0) / step)),
+                       min(radius, math.ceil((limit - e0) / step) - 1) + 1):
+            e = e0 + d * step
             e_out = e.numerator if e.denominator == 1 else e
             out.append((e_out, self.lhs.coefficient(e), self.rhs.coefficient(e)))
         return out
@@ -264,6 +266,12 @@ def _shortfall(order: int, verified: Exponent, known: tuple[Exponent, Exponent],
 
 def _text(x: Exponent | Number | LaurentPoly) -> str:
     return coefficient_text(x)
+
+
+def _power(e: Exponent) -> str:
+    """q^e as text, a fractional exponent in parentheses: q^2, q^(7/4)."""
+    e = Fraction(e)
+    return f"q^{e}" if e.denominator == 1 else f"q^({e})"
 
 
 def _known_to(s: Series, order: int) -> Exponent:

@@ -208,6 +208,7 @@ def divisible(f: str | Node | Series, modulus: int, order: int, *, m: int = 1,
     if not isinstance(f, Series) and work > MAX_LENGTH:
         raise ArgumentError(f"m * order = {m * order} is beyond the limit {MAX_LENGTH}")
     s, exact = _series_mod(f, modulus, work, definitions)
+    s.one_class("a divisibility test")
     rr = Fraction(s.offset) if r is None else r
     part = s.section(m, rr)
     known = part.precision if part.precision is not None else order
@@ -284,6 +285,7 @@ def find_congruences(f: str | Node | Series, order: int, *, max_m: int = 30,
             series[mod] = exact
     lo, known = 0, order
     for s in series.values():
+        s.one_class("a congruence search")
         if s.offset != 0 and not s.is_zero():
             raise DomainError(f"the exponents of this series are q^{s.offset} times integer "
                               f"powers of q: multiply by q^(-{s.offset}) (or the power papers "

@@ -69,6 +69,7 @@ class Dissection:
 
 def _class_start(f: Series, start: Exponent | None) -> Fraction:
     """The first residue: ``start`` (checked against f's exponents) or f's class in [0, 1)."""
+    f.one_class("a dissection into residue classes")
     if start is None:
         return Fraction(f.offset)
     s = Fraction(start)

@@ -185,6 +185,7 @@ def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
     if getattr(f.ring, "names", ()):
         raise DomainError("product forms are recovered for series in q alone; this one has "
                           f"coefficients in {', '.join(f.ring.names)}")  # type: ignore[attr-defined]
+    f.one_class("a product form prod (1-q^n)^(e_n)")
     v = f.valuation
     if v is None:
         raise DomainError("the series vanishes to this order; it has no product form")

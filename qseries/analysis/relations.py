@@ -164,6 +164,8 @@ def relations(series: Sequence[str | Node | Series], order: int, *, degree: int 
         if len(labels) != k or not all(isinstance(x, str) for x in labels):
             raise ArgumentError("labels must be one string per series")
         names = list(labels)
+    for v in values:
+        v.one_class("a relation search")
     if degree == 1:
         offsets = {v.offset for v in values if not v.is_zero()}
         if len(offsets) > 1:

@@ -149,7 +149,7 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
                               f"power series in {var} (such as 1/(1 - {var})) or a sum that "
                               f"does not converge in q alone") from None
         raise
-    if s.offset != 0:
+    if s.offset != 0 or s.den != 1:
         raise DomainError("the series has fractional exponents; multiply by a power of q")
     if s.precision is not None and s.precision < order:
         raise UnableError(f"only the coefficients below q^{s.precision} are known")

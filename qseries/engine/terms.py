@@ -161,7 +161,7 @@ def is_q_power(node: Node) -> bool:
 
 def binomial_parts(s: Series) -> tuple[Fraction | int, int] | None:
     """(c, j) when s is exactly 1 - c q^j with j >= 1."""
-    if not s.is_exact or s.offset != 0 or s.start != 0:
+    if not s.is_exact or s.offset != 0 or s.start != 0 or s.den != 1:
         return None
     R = s.ring
     n = R._length(s.poly)

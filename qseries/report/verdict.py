@@ -13,6 +13,7 @@ was compared); this module lays it out for people.
 from __future__ import annotations
 
 from collections.abc import Iterable
+from fractions import Fraction
 from typing import TYPE_CHECKING
 
 from ..analysis import CheckResult, Hint
@@ -47,7 +48,9 @@ def check_lines(r: CheckResult, hints: Iterable[Hint] = ()) -> list[str]:
         m = r.first_mismatch
         lines.append(f"DIFFERS  {r.verdict} (difference "
                      f"{r.unweighted_text(m.difference, m.exponent)})")
-        below = f"weighted degree {m.exponent}" if r.weighted else f"q^{m.exponent}"
+        e = Fraction(m.exponent)
+        below = (f"weighted degree {m.exponent}" if r.weighted else
+                 f"q^{e}" if e.denominator == 1 else f"q^({e})")
         lines.append(f"  coefficients below {below} agree")
         lines.extend(neighbour_table(r))
     lines.extend(hint_line(h) for h in hints)

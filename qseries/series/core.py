@@ -56,6 +56,7 @@ True
 from __future__ import annotations
 
 import copyreg
+import math
 import numbers
 from collections.abc import Iterator
 from fractions import Fraction
@@ -150,6 +151,36 @@ def _align_offsets(a: Series, b: Series) -> tuple[Series, Series]:
         f"(offsets {a.offset} and {b.offset})")
 
 
+def _common_den(a: Series, b: Series) -> int:
+    """The least d such that a and b are both series in q^(1/d) with their exponents in one
+    class: a multiple of both ``den`` that makes the offsets differ by an integer."""
+    d = math.lcm(a.den, b.den)
+    gap = Fraction(d // a.den) * a.offset - Fraction(d // b.den) * b.offset
+    return d * gap.denominator
+
+
+def _over(g: Series, d: int) -> Series:
+    """The series G(q^(1/d)) for a series G in integer classes (``den`` 1), in its simplest
+    form: with ``den`` 1 again when its known terms lie in one class (q^c times integer
+    powers of q), the precision kept exactly through ``cap``."""
+    if d == 1:
+        return g
+    top = g.precision
+    if g.is_zero():
+        if top is None:
+            return Series(g.ring, g.ring.zero(), 0)
+        p = Fraction(top) / d
+        return Series(g.ring, g.ring.zero(), _ceil(p), 0, _ceil(p), p)
+    v = Fraction(g.valuation)            # type: ignore[arg-type]
+    classes = {i % d for i, c in enumerate(g.ring._coefficients(g.poly)) if c}
+    if len(classes) > 1:
+        return Series(g.ring, g.poly, g.start, g.offset, g.prec, g.cap, d)
+    # every term at t^(v + d n): G(t) = t^v K(t^d) with K the section, so the series is
+    # q^(v/d) K(q)
+    k = g.section(d, v).shift(v / d)
+    return k if top is None else k._capped(Fraction(top) / d)
+
+
 def _valuation_bound(x: Series) -> Fraction:
     """A lower bound of the absolute valuation of an inexact or nonzero series: its
     valuation, or its precision when no known term is nonzero."""
@@ -167,18 +198,24 @@ def _split_exponent(e: Exponent) -> tuple[int, Fraction]:
 class Series:
     """An immutable truncated series; see the module docstring for its meaning."""
 
-    __slots__ = ("ring", "poly", "start", "offset", "prec", "cap")
+    __slots__ = ("ring", "poly", "start", "offset", "prec", "cap", "den")
 
     def __init__(self, ring: Ring, poly: Any, start: int, offset: Fraction | int = 0,
-                 prec: int | None = None, cap: Exponent | None = None) -> None:
+                 prec: int | None = None, cap: Exponent | None = None, den: int = 1) -> None:
         offset = Fraction(offset)
         if not 0 <= offset < 1:
             raise ValueError("offset must lie in [0, 1)")
-        # normalise: drop coefficients at or beyond the precision, then leading zeros
+        if isinstance(den, bool) or not isinstance(den, int) or den < 1:
+            raise ValueError("den must be an integer >= 1")
+        # normalise: drop coefficients at or beyond the precision (and the cap), then
+        # leading zeros
         if prec is not None:
             if prec - start > MAX_LENGTH:
                 raise UnableError(f"precision O(q^{prec}) exceeds the limit {MAX_LENGTH}")
-            poly = ring._truncate(poly, prec - start)
+            keep = prec
+            if cap is not None and Fraction(cap) < offset + prec:
+                keep = _ceil(Fraction(cap) - offset)    # exponents offset + k < cap
+            poly = ring._truncate(poly, max(keep - start, 0))
         v = ring._valuation(poly)
         if v is None:
             start = prec if prec is not None else 0
@@ -197,6 +234,10 @@ class Series:
         self.cap: Fraction | None = None
         if prec is not None and cap is not None and Fraction(cap) < offset + prec:
             self.cap = Fraction(cap)
+        #: the series in q^(1/den): the fields above describe G(t) with the series equal
+        #: to G(q^(1/den)) (``den`` > 1 only for a sum of terms whose exponents differ by
+        #: non-integers, such as theta_2(q) + theta_3(q); see ``_over``)
+        self.den = den
 
     # -- constructors ------------------------------------------------------------------
     @classmethod
@@ -271,6 +312,7 @@ class Series:
         if self.prec is None:
             return None
         p = self.prec + self.offset if self.cap is None else self.cap
+        p /= self.den
         return p.numerator if p.denominator == 1 else p
 
     @property
@@ -290,7 +332,7 @@ class Series:
         """
         if self.is_zero():
             return None
-        v = self.start + self.offset
+        v = (self.start + self.offset) / self.den
         return v.numerator if v.denominator == 1 else v
 
     def _val_int(self) -> int | None:
@@ -311,6 +353,11 @@ class Series:
         qseries.errors.PrecisionError: the coefficient of q^5 lies beyond the precision O(q^5): ...
         """
         e = _as_exponent(e)
+        if self.den != 1:
+            if self.prec is not None and e >= self.precision:   # type: ignore[operator]
+                raise PrecisionError(f"the coefficient of {_power_text(e)} lies beyond the "
+                                     f"precision {_big_o(self.precision)}: it is not known")
+            return self._base().coefficient(e * self.den)
         n, f = _split_exponent(e)
         if self.prec is not None and e >= self.prec + self.offset:
             raise PrecisionError(f"the coefficient of {_power_text(e)} lies beyond the "
@@ -350,6 +397,15 @@ class Series:
             raise ArgumentError("a series is sliced by exponents, f[a:b], without a step")
         lo = None if sl.start is None else _as_exponent(sl.start, "a slice bound")
         hi = None if sl.stop is None else _as_exponent(sl.stop, "a slice bound")
+        if self.den != 1:
+            if hi is not None and self.prec is not None and \
+                    hi > self.precision:  # type: ignore[operator]
+                shown = f"{'' if lo is None else lo}:{hi}"
+                raise PrecisionError(f"f[{shown}] reaches {_power_text(hi)}, beyond the "
+                                     f"precision {_big_o(self.precision)}")
+            d = self.den
+            return _over(self._base()._slice(slice(None if lo is None else lo * d,
+                                                   None if hi is None else hi * d)), d)
         if hi is not None and self.prec is not None and hi > self.prec + self.offset:
             shown = f"{'' if lo is None else lo}:{hi}"
             raise PrecisionError(f"f[{shown}] reaches {_power_text(hi)}, beyond the precision "
@@ -418,7 +474,7 @@ class Series:
         """
         for i, c in enumerate(self.ring._coefficients(self.poly)):
             if c:
-                e = self.start + i + self.offset
+                e = (self.start + i + self.offset) / self.den
                 yield (e.numerator if e.denominator == 1 else e), c
 
     def coefficient_list(self, n: int, start: Exponent = 0) -> list[Number]:
@@ -448,6 +504,8 @@ class Series:
         if n <= 0:
             return []
         last = s + n - 1
+        if self.den != 1:
+            return self._ramified_list(n, s)
         if self.prec is not None and last >= self.prec + self.offset:
             raise PrecisionError(f"the coefficients of {_power_text(s)} .. "
                                  f"{_power_text(last)} are asked for, but the series is known "
@@ -468,10 +526,58 @@ class Series:
         out[base:base + len(coeffs)] = coeffs
         return out
 
+    def _ramified_list(self, n: int, s: Fraction) -> list[Number]:
+        """coefficient_list for a series in q^(1/den): the coefficients at s, s + 1, ...,
+        refused when a known term lies off that grid."""
+        d = self.den
+        base = self._base()
+        if self.prec is not None and s + n - 1 >= self.precision:  # type: ignore[operator]
+            raise PrecisionError(f"the coefficients of {_power_text(s)} .. "
+                                 f"{_power_text(s + n - 1)} are asked for, but the series is "
+                                 f"known only to {_big_o(self.precision)}")
+        for e, _ in self.terms():
+            if e < s or Fraction(e - s).denominator != 1:
+                where = "below" if e < s else "off the exponents listed from"
+                raise ArgumentError(f"the series has a term in {_power_text(e)}, {where} "
+                                    f"start={s}, that the list would not show (its exponents "
+                                    f"are multiples of q^(1/{d})): slice f[a:b] for a window")
+            if e >= s + n:
+                break
+        return [base.coefficient((s + i) * d) for i in range(n)]
+
+    def one_class(self, purpose: str) -> Series:
+        """self, when its exponents lie in one class (q^c times integer powers of q); a
+        :class:`~qseries.errors.DomainError` naming ``purpose`` for a series in q^(1/d)
+        with terms in several classes, such as theta_2(q) + theta_3(q).
+
+        >>> (Series.monomial(Fraction(1, 2)) + 1).one_class("a congruence search")
+        ... # doctest: +ELLIPSIS
+        Traceback (most recent call last):
+        ...
+        qseries.errors.DomainError: the exponents of this series are multiples of q^(1/2) ...
+        """
+        if self.den != 1:
+            raise DomainError(f"the exponents of this series are multiples of q^(1/{self.den}) "
+                              f"in several classes, so {purpose} does not apply; substitute "
+                              f"q -> q^{self.den} first (define the series as F(q) and use "
+                              f"F(q^{self.den}))")
+        return self
+
     # -- internal helpers ------------------------------------------------------------------
     def _with(self, poly: Any, start: int, offset: Fraction, prec: int | None,
               ring: Ring | None = None, cap: Exponent | None = None) -> Series:
-        return Series(ring or self.ring, poly, start, offset, prec, cap)
+        return Series(ring or self.ring, poly, start, offset, prec, cap, self.den)
+
+    def _base(self) -> Series:
+        """The series G with self = G(q^(1/den)) (self when den is 1)."""
+        if self.den == 1:
+            return self
+        return Series(self.ring, self.poly, self.start, self.offset, self.prec, self.cap)
+
+    def _in(self, d: int) -> Series:
+        """The series G with self = G(q^(1/d)), for d a multiple of ``den``."""
+        k = d // self.den
+        return self._base() if k == 1 else self._base().inflate(k)
 
     def _capped(self, absolute: Exponent | None) -> Series:
         """self with its absolute precision at most ``absolute`` where the class of its
@@ -479,7 +585,8 @@ class Series:
         p = self.precision
         if absolute is None or p is None or absolute >= p:
             return self
-        return Series(self.ring, self.poly, self.start, self.offset, self.prec, absolute)
+        return Series(self.ring, self.poly, self.start, self.offset, self.prec,
+                      absolute * self.den, self.den)
 
     def _operand(self, other: Any) -> Series | None:
         """other as a series (numbers become exact constants in a ring holding them), or None
@@ -530,6 +637,10 @@ class Series:
         if other is None:
             return NotImplemented
         a, b = self._joined(other)
+        if a.den != 1 or b.den != 1 or (a.offset != b.offset and not a.is_zero() and
+                                        not b.is_zero()):
+            d = _common_den(a, b)
+            return _over(a._in(d) + b._in(d), d)
         if a.offset != b.offset:
             a, b = _align_offsets(a, b)
         prec = _min_prec(a.prec, b.prec)
@@ -565,6 +676,9 @@ class Series:
         if other is None:
             return NotImplemented
         a, b = self._joined(other)
+        if a.den != 1 or b.den != 1:
+            d = math.lcm(a.den, b.den)
+            return _over(a._in(d) * b._in(d), d)
         R = a.ring
         va, vb = a._val_int(), b._val_int()
         # absolute precision of a product: min(pa + val(b), pb + val(a))
@@ -615,7 +729,8 @@ class Series:
         1 + 2q + 3q^2 + O(q^3)
         """
         a, b = self._joined(other)
-        if a.prec is not None or b.prec is not None or a.offset or b.offset:
+        if a.prec is not None or b.prec is not None or a.offset or b.offset or \
+                a.den != 1 or b.den != 1:
             return (a * b).truncate(order)
         va, vb = a._val_int(), b._val_int()
         if va is None or vb is None:
@@ -637,6 +752,8 @@ class Series:
         >>> Series.from_coefficients([1, 1], prec=3).shift(-5)
         q^-5 + q^-4 + O(q^-2)
         """
+        if self.den != 1:
+            return _over(self._base().shift(Fraction(e) * self.den), self.den)
         n, f = _split_exponent(e)
         off = self.offset + f
         if off >= 1:
@@ -653,6 +770,8 @@ class Series:
         >>> Series.from_coefficients([1, 2, 3]).truncate(2)
         1 + 2q + O(q^2)
         """
+        if self.den != 1:
+            return _over(self._base().truncate(order * self.den), self.den)
         if self.prec is not None and self.prec <= order:
             return self
         if self.prec is None and self.start + self.ring._length(self.poly) <= order:
@@ -677,6 +796,9 @@ class Series:
         >>> Series.from_coefficients([2], ring=QQ).inverse()
         1/2
         """
+        if self.den != 1:
+            return _over(self._base().inverse(None if order is None else order * self.den),
+                         self.den)
         v, u, r = self._unit_part()
         R = self.ring
         if not R.is_unit(R._coeff(u, 0)):
@@ -724,6 +846,10 @@ class Series:
         1 + q + q^2 + O(q^3)
         """
         other = self._coerce(other)
+        if self.den != 1 or other.den != 1:
+            d = math.lcm(self.den, other.den)
+            return _over(self._in(d).divide(other._in(d), None if order is None else
+                                            order * d), d)
         inv_order = None
         if order is not None:
             va = self._val_int() or 0
@@ -746,6 +872,9 @@ class Series:
             e = int(e)
         if isinstance(e, bool) or not isinstance(e, int):
             raise UnableError(f"only integer powers of a series are supported (got {e})")
+        if self.den != 1 and e != 0:
+            return _over(self._base().power(e, None if order is None else order * self.den),
+                         self.den)
         if e < 0:
             return self.inverse(order).power(-e, order)
         if e == 0:
@@ -805,6 +934,8 @@ class Series:
         """
         if self.prec is not None and self.precision <= order:  # type: ignore[operator]
             return self
+        if self.den != 1:
+            return _over(self._base().limit_precision(Fraction(order) * self.den), self.den)
         k = Fraction(order) - self.offset
         prec = k.numerator // k.denominator + (1 if k.denominator != 1 else 0)
         return Series(self.ring, self.poly, self.start, self.offset, prec, order)
@@ -817,6 +948,10 @@ class Series:
         """
         if j < 1:
             raise UnableError("mul_binomial needs j >= 1")
+        if self.den != 1:
+            d = self.den
+            return _over(self._base().mul_binomial(c, j * d, None if order is None else
+                                                   order * d), d)
         self, c = self._holding(c)
         R = self.ring
         prec = _min_prec(self.prec, order)
@@ -835,6 +970,10 @@ class Series:
         """
         if j < 1:
             raise UnableError("div_binomial needs j >= 1")
+        if self.den != 1:
+            d = self.den
+            return _over(self._base().div_binomial(c, j * d, None if order is None else
+                                                   order * d), d)
         self, c = self._holding(c)
         R = self.ring
         prec = _min_prec(self.prec, order)
@@ -856,6 +995,8 @@ class Series:
         """
         if d < 1:
             raise UnableError("q -> q^d needs an integer d >= 1")
+        if self.den != 1:
+            return _over(self._base().inflate(d), self.den)
         n, f = _split_exponent(self.offset * d)
         prec = None if self.prec is None else self.prec * d + n
         return Series(self.ring, self.ring._inflate(self.poly, d), self.start * d + n, f, prec,
@@ -882,6 +1023,8 @@ class Series:
             raise ArgumentError(f"the step m of a dissection must be an integer >= 1, not {m!r}")
         m = int(m)
         r = _as_exponent(r, "the residue r")
+        if self.den != 1:      # a(m n + r) of G(q^(1/den)) is [t^(den m n + den r)] G
+            return self._base().section(m * self.den, Fraction(r) * self.den)
         s = Fraction(r) - self.offset
         known = self.precision
         prec = None if known is None else _ceil((Fraction(known) - Fraction(r)) / m)
@@ -922,6 +1065,9 @@ class Series:
     def _same(self, other: Series) -> bool:
         if self.precision != other.precision:
             return False
+        if self.den != other.den:
+            d = math.lcm(self.den, other.den)
+            return self._in(d)._same(other._in(d))
         try:
             R = join_rings(self.ring, other.ring)
         except QSeriesError:
@@ -941,6 +1087,8 @@ class Series:
         R = self.ring
         lead = R.to_number(R._coeff(self.poly, 0))
         n = R._length(self.poly)
+        if self.den != 1:       # the length depends on den, which equal series may not share
+            return hash((self.valuation, self.precision, lead))
         if self.prec is None and self.start == 0 and self.offset == 0 and n == 1:
             return hash(lead)
         return hash((self.valuation, self.precision, n, lead))
@@ -964,10 +1112,14 @@ class Series:
             raise ArgumentTypeError(f"cannot compare a series with {type(other).__name__}")
         n = _as_exponent(order, "order")
         for side, s in (("left", self), ("right", o)):
-            if s.prec is not None and s.prec + s.offset < n:
+            if s.prec is not None and s.precision < n:  # type: ignore[operator]
                 raise PrecisionError(f"the {side} series is known only to "
                                      f"{_big_o(s.precision)}, not to {_big_o(n)}")
         a, b = self._joined(o)
+        if a.den != 1 or b.den != 1 or (a.offset != b.offset and not a.is_zero() and
+                                        not b.is_zero()):
+            d = _common_den(a, b)
+            return a._in(d).equal_to(b._in(d), n * d)
         return a[:n]._same(b[:n])
 
     def __reduce__(self) -> tuple[Any, tuple[Any, ...]]:
@@ -975,7 +1127,7 @@ class Series:
         coefficients as Python numbers), so that it unpickles to an equal series over the
         same ring object in any process."""
         return _unpickle, (_ring_key(self.ring), _poly_data(self.ring, self.poly),
-                           self.start, self.offset, self.prec, self.cap)
+                           self.start, self.offset, self.prec, self.cap, self.den)
 
     def __copy__(self) -> Series:
         return self          # immutable
@@ -1073,7 +1225,7 @@ copyreg.pickle(LaurentPoly, _reduce_laurent)
 
 
 def _unpickle(key: tuple[Any, ...], data: list[Any], start: int, offset: Fraction,
-              prec: int | None, cap: Fraction | None = None) -> Series:
+              prec: int | None, cap: Fraction | None = None, den: int = 1) -> Series:
     ring = _ring_from_key(key)
     if key[0] == "L":
         poly = _laurent_poly(ring, data)
@@ -1081,4 +1233,4 @@ def _unpickle(key: tuple[Any, ...], data: list[Any], start: int, offset: Fractio
         poly = ring.poly_from_ints(list(data))
     else:
         poly = ring.poly(list(data))
-    return Series(ring, poly, start, offset, prec, cap)
+    return Series(ring, poly, start, offset, prec, cap, den)

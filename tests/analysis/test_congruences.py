@@ -161,3 +161,10 @@ def test_implied_congruences_are_omitted():
     # the odd part vanishes: divisible by 4 implies divisible by 2
     assert (2, 1, 3) in listed and (2, 1, 4) in listed
     assert (2, 1, 2) not in listed and (4, 1, 3) not in listed
+
+
+def test_a_series_in_a_fractional_power_is_refused():
+    with pytest.raises(DomainError, match="several classes, so a congruence search"):
+        find_congruences("theta_2(q) + theta_3(q)", 50)
+    with pytest.raises(DomainError, match="several classes, so a divisibility test"):
+        divisible("theta_2(q) + theta_3(q)", 3, 50)

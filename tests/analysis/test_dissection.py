@@ -2,6 +2,7 @@
 python-flint's partitions_p, against the series put back together, and against published
 dissections."""
 
+import math
 from fractions import Fraction
 
 import pytest
@@ -9,7 +10,7 @@ import pytest
 from qseries import evaluate
 from qseries.analysis import dissect, dissection
 from qseries.backend import partitions_p
-from qseries.errors import ArgumentError, ArgumentTypeError
+from qseries.errors import ArgumentError, ArgumentTypeError, DomainError
 from qseries.series import GF, Series
 
 
@@ -87,3 +88,13 @@ def test_one_part_and_the_ring():
 def test_bad_arguments(call, kind, words):
     with pytest.raises(kind, match=words):
         call()
+
+
+def test_a_series_in_a_fractional_power():
+    # one progression of exponents reads through the fractional power: the squares n^2/4
+    # with n even are the integers k^2, so [q^(2n)] picks 1 + 2 sum q^(2 k^2)
+    part = dissect("theta_2(q) + theta_3(q)", 2, 0, 60)
+    assert part.coefficient_list(60) == [1 if n == 0 else 2 if math.isqrt(2 * n) ** 2 == 2 * n
+                                         else 0 for n in range(60)]
+    with pytest.raises(DomainError, match="several classes, so a dissection"):
+        dissection("theta_2(q) + theta_3(q)", 2, 60)

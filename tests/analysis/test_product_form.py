@@ -82,3 +82,13 @@ def test_find_period_against_the_definition():
             periods = [m for m in range(1, n // 3 + 1)
                        if all(ex[i] == ex[i % m] for i in range(n))]
             assert find_period(list(ex)) == (periods[0] if periods else None), ex
+
+
+def test_a_series_in_a_fractional_power_is_refused_with_the_substitution():
+    # theta_2(q) + theta_3(q) has terms at q^(n^2/4): no product form in q, but F(q^4) has
+    with pytest.raises(DomainError, match=r"q\^\(1/4\) in several classes.*F\(q\^4\)"):
+        product_form("theta_2(q) + theta_3(q)", 40)
+    # theta_2(q^4) + theta_3(q^4) = theta_3(q) = (q^2;q^2)^5/((q;q)^2 (q^4;q^4)^2) (Gauss;
+    # e.g. Berndt, Ramanujan's Notebooks III, Ch. 16, Entry 22(i); from memory)
+    pf = product_form("theta_2(q^4) + theta_3(q^4)", 80)
+    assert pf.eta == "eta(q)^-2 eta(q^2)^5 eta(q^4)^-2"

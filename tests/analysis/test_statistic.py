@@ -99,3 +99,8 @@ def test_power_series_in_the_marker_is_refused_without_weight_advice():
     with pytest.raises(QSeriesError, match="finite distribution") as info:
         distributions("1/(1 - z)", "z", [3])
     assert "weight" not in str(info.value)
+
+
+def test_fractional_exponents_are_refused():
+    with pytest.raises(QSeriesError, match="fractional exponents"):
+        distributions("sum_{n>=0} z^n q^(n/2)/(q;q)_n", "z", [4])

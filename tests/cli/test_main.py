@@ -575,6 +575,21 @@ def test_relations_command():
     assert bad.exit_code == 2 and "column" in bad.output and "Traceback" not in bad.output
 
 
+def test_series_in_a_fractional_power_of_q():
+    # issue 13, item 5: theta_2(q) + theta_3(q) = sum_{n in Z} q^(n^2/4) (the odd and even
+    # squares, from the definitions), and Euler's pentagonal number theorem times q^(1/3)
+    r = run("expand", "theta_2(q) + theta_3(q)", "-n", "5", "--json")
+    assert r.exit_code == 0, r.output
+    assert json.loads(r.stdout)["terms"] == [[0, "1"], ["1/4", "2"], [1, "2"], ["9/4", "2"],
+                                             [4, "2"]]
+    euler = run("check", "q^(1/3) (q;q)_inf + 1",
+                "1 + sum_{k=-inf}^{inf} (-1)^k q^(k(3k-1)/2 + 1/3)", "-n", "400")
+    assert euler.exit_code == 0 and euler.stdout.startswith("AGREES")
+    wrong = run("check", "theta_2(q) + theta_3(q)", "sum_{n=-inf}^{inf} q^(n^2/4) + q^(7/4)",
+                "-n", "100")
+    assert wrong.exit_code == 1 and "first at q^(7/4)" in wrong.stdout
+
+
 def test_express_command():
     # sum_n p(7n+5) q^n = 7 (q^7;q^7)^3/(q;q)^4 + 49 q (q^7;q^7)^7/(q;q)^8 (Ramanujan 1919;
     # from memory)

@@ -8,6 +8,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from qseries.errors import (
+    ArgumentError,
     DomainError,
     IncompatibleRingError,
     PrecisionError,
@@ -114,8 +115,11 @@ def test_rational_offset_and_mismatched_offsets():
     eta_like = Series.monomial(Fraction(1, 24)) * Series.from_coefficients([1, -1], prec=5)
     assert eta_like.valuation == Fraction(1, 24)
     assert eta_like.precision == Fraction(121, 24)
-    with pytest.raises(IncompatibleRingError):
-        eta_like + Series.constant(1)
+    # exponents in different classes: a series in q^(1/24) (issue 13, item 5)
+    mixed = eta_like + Series.constant(1)
+    assert mixed.den == 24
+    assert dict(mixed.terms()) == {0: 1, Fraction(1, 24): 1, Fraction(25, 24): -1}
+    assert mixed.precision == Fraction(121, 24)
     # offsets add up and carry into the integer part
     s = Series.monomial(Fraction(2, 3)) * Series.monomial(Fraction(2, 3))
     assert s.valuation == Fraction(4, 3)
@@ -283,3 +287,147 @@ def test_section_refuses_another_class_and_bad_steps():
         with pytest.raises(QSeriesError, match="integer >= 1"):
             f.section(bad, Fraction(1, 24))
     assert Series.zero(prec=10).section(3, 1).precision == 3     # ceil((10 - 1)/3)
+
+
+# --- series in q^(1/d): sums of terms whose exponents differ by non-integers (issue 13,
+# item 5), against a dictionary of exponents as the reference ---
+
+_CLASSES = [Fraction(0), Fraction(1, 4), Fraction(1, 3), Fraction(1, 2), Fraction(5, 6)]
+
+
+@st.composite
+def _in_a_class(draw):
+    coeffs = draw(st.lists(st.integers(-5, 5), min_size=1, max_size=8))
+    start = draw(st.integers(-2, 3))
+    prec = draw(st.one_of(st.none(), st.integers(start, start + 10)))
+    return Series.from_coefficients(coeffs, start=start, prec=prec,
+                                    offset=draw(st.sampled_from(_CLASSES)))
+
+
+def _low_bound(s: Series):
+    return s.precision if s.valuation is None else s.valuation
+
+
+def _least(*ps):
+    return min(p for p in ps if p is not None)
+
+
+def _dict_sum(*xs):
+    out: dict = {}
+    for x in xs:
+        for e, c in x.terms():
+            out[e] = out.get(e, 0) + c
+    return out
+
+
+def _dict_product(x: dict, y: dict) -> dict:
+    out: dict = {}
+    for e, c in x.items():
+        for f, d in y.items():
+            out[e + f] = out.get(e + f, 0) + c * d
+    return out
+
+
+def _assert_terms(s: Series, terms: dict, precision) -> None:
+    assert s.precision == precision
+    want = {e: c for e, c in terms.items() if c and (precision is None or e < precision)}
+    assert dict(s.terms()) == want
+    for e, c in want.items():
+        assert s[e] == c
+
+
+@given(_in_a_class(), _in_a_class(), _in_a_class())
+def test_sums_across_classes_match_the_reference(a, b, c):
+    total = (a + b) + c
+    precs = [x.precision for x in (a, b, c) if x.precision is not None]
+    _assert_terms(total, _dict_sum(a, b, c), min(precs) if precs else None)
+    assert total == a + (b + c) and total == c + b + a
+    assert hash(total) == hash(c + (a + b))
+
+
+@given(_in_a_class(), _in_a_class(), _in_a_class())
+def test_products_across_classes_match_the_reference(a, b, c):
+    x = a + b
+    if (x.is_exact and x.is_zero()) or (c.is_exact and c.is_zero()):
+        return
+    z = x * c
+    cands = [p.precision + _low_bound(o) for p, o in ((x, c), (c, x)) if p.precision is not None]
+    top = min(cands, default=None)
+    _assert_terms(z, _dict_product(dict(x.terms()), dict(c.terms())), top)
+    assert z == c * x
+
+
+@given(_in_a_class(), _in_a_class())
+def test_cancelling_a_class_gives_the_simple_form_back(a, b):
+    x = (a + b) - b
+    top = min((p for p in (a.precision, b.precision) if p is not None), default=None)
+    if top is None:
+        assert x == a
+    else:
+        assert x.precision == top and x.equal_to(a, top)
+    if not x.is_zero():                  # one class left: no longer a series in q^(1/d)
+        assert x.den == 1 and x.offset == a.offset
+
+
+@given(_in_a_class(), _in_a_class(), st.integers(1, 4), st.integers(1, 3))
+def test_inverse_power_and_substitution_across_classes(a, b, e, d):
+    one_plus = 1 + a.shift(3 - Fraction(a.valuation or 0)) + \
+        b.shift(2 - Fraction(b.valuation or 0)).truncate(12)    # 1 + terms of positive degree
+    inv = one_plus.inverse(10)
+    assert (inv * one_plus).equal_to(1, _least(10, inv.precision))
+    power = one_plus.power(e, 12)
+    by_products = Series.constant(1)
+    for _ in range(e):
+        by_products = by_products * one_plus
+    assert power.equal_to(by_products, _least(12, power.precision, by_products.precision))
+    sub = one_plus.inflate(d)
+    assert dict(sub.terms()) == {d * k: c for k, c in one_plus.terms()}
+    assert sub.precision == (None if one_plus.precision is None else d * one_plus.precision)
+
+
+@given(_in_a_class(), _in_a_class(), st.integers(1, 6), st.integers(-6, 6))
+def test_section_of_a_series_in_a_fractional_power(a, b, m, j):
+    x = a + b
+    r = (a.offset if a.valuation is not None else b.offset) + j
+    if x.den == 1 and not x.is_zero() and (r - x.offset).denominator != 1:
+        with pytest.raises(DomainError, match="class"):   # the terms of a's class are lost
+            x.section(m, r)                                # beyond b's precision
+        return
+    g = x.section(m, r)
+    top = g.precision if g.precision is not None else 6
+    for n in range(-6, top):
+        assert g[n] == x[m * n + r]
+
+
+def test_theta_2_plus_theta_3_is_theta_3_at_a_fourth_root():
+    """theta_2(q) + theta_3(q) = sum_{n in Z} q^(n^2/4) (theta_2 is the sum over the odd
+    squares (2n+1)^2/4, theta_3 over the even ones; from the definitions), read against
+    the squares directly."""
+    from qseries import evaluate
+
+    f = evaluate("theta_2(q) + theta_3(q)", 60)
+    assert f.den == 4 and f.precision == 60
+    want = {Fraction(n * n, 4): (1 if n == 0 else 2) for n in range(16)}
+    assert dict(f.terms()) == want
+    with pytest.raises(ArgumentError, match=r"multiples of q\^\(1/4\)"):
+        f.coefficient_list(3)            # a list by whole steps would hide q^(1/4), q^(9/4)
+
+
+def test_a_term_beyond_the_cap_is_dropped():
+    # regression: O(q^(7/3)) + 0 took the zero's class q^(1/4) and a cap of 7/3; adding q^3
+    # then kept q^3 beyond the precision ("q^3 + O(q^(7/3))")
+    a = Series.from_coefficients([0], start=2, prec=2, offset=Fraction(1, 3))
+    b = Series.from_coefficients([0], offset=Fraction(1, 4))
+    s = (a + b) + Series.monomial(3)
+    assert s.precision == Fraction(7, 3) and s.is_zero()
+
+
+def test_a_series_in_a_fractional_power_pickles_and_hashes():
+    import pickle
+
+    f = Series.monomial(Fraction(1, 3)) * Series.from_coefficients([1, -1, 2], prec=6) + \
+        Series.from_coefficients([3, 1])
+    assert f.den == 3
+    g = pickle.loads(pickle.dumps(f))
+    assert g == f and hash(g) == hash(f) and g.den == 3
+    assert str(f) == "3 + q^(1/3) + q - q^(4/3) + 2q^(7/3) + O(q^(19/3))"
