@@ -44,7 +44,7 @@ from ..lang.parser import parse
 from ..products import FUNCTIONS, monomial_parts
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, ring_for
 from ..series.formatting import short_number_text
-from . import chains, chooser, ranges, sums
+from . import chains, chooser, ranges, reorder, sums
 from .termination import TermBounds
 from .terms import (
     MAX_INTEGER,
@@ -92,6 +92,7 @@ class Evaluator:
         self._cache: dict[tuple, Any] = {}
         self._free: dict[int, frozenset[str]] = {}
         self._hasq: dict[int, bool] = {}
+        self._reorders: dict[int, tuple[BigOp, BigOp]] = {}
         self.bounds = TermBounds(self)
         self._terms = 0
 
@@ -447,7 +448,17 @@ class Evaluator:
         second = chooser.pochhammer_value(-a.shift(t), 2 * t, odd, order, self.allowed)
         return (first * second).truncate(order)
 
+    def _reordered(self, node: BigOp) -> BigOp:
+        """``node``, or the same sum reordered when its inner sum's upper limit depends on
+        the outer variable (``reorder.dependent_upper``); kept alive with the original, as
+        the caches key nodes by id()."""
+        hit = self._reorders.get(id(node))
+        if hit is None or hit[0] is not node:
+            hit = self._reorders[id(node)] = (node, reorder.dependent_upper(node) or node)
+        return hit[1]
+
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
+        node = self._reordered(node)
         if not self.has_q(node.body):
             return ranges.numbers(self, node, env)
         ks, cut = ranges.term_range(self, node, env, order, deviation=False)
@@ -470,6 +481,7 @@ class Evaluator:
         key = ("parts", id(node), order)
         hit = self._cache.get(key) if closed else None
         if hit is None:
+            node = self._reordered(node)
             ks, cut = ranges.term_range(self, node, env, order, deviation=False)
             got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
             hit = got if isinstance(got, tuple) else (got, None)

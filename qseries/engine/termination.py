@@ -27,7 +27,7 @@ from fractions import Fraction
 from typing import Any
 
 from ..errors import DomainError, QSeriesError
-from ..lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch
+from ..lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q
 from ..products import FUNCTIONS, monomial_parts
 from . import symbolic as sym
 
@@ -135,6 +135,9 @@ class TermBounds:
             return self.lower(node.operand, main, syms, env, order)
         if isinstance(node, BinOp):
             if node.op in "+-":
+                unit = self._unit_binomial(node, main, syms, env, order)
+                if unit is not None:
+                    return unit
                 return min_bound(self.lower(node.left, main, syms, env, order),
                                  self.lower(node.right, main, syms, env, order), main)
             a = self.lower(node.left, main, syms, env, order)
@@ -159,6 +162,31 @@ class TermBounds:
             return self._inner_sum(node, main, syms, env, order)
         raise NoBound(f"no valuation bound for the expression at column {_pos(node)}")
 
+    def _unit_binomial(self, node: BinOp, main: str, syms: dict[str, int],
+                       env: dict[str, int], order: int) -> Bound | None:
+        """Valuation exactly 0 for c +- X with c a nonzero number and X of valuation >= 1
+        (1 - q^(i+j+1) in a double sum), from the m on where the bound of X reaches 1; None
+        when the node is not of that kind.
+
+        >>> from qseries.lang.parser import parse
+        >>> from qseries.engine import Evaluator
+        >>> node = parse("1 - q^(i+j+1)", bound={"i", "j"})
+        >>> b = TermBounds(Evaluator())._unit_binomial(node, "i", {"i": 1, "j": 1}, {}, 9)
+        >>> b.poly, b.exact, b.start
+        ({}, True, 0)
+        """
+        ev = self.ev
+        for one, other in ((node.left, node.right), (node.right, node.left)):
+            if ev.has_q(one) or self._symbolic(one, syms) or ev.scalar(one, env) == 0:
+                continue
+            try:
+                b = self.lower(other, main, syms, env, order)
+                start = self._eventually(b.poly, 1, main, b.start, "")
+            except NoBound:
+                continue
+            return Bound({}, True, start)
+        return None
+
     def _power(self, node: BinOp, main: str, syms: dict[str, int], env: dict[str, int],
                order: int) -> Bound:
         if self.ev.has_q(node.right):
@@ -179,6 +207,8 @@ class TermBounds:
     def _inner_sum(self, node: BigOp, main: str, syms: dict[str, int], env: dict[str, int],
                    order: int) -> Bound:
         j = node.var
+        if node.lower is None and node.upper is None:
+            return self._bilateral_inner(node, main, syms, env, order)
         if node.lower is None:
             raise NoBound(f"the inner sum at column {_pos(node)} has no lower limit")
         lo = self.poly_of(node.lower, syms, env)
@@ -200,6 +230,57 @@ class TermBounds:
                 raise NoBound(f"the terms of the inner sum at column {_pos(node)} do not grow "
                               f"with {j} in a way this analysis can see")
         return Bound(by_power.get(0, {}), False, body.start)
+
+    def _bilateral_inner(self, node: BigOp, main: str, syms: dict[str, int],
+                         env: dict[str, int], order: int) -> Bound:
+        """An inner sum over every integer j (sum_{m,n=-inf}^{inf} q^(m^2+mn+n^2)): when its
+        body is a product of powers of q, numbers and factors free of j, its bound is a
+        polynomial valid for every real j; if it is A j^2 + B j + C with A > 0 a number, its
+        minimum over the reals, C - B^2/(4A), bounds every term; if it does not involve j,
+        it is that bound itself.
+
+        >>> from qseries.lang.parser import parse
+        >>> from qseries.engine import Evaluator
+        >>> inner = parse("sum_{m,n=-inf}^{inf} q^(m^2+m*n+n^2)").body
+        >>> b = TermBounds(Evaluator())._bilateral_inner(inner, "m", {"m": 1}, {}, 9)
+        >>> sym.m_to_uni(b.poly, "m")
+        (Fraction(0, 1), Fraction(0, 1), Fraction(3, 4))
+        """
+        j = node.var
+        if not self._plain_in(node.body, j):
+            raise NoBound(f"the terms of the bilateral inner sum at column {_pos(node)} are "
+                          f"not products of powers of q and numbers, which this analysis "
+                          f"needs for an index running over every integer")
+        body = self.lower(node.body, main, {**syms, j: 1}, env, order)
+        by_power = sym.m_coeffs_in(body.poly, j)
+        top = max(by_power, default=0)
+        if top == 0:
+            return Bound(by_power.get(0, {}), False, body.start)
+        a = by_power.get(2, {})
+        if top != 2 or sym.m_vars(a) or a.get((), Fraction(0)) <= 0:
+            raise NoBound(f"the terms of the bilateral inner sum at column {_pos(node)} do "
+                          f"not grow in both directions of {j} in a way this analysis can see")
+        b, c = by_power.get(1, {}), by_power.get(0, {})
+        least = sym.m_sub(c, sym.m_scale(sym.m_mul(b, b), 1 / (4 * a[()])))
+        return Bound(least, False, body.start)
+
+    def _plain_in(self, node: Node, j: str) -> bool:
+        """True when ``node`` is built from factors free of j, numbers and powers q^(...) by
+        products, quotients and powers: then its bound holds for every value of j, not only
+        for j >= 0."""
+        ev = self.ev
+        if j not in ev.free(node) or not ev.has_q(node) or isinstance(node, Name):
+            return True
+        if isinstance(node, Neg):
+            return self._plain_in(node.operand, j)
+        if isinstance(node, BinOp):
+            if node.op in "*/":
+                return self._plain_in(node.left, j) and self._plain_in(node.right, j)
+            if node.op == "^":
+                if isinstance(node.left, Q) or not ev.has_q(node.left):
+                    return True
+                return j not in ev.free(node.right) and self._plain_in(node.left, j)
+        return False
 
     def poch_start(self, node: Poch, main: str, syms: dict[str, int], env: dict[str, int],
                    order: int) -> int:

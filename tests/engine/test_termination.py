@@ -34,3 +34,35 @@ def test_a_parameter_with_a_factor_one_minus_one_is_still_refused_clearly():
     from qseries.errors import UnableError
     with pytest.raises(UnableError, match="without positive valuation"):
         evaluate("sum_{n>=0} (q^-2;q^2)_n q^(n^2)/(q^2;q^2)_n", 20)
+
+
+def test_a_bilateral_double_sum():
+    """a(q) = sum_{m,n} q^(m^2+mn+n^2) = phi(q) phi(q^3) + 4 q psi(q^2) psi(q^6) (J. M. Borwein,
+    P. B. Borwein and F. G. Garvan, Trans. Amer. Math. Soc. 343 (1994); from memory): the
+    inner bilateral sum is bounded by the real minimum of its exponent, 3m^2/4."""
+    from qseries import check
+
+    r = check("sum_{m,n=-inf}^{inf} q^(m^2+m n+n^2)",
+              "phi(q) phi(q^3) + 4 q psi(q^2) psi(q^6)", order=400)
+    assert r.holds is True
+
+
+def test_a_bilateral_inner_sum_that_does_not_grow_is_refused():
+    import pytest
+
+    from qseries import evaluate
+    from qseries.errors import UnableError
+    for text in ("sum_{m,n=-inf}^{inf} q^(m^2-n^2)", "sum_{m,n=-inf}^{inf} q^(m n)",
+                 "sum_{m,n=-inf}^{inf} q^(m^2+n^2)/(q;q)_n"):
+        with pytest.raises(UnableError, match="bilateral inner sum"):
+            evaluate(text, 10)
+
+
+def test_a_denominator_one_minus_a_positive_power_in_a_double_sum():
+    """sum_{i,j>=0} q^(i+j)/(1-q^(i+j+1)) = sum_n sigma(n+1) q^n (grouping by s = i + j:
+    (s+1) q^s/(1-q^(s+1)), a Lambert series), against sympy's divisor_sigma."""
+    from sympy import divisor_sigma
+
+    from qseries import evaluate
+    f = evaluate("sum_{i,j>=0} q^(i+j)/(1-q^(i+j+1))", 80)
+    assert f.coefficient_list(80) == [int(divisor_sigma(n + 1)) for n in range(80)]
