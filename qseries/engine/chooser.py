@@ -31,10 +31,11 @@ from ..series import Series
 
 #: strategies for a sum, in the order of preference (the first that applies and succeeds wins)
 SUM_STRATEGIES = ("monomials", "splitting", "lambert", "stepping", "direct")
-#: strategies for products: Jacobi's triple product for pairs of factors, then for a single
+#: strategies for products: ``prod_{n}`` of binomials in n rewritten to q-Pochhammer symbols
+#: (``prod_pochhammer``), Jacobi's triple product for pairs of factors, then for a single
 #: infinite q-Pochhammer symbol Euler's product, the exponential of the logarithm, and the
 #: reference factor by factor
-PRODUCT_STRATEGIES = ("triple-pairs", "euler", "exp-log", "factors")
+PRODUCT_STRATEGIES = ("pochhammer-form", "triple-pairs", "euler", "exp-log", "factors")
 STRATEGIES = SUM_STRATEGIES + PRODUCT_STRATEGIES
 #: the references, always allowed
 REFERENCES = frozenset({"direct", "factors"})
