@@ -65,8 +65,10 @@ def run(tree: str, left: str, right: str, order: int, extra: list[str],
            *extra]
     t0 = time.perf_counter()
     try:
+        # run from the tree itself: ``python -m`` puts the working directory first on the
+        # path, which would otherwise shadow PYTHONPATH
         out = subprocess.run(cmd, capture_output=True, text=True, timeout=timeout,
-                             check=False, env=tree_env(tree))
+                             check=False, env=tree_env(tree), cwd=os.path.abspath(tree))
     except subprocess.TimeoutExpired:
         return None
     wall = time.perf_counter() - t0
