@@ -114,10 +114,22 @@ def find_period(ex: list[int], min_repetitions: int = MIN_REPETITIONS) -> int | 
     4
     """
     n = len(ex)
-    for m in range(1, n // min_repetitions + 1):
-        if all(ex[i] == ex[i + m] for i in range(n - m)):
-            return m
-    return None
+    if n == 0:
+        return None
+    # the least m with ex[i] == ex[i + m] for all i is n minus the longest proper border
+    # of the sequence (a prefix that is also a suffix): Knuth-Morris-Pratt's failure
+    # function, O(n) comparisons (a scan over every m costs O(n^2) on long near-periodic
+    # prefixes)
+    fail = [0] * n
+    k = 0
+    for i in range(1, n):
+        while k and ex[i] != ex[k]:
+            k = fail[k - 1]
+        if ex[i] == ex[k]:
+            k += 1
+        fail[i] = k
+    m = n - fail[-1]
+    return m if m <= n // min_repetitions else None
 
 
 def _power(e: int) -> str:
