@@ -24,7 +24,7 @@ import sys
 import time
 
 #: (name, group, left, right, extra options): the panel.  Groups: product, lambert, squares,
-#: diagnose, single (the first Rogers-Ramanujan identity, the reference shape)
+#: long, diagnose, single (the first Rogers-Ramanujan identity, the reference shape)
 SHAPES: list[tuple[str, str, str, str, list[str]]] = [
     ("RR sum = product (reference)", "single", "sum_{k>=0} q^(k^2)/(q;q)_k",
      "1/((q;q^5)_inf (q^4;q^5)_inf)", []),
@@ -46,6 +46,10 @@ SHAPES: list[tuple[str, str, str, str, list[str]]] = [
      "1 + 4 sum_{n>=0} (q^(4n+1)/(1-q^(4n+1)) - q^(4n+3)/(1-q^(4n+3)))", []),
     ("four squares (catalogue form)", "squares", "theta_3(q)^4",
      "1 + 8 sum_{n>=1} n q^n/(1 + (-q)^n)", []),
+    ("Euler: sum q^n/(q;q)_n = 1/(q;q)_inf", "long", "sum_{n>=0} q^n/(q;q)_n",
+     "1/(q;q)_inf", []),
+    ("q-binomial: sum (-q;q)_n q^n/(q;q)_n", "long", "sum_{n>=0} (-q;q)_n q^n/(q;q)_n",
+     "(-q^2;q)_inf/(q;q)_inf", []),
     ("failed check + diagnosis", "diagnose", "1/(q;q)_inf",
      "1/(q;q)_inf + q^(N-3)", []),
 ]

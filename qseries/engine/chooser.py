@@ -30,7 +30,7 @@ from ..products import (
 from ..series import Series
 
 #: strategies for a sum, in the order of preference (the first that applies and succeeds wins)
-SUM_STRATEGIES = ("monomials", "splitting", "lambert", "stepping", "direct")
+SUM_STRATEGIES = ("monomials", "splitting", "nested", "lambert", "stepping", "direct")
 #: strategies for products: ``prod_{n}`` of binomials in n rewritten to q-Pochhammer symbols
 #: (``prod_pochhammer``), Jacobi's triple product for pairs of factors, then for a single
 #: infinite q-Pochhammer symbol Euler's product, the exponential of the logarithm, and the
@@ -99,11 +99,12 @@ def sum_strategies(allowed: frozenset[str], *, monomials: bool, steppable_only: 
 
     >>> sum_strategies(frozenset(STRATEGIES), monomials=False, steppable_only=True,
     ...                lambert_shape=False, terms=40)
-    ['splitting', 'stepping', 'direct']
+    ['splitting', 'nested', 'stepping', 'direct']
     """
     shape = {
         "monomials": monomials,
         "splitting": steppable_only and terms >= SPLIT_MIN_TERMS,
+        "nested": steppable_only and terms >= SPLIT_MIN_TERMS,
         "lambert": lambert_shape,
         "stepping": "stepping" in allowed,
         "direct": True,

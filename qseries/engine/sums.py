@@ -8,6 +8,8 @@ shape does not suit it after all, and the next one is tried):
 
 - ``monomials`` (``sum_monomials``): every term c q^e, added into one coefficient list;
 - ``splitting`` (``sum_splitting``): binary splitting on the ratio of consecutive terms;
+- ``nested`` (``sum_nested``): the same ratios from the innermost term outwards, for long
+  sums where the splitting tree would be dense;
 - ``lambert`` (``sum_lambert``): sparse terms c q^s num/(1 - c' q^j)^p;
 - ``stepping`` (``sum_stepping``): term by term, the q-Pochhammer symbols advanced by the
   ratio of consecutive values;
@@ -34,6 +36,7 @@ from . import symbolic as sym
 from .sum_direct import sum_direct
 from .sum_lambert import sum_lambert
 from .sum_monomials import sum_monomials
+from .sum_nested import sum_nested
 from .sum_splitting import sum_splitting
 from .sum_stepping import steppable, sum_stepping
 from .termination import NoBound
@@ -181,6 +184,10 @@ def _sum_known(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], o
             return plan.finish(sum_monomials(ev, plan))
         if name == "splitting":
             got = sum_splitting(ev, plan, parts)
+            if got is not None:
+                return got
+        elif name == "nested":
+            got = sum_nested(ev, plan)
             if got is not None:
                 return got
         elif name == "lambert":
