@@ -53,11 +53,19 @@ SPLIT_DEGREE = 8
 #: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
 #: computed as the exponential of its logarithm instead of factor by factor
 EXP_FACTORS = 24
-#: ``check(method="auto")`` goes modular from this order on (series in q alone) ...
+#: ``check(method="auto")`` may go modular from this order on (series in q alone) ...
 AUTO_MODULAR_ORDER = 3000
 #: ... and from this order on when there are extra variables (exact Laurent coefficients
 #: grow fast)
 AUTO_MODULAR_ORDER_EXTRA = 400
+#: above those orders ``auto`` first evaluates both sides exactly to this order and
+#: extrapolates the size of their largest coefficient to the order asked (from its growth
+#: between half this order and this order) ...
+AUTO_PROBE_ORDER = 1024
+#: ... and stays exact while that size is at most this many bits (exact arithmetic on
+#: such numbers costs less than evaluating once per prime: Lambert series, theta and eta
+#: products have coefficients of a few dozen bits at any order)
+AUTO_EXACT_BITS = 128
 #: the modular method evaluates the primes after the first in worker processes from here on
 PARALLEL_ORDER = 50_000
 #: from this order on the command line estimates the cost of a run before starting it

@@ -82,3 +82,12 @@ def test_find_period_against_the_definition():
             periods = [m for m in range(1, n // 3 + 1)
                        if all(ex[i] == ex[i % m] for i in range(n))]
             assert find_period(list(ex)) == (periods[0] if periods else None), ex
+
+
+def test_huge_exponents_are_described_not_printed():
+    # exponents of thousands of digits: the message describes the number (Python refuses
+    # to print an int of more than 4300 digits, which was a traceback)
+    from qseries.series import Series
+    f = Series.from_coefficients([1, 10**5000, 3, 7, 1, 9, 4], prec=7)
+    pf = product_form(f, 7)
+    assert pf.period is None and pf.expression is None and "digits" in pf.reason
