@@ -372,6 +372,14 @@ class Evaluator:
             e = self.scalar(node.right, env)
             if abs(e) <= MAX_INTEGER:
                 return c, e
+        if isinstance(node, BinOp) and node.op == "^" and not self.has_q(node.right) \
+                and not (self.free(node.right) - env.keys()):
+            # (c' q^e)^k with an integer k, such as (-q^42)^2 after a substitution
+            inner = self._monomial_of(node.left, env)
+            k = self.scalar(node.right, env)
+            if inner is not None and k.denominator == 1 and 0 <= k <= 64 \
+                    and abs(inner[1] * k) <= MAX_INTEGER:
+                return c * inner[0] ** int(k), inner[1] * k
         return None
 
     def _base_step(self, node: Poch, env: dict[str, int], order: int,

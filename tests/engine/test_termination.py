@@ -34,3 +34,13 @@ def test_a_parameter_with_a_factor_one_minus_one_is_still_refused_clearly():
     from qseries.errors import UnableError
     with pytest.raises(UnableError, match="without positive valuation"):
         evaluate("sum_{n>=0} (q^-2;q^2)_n q^(n^2)/(q^2;q^2)_n", 20)
+
+
+def test_a_substituted_monomial_is_read_exactly():
+    # f(-q^42) = (q^42;q^42)_inf (Berndt, Ramanujan's Notebooks III, ch. 16, Entry 22,
+    # from memory) needed only to q^36 after the shift q^4: its parameters -q^42 and
+    # -(-q^42)^2 must not be truncated to 0 before the terms are bounded (the catalogue's
+    # berndt-iv-25-27-1 at order 40 found it)
+    from qseries.engine import evaluate
+    assert evaluate("q^4 f(-q^6)^2 f(-q^42)^2", 40) == \
+        evaluate("q^4 (q^6;q^6)_inf^2 (q^42;q^42)_inf^2", 40)
