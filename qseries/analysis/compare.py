@@ -31,7 +31,13 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 
 from ..engine import Evaluator, Parts, check_weights, evaluate, quotient
-from ..engine.chooser import AUTO_MODULAR_ORDER, AUTO_MODULAR_ORDER_EXTRA, PARALLEL_ORDER
+from ..engine.chooser import (
+    AUTO_EXACT_BITS,
+    AUTO_MODULAR_ORDER,
+    AUTO_MODULAR_ORDER_EXTRA,
+    AUTO_PROBE_ORDER,
+    PARALLEL_ORDER,
+)
 from ..errors import (
     ArgumentError,
     ArgumentTypeError,
@@ -367,9 +373,10 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
 
     ``method="modular"`` compares modulo ``primes`` (1 to 20) random primes near 2^62 (much
     faster at high order; ``seed`` makes the draw reproducible) and recomputes the two
-    coefficients exactly at a mismatch; ``"auto"`` uses it above order 3000 (above 400 with
-    extra variables).  ``ring`` is ZZ, QQ or GF(p); the modular method and extra variables
-    need ZZ or QQ.  ``progress`` (if given) is called with a short text at each stage.
+    coefficients exactly at a mismatch; ``"auto"`` may use it above order 3000 (above 400
+    with extra variables): see :func:`auto_method`.  ``ring`` is ZZ, QQ or GF(p); the
+    modular method and extra variables need ZZ or QQ.  ``progress`` (if given) is called
+    with a short text at each stage.
 
     Extra variables (z, a, ...) make the coefficients Laurent polynomials in them; the
     modular method then also sets them to random residues (Schwartz-Zippel).  ``weights``
@@ -393,8 +400,7 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
         raise ArgumentError(f"ring {ring} cannot hold the extra variables {', '.join(names)}: "
                             f"their coefficients are compared over ZZ or QQ")
     if method == "auto":
-        limit = AUTO_MODULAR_ORDER_EXTRA if names else AUTO_MODULAR_ORDER
-        method = "modular" if order > limit and ring in (ZZ, QQ) else "exact"
+        method = auto_method(lnode, rnode, order, ring, names)
     check_weights(weights, set(names))
     tries = [dict(weights or {})]
     if weights is None and names:
@@ -427,6 +433,39 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
             say("retrying with the extra variables weighted (z -> z*q)")
     assert first_error is not None
     raise first_error
+
+
+def auto_method(lnode: Node, rnode: Node, order: int, ring: Ring,
+                names: tuple[str, ...] = ()) -> str:
+    """"exact" or "modular" for ``check(method="auto")``: exact up to
+    ``AUTO_MODULAR_ORDER`` (``AUTO_MODULAR_ORDER_EXTRA`` with extra variables); above, for
+    series in q alone, exact while the largest coefficient extrapolated from an exact
+    evaluation to ``AUTO_PROBE_ORDER`` stays within ``AUTO_EXACT_BITS`` bits (the modular
+    method evaluates each side once per prime, which only pays when the exact numbers are
+    large).
+
+    >>> from qseries.lang import parse
+    >>> auto_method(parse("theta_3(q)^2"), parse("1 + 4 sum_{n>=1} q^n/(1+q^(2n))"), 10**5, ZZ)
+    'exact'
+    >>> auto_method(parse("(q;q)_inf"), parse("1/(q;q)_inf"), 10**5, ZZ)
+    'modular'
+    """
+    limit = AUTO_MODULAR_ORDER_EXTRA if names else AUTO_MODULAR_ORDER
+    if order <= limit or ring not in (ZZ, QQ):
+        return "exact"
+    if names:
+        return "modular"
+    bits = 0.0
+    for node in (lnode, rnode):
+        try:
+            s = evaluate(node, AUTO_PROBE_ORDER, ring)
+        except QSeriesError:
+            return "modular"        # the check itself reports the error
+        full = ring._coefficient_bits(s.poly)
+        half = ring._coefficient_bits(s.truncate(AUTO_PROBE_ORDER // 2).poly)
+        growth = min(max(math.log2(full / half), 0.0), 1.0) if half and full else 0.0
+        bits = max(bits, full * (order / AUTO_PROBE_ORDER) ** growth)
+    return "exact" if bits <= AUTO_EXACT_BITS else "modular"
 
 
 #: the order of the exact trial that decides whether extra variables need weights

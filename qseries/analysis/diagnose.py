@@ -60,11 +60,14 @@ def _text(x: Fraction) -> str:
 
 
 def _same(a: Series, b: Series, order: Fraction) -> bool:
+    """a = b below q^order: the difference's valuation, read in one pass (not its terms
+    converted one by one)."""
     try:
         d = a - b
     except QSeriesError:
         return False
-    return all(e >= order for e, _ in d.terms())
+    v = d.valuation
+    return v is None or v >= order
 
 
 def diagnose(r: CheckResult) -> list[Hint]:
@@ -123,7 +126,9 @@ def diagnose(r: CheckResult) -> list[Hint]:
                      or ratio.precision >= n - vr else
                      f"to q^{_text(Fraction(ratio.precision) - vl + vr)} (the first "
                      f"{HINT_PRODUCT_TERMS} terms)")
-            if ratio_pf.period and expr.count(";") <= MAX_FACTOR_SYMBOLS:
+            if expr == "1":
+                pass          # the ratio is 1 as far as its terms go: no factor to name
+            elif ratio_pf.period and expr.count(";") <= MAX_FACTOR_SYMBOLS:
                 hints.append(Hint("product-factor",
                                   f"the ratio left/right is {ratio_pf.expression} {where} "
                                   f"({ratio_pf.repetitions} periods of {ratio_pf.period} "

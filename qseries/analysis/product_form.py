@@ -23,7 +23,7 @@ from ..engine import evaluate
 from ..errors import DomainError
 from ..lang import Node
 from ..series import QQ, ZZ, Ring, Series
-from ..series.formatting import format_exponent
+from ..series.formatting import format_exponent, short_number_text
 
 Number = int | Fraction
 Exponent = int | Fraction
@@ -114,10 +114,22 @@ def find_period(ex: list[int], min_repetitions: int = MIN_REPETITIONS) -> int | 
     4
     """
     n = len(ex)
-    for m in range(1, n // min_repetitions + 1):
-        if all(ex[i] == ex[i + m] for i in range(n - m)):
-            return m
-    return None
+    if n == 0:
+        return None
+    # the least m with ex[i] == ex[i + m] for all i is n minus the longest proper border
+    # of the sequence (a prefix that is also a suffix): Knuth-Morris-Pratt's failure
+    # function, O(n) comparisons (a scan over every m costs O(n^2) on long near-periodic
+    # prefixes)
+    fail = [0] * n
+    k = 0
+    for i in range(1, n):
+        while k and ex[i] != ex[k]:
+            k = fail[k - 1]
+        if ex[i] == ex[k]:
+            k += 1
+        fail[i] = k
+    m = n - fail[-1]
+    return m if m <= n // min_repetitions else None
 
 
 def _power(e: int) -> str:
@@ -199,7 +211,8 @@ def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
     for n, e in enumerate(ex, start=1):
         if e.denominator != 1:
             raise DomainError(f"no product form prod (1-q^n)^(e_n) with integer exponents to "
-                              f"this order: the exponent of (1-q^{n}) would be {e}")
+                              f"this order: the exponent of (1-q^{n}) would be "
+                              f"{short_number_text(e)}")
     ints = [int(e) for e in ex]
     period = find_period(ints) if ints else None
     reps = len(ints) // period if period else 0
@@ -221,7 +234,8 @@ def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
             big = max(nonzero, key=lambda t: abs(t[1]))
             return ProductForm(known if known is not None else order, c, v, ints, None, 0,
                                None, None, f"the exponents show no period and do not end "
-                                           f"below the order (e_{big[0]} = {big[1]})")
+                                           f"below the order (e_{big[0]} = "
+                                           f"{short_number_text(big[1])})")
         body = " ".join(f"(1 - {_q(n)}){_power(e)}" for n, e in nonzero) or "1"
     expression = (prefix + body).strip() if body != "1" or not prefix else prefix.strip()
     if expression in ("", "-"):

@@ -10,6 +10,7 @@ from __future__ import annotations
 import contextvars
 import json
 import sys
+import time
 from enum import StrEnum
 from fractions import Fraction
 from pathlib import Path
@@ -328,6 +329,7 @@ def check_cmd(
 
     Example: qseries check "sum_{k>=0} q^(k^2)/(q;q)_k" "1/((q;q^5)_inf (q^4;q^5)_inf)" -n 500
     """
+    started = time.perf_counter()   # --json reports the whole command's time
     weights = _weights(weight)
     lnode, rnode = _parsed([lhs, rhs], define)
     modular = method == Method.modular or (method == Method.auto and order >= AUTO_MODULAR_ORDER)
@@ -338,7 +340,8 @@ def check_cmd(
                           weights=weights),
         show=order >= STATUS_ORDER and not as_json))
     if as_json:
-        typer.echo(json.dumps(check_json(r, diagnose(r))))
+        hints = diagnose(r)
+        typer.echo(json.dumps(check_json(r, hints, seconds=time.perf_counter() - started)))
     elif latex:
         typer.echo(check_latex(r, lnode, rnode))
     else:

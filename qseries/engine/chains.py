@@ -78,6 +78,7 @@ def apply_parts(ev: Evaluator, acc: Series, factors: list[tuple[Node, int]], env
     denominators (None when there are none), which ``quotient`` inverts once."""
     dens: list[Series] = []
     binoms: list[tuple[Fraction | int, int, int]] = []
+    factors = product_forms(ev, factors, env)
     paired, factors = triple_pairs.paired_products(ev, factors, env, order)
     for v, d in paired:
         acc = (acc * v).truncate(order)
@@ -126,7 +127,21 @@ def apply_parts(ev: Evaluator, acc: Series, factors: list[tuple[Node, int]], env
         den = (den * d).truncate(work)
     return acc.truncate(order), den
 
-@staticmethod
+def product_forms(ev: Evaluator, factors: list[tuple[Node, int]], env: dict[str, int]
+                  ) -> list[tuple[Node, int]]:
+    """The factors with each product over a range of binomials replaced by its
+    q-Pochhammer symbols (``Evaluator.product_forms``), so that pairs and one inversion
+    apply across them."""
+    if not any(isinstance(node, BigOp) and node.kind == "prod" for node, _ in factors):
+        return factors
+    out: list[tuple[Node, int]] = []
+    for node, p in factors:
+        forms = ev.product_forms(node, env) if isinstance(node, BigOp) else None
+        if forms is None:
+            out.append((node, p))
+        else:
+            out.extend((f, p * e) for f, e in forms)
+    return out
 
 
 def quotient(num: Series, den: Series | None, order: int) -> Series:

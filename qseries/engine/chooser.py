@@ -30,11 +30,12 @@ from ..products import (
 from ..series import Series
 
 #: strategies for a sum, in the order of preference (the first that applies and succeeds wins)
-SUM_STRATEGIES = ("monomials", "splitting", "lambert", "stepping", "direct")
-#: strategies for products: Jacobi's triple product for pairs of factors, then for a single
+SUM_STRATEGIES = ("monomials", "splitting", "nested", "lambert", "stepping", "direct")
+#: strategies for products: ``prod_{n}`` of binomials in n rewritten to q-Pochhammer symbols
+#: (``prod_pochhammer``), Jacobi's triple product for pairs of factors, then for a single
 #: infinite q-Pochhammer symbol Euler's product, the exponential of the logarithm, and the
 #: reference factor by factor
-PRODUCT_STRATEGIES = ("triple-pairs", "euler", "exp-log", "factors")
+PRODUCT_STRATEGIES = ("pochhammer-form", "triple-pairs", "euler", "exp-log", "factors")
 STRATEGIES = SUM_STRATEGIES + PRODUCT_STRATEGIES
 #: the references, always allowed
 REFERENCES = frozenset({"direct", "factors"})
@@ -52,11 +53,19 @@ SPLIT_DEGREE = 8
 #: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
 #: computed as the exponential of its logarithm instead of factor by factor
 EXP_FACTORS = 24
-#: ``check(method="auto")`` goes modular from this order on (series in q alone) ...
+#: ``check(method="auto")`` may go modular from this order on (series in q alone) ...
 AUTO_MODULAR_ORDER = 3000
 #: ... and from this order on when there are extra variables (exact Laurent coefficients
 #: grow fast)
 AUTO_MODULAR_ORDER_EXTRA = 400
+#: above those orders ``auto`` first evaluates both sides exactly to this order and
+#: extrapolates the size of their largest coefficient to the order asked (from its growth
+#: between half this order and this order) ...
+AUTO_PROBE_ORDER = 1024
+#: ... and stays exact while that size is at most this many bits (exact arithmetic on
+#: such numbers costs less than evaluating once per prime: Lambert series, theta and eta
+#: products have coefficients of a few dozen bits at any order)
+AUTO_EXACT_BITS = 128
 #: the modular method evaluates the primes after the first in worker processes from here on
 PARALLEL_ORDER = 50_000
 #: from this order on the command line estimates the cost of a run before starting it
@@ -98,11 +107,12 @@ def sum_strategies(allowed: frozenset[str], *, monomials: bool, steppable_only: 
 
     >>> sum_strategies(frozenset(STRATEGIES), monomials=False, steppable_only=True,
     ...                lambert_shape=False, terms=40)
-    ['splitting', 'stepping', 'direct']
+    ['splitting', 'nested', 'stepping', 'direct']
     """
     shape = {
         "monomials": monomials,
         "splitting": steppable_only and terms >= SPLIT_MIN_TERMS,
+        "nested": steppable_only and terms >= SPLIT_MIN_TERMS,
         "lambert": lambert_shape,
         "stepping": "stepping" in allowed,
         "direct": True,

@@ -44,7 +44,7 @@ from ..lang.parser import parse
 from ..products import FUNCTIONS, monomial_parts
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, ring_for
 from ..series.formatting import short_number_text
-from . import chains, chooser, ranges, reorder, sums
+from . import chains, chooser, prod_pochhammer, ranges, reorder, sums
 from .termination import TermBounds
 from .terms import (
     MAX_INTEGER,
@@ -90,11 +90,14 @@ class Evaluator:
         #: the strategy names this evaluator may use (``chooser.allowed_strategies``)
         self.allowed = chooser.allowed_strategies(strategies)
         self._cache: dict[tuple, Any] = {}
-        self._free: dict[int, frozenset[str]] = {}
-        self._hasq: dict[int, bool] = {}
+        self._free: dict[int, tuple[Node, frozenset[str]]] = {}
+        self._hasq: dict[int, tuple[Node, bool]] = {}
         self._reorders: dict[int, tuple[BigOp, BigOp]] = {}
         self.bounds = TermBounds(self)
         self._terms = 0
+        #: nodes the engine builds (``prod_pochhammer``), kept alive with the evaluator
+        #: because the caches above are keyed by the identity of nodes
+        self._synthetic: dict[tuple, Node] = {}
 
     def evaluate(self, node: Node, order: int, retries: int = 3) -> Series:
         """The value of ``node`` modulo q^order.  Where negative powers cost precision the
@@ -141,8 +144,9 @@ class Evaluator:
         if isinstance(node, Neg):
             got = self._top_parts(node.operand, order)
             return None if got is None else (-got[0], got[1])
-        if isinstance(node, BinOp) and node.op in "*/":
-            v = chains.chain_parts(self, factors_of(node), {}, order)
+        forms = self.product_forms(node, {}) if isinstance(node, BigOp) else None
+        if forms is not None or (isinstance(node, BinOp) and node.op in "*/"):
+            v = chains.chain_parts(self, forms or factors_of(node), {}, order)
             if isinstance(v, tuple):
                 return v
             return (v, None) if isinstance(v, Series) else None
@@ -189,18 +193,18 @@ class Evaluator:
         return self._value(node, env, order)
 
     def free(self, node: Node) -> frozenset[str]:
-        f = self._free.get(id(node))
-        if f is None:
-            f = free_names(node)
-            self._free[id(node)] = f
-        return f
+        # keyed by id() with the node kept alive and compared: an evaluator used on a
+        # tree after another tree was freed must not read the freed nodes' facts
+        hit = self._free.get(id(node))
+        if hit is None or hit[0] is not node:
+            hit = self._free[id(node)] = (node, free_names(node))
+        return hit[1]
 
     def has_q(self, node: Node) -> bool:
-        h = self._hasq.get(id(node))
-        if h is None:
-            h = mentions_q(node)
-            self._hasq[id(node)] = h
-        return h
+        hit = self._hasq.get(id(node))
+        if hit is None or hit[0] is not node:
+            hit = self._hasq[id(node)] = (node, mentions_q(node))
+        return hit[1]
 
     def _as_series(self, v: Value) -> Series:
         if isinstance(v, Series):
@@ -369,6 +373,14 @@ class Evaluator:
             e = self.scalar(node.right, env)
             if abs(e) <= MAX_INTEGER:
                 return c, e
+        if isinstance(node, BinOp) and node.op == "^" and not self.has_q(node.right) \
+                and not (self.free(node.right) - env.keys()):
+            # (c' q^e)^k with an integer k, such as (-q^42)^2 after a substitution
+            inner = self._monomial_of(node.left, env)
+            k = self.scalar(node.right, env)
+            if inner is not None and k.denominator == 1 and 0 <= k <= 64 \
+                    and abs(inner[1] * k) <= MAX_INTEGER:
+                return c * inner[0] ** int(k), inner[1] * k
         return None
 
     def _base_step(self, node: Poch, env: dict[str, int], order: int,
@@ -489,9 +501,23 @@ class Evaluator:
                 self._cache[key] = hit
         return hit
 
+    def product_forms(self, node: BigOp, env: dict[str, int]) -> list[tuple[Node, int]] | None:
+        """A product over a range as q-Pochhammer symbols (``prod_pochhammer``), or None
+        (not a product of binomials in n, or the strategy is not allowed).
+
+        >>> len(Evaluator().product_forms(parse("prod_{n>=0} 1/(1-q^(5n+1))"), {}))
+        1
+        """
+        if node.kind != "prod" or prod_pochhammer.NAME not in self.allowed:
+            return None
+        return prod_pochhammer.pochhammer_factors(self, node, env)
+
     def _prod(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         if not self.has_q(node.body):
             return ranges.numbers(self, node, env)
+        forms = self.product_forms(node, env)
+        if forms is not None:
+            return chains.chain(self, forms, env, order)
         ks, cut = ranges.term_range(self, node, env, order, deviation=True)
         self._count_terms(node, len(ks))
         sign, factors = signed_factors(node.body)

@@ -45,18 +45,22 @@ def sum_splitting(ev: Evaluator, plan: SumPlan, parts: bool) -> Series | Parts |
     return plan.finish((term_a * ratio_sum).truncate(target).limit_precision(target))
 
 
-def split_ratio_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],
-                    target: int, sign: int, scalars: list[tuple[Node, int]],
-                    stepping: list[tuple[Poch, int]], shifts: list[Fraction],
-                    den_order: int = 0
-                    ) -> Series | tuple[Series, Series, Series, int] | None:
-    """Binary splitting for a sum whose consecutive terms have a ratio P(k)/Q(k) of
-    polynomials (a power of q, a number, binomials 1 - c q^j): with
-    P(l,r), Q(l,r) the products over [l, r) and T(l,r) = T(l,m) Q(m,r) + P(l,m) T(m,r),
-    the sum is term_a (Q + T)/Q over the whole range, in O(M(N) log K) instead of
-    K divisions by binomials.  Returns (term_a, Q + T, Q, w) with Q + T and Q known
-    modulo q^w, w at least ``den_order``; the sum itself when it is one term; None when
-    the terms do not have that shape (the caller then steps term by term)."""
+#: the ratio of consecutive terms t_i / t_(i-1): (d, c, binomials) for
+#: c q^d prod (1 - b q^x)^times over the binomials (b, x, times), x >= 1
+Ratio = tuple[int, Fraction, list[tuple[Fraction | int | LaurentPoly, int, int]]]
+
+
+def consecutive_ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],
+                       target: int, sign: int, scalars: list[tuple[Node, int]],
+                       stepping: list[tuple[Poch, int]], shifts: list[Fraction],
+                       den_order: int = 0
+                       ) -> Series | tuple[Series, int, list[Ratio]] | None:
+    """The first term and the ratios of consecutive terms of a sum whose factors are
+    numbers, powers of q and q-Pochhammer symbols with subscripts linear in the variable:
+    (term_a, w, ratios) with the sum term_a (1 + r_1 (1 + r_2 (...))) needed modulo q^w
+    (w at least ``den_order``), binomials 1 - b q^x with x >= w left out (they are 1
+    modulo q^w); the sum itself when it is one term; None when the terms do not have that
+    shape."""
     var = node.var
     coeffs: list[Fraction] = []
     for k in ks:
@@ -99,17 +103,10 @@ def split_ratio_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, in
     if w <= 0:
         return term_a.truncate(target)
     w = max(w, den_order)
-    one = Series.constant(1, ring)
-    # the splitting tree holds polynomials of total degree up to the sum of the
-    # binomials' exponents: far beyond the order (a sum of about N terms such as
-    # sum q^n/(q;q)_n) every node is a dense length-N product, and term-by-term stepping
-    # is cheaper
-    degree, budget = 0, SPLIT_DEGREE * w
-    num: list[Series] = []
-    den: list[Series] = []
+    ratios: list[Ratio] = []
     for i in range(1, len(ks)):
-        pn = one.shift(int(shifts[i] - shifts[i - 1])).truncate(w) * (coeffs[i] / coeffs[i - 1])
-        qd = one
+        coef = coeffs[i] / coeffs[i - 1]
+        binoms: list[tuple[Fraction | int | LaurentPoly, int, int]] = []
         for t, params, p, ns in steps:
             lo, hi = sorted((ns[i - 1], ns[i]))
             times = p if ns[i] > ns[i - 1] else -p
@@ -123,16 +120,51 @@ def split_ratio_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, in
                     if x == 0:
                         if c == 1 or isinstance(c, LaurentPoly):
                             return None
-                        pn = pn * rational_power(Fraction(1 - Fraction(c)), Fraction(times))
+                        coef = coef * rational_power(Fraction(1 - Fraction(c)),
+                                                     Fraction(times))
                         continue
-                    degree += x * abs(times)
-                    if degree > budget:
-                        return None
-                    for _ in range(abs(times)):
-                        if times > 0:
-                            pn = pn.mul_binomial(c, x, w)
-                        else:
-                            qd = qd.mul_binomial(c, x, w)
+                    binoms.append((c, x, times))
+        ratios.append((int(shifts[i] - shifts[i - 1]), coef, binoms))
+    return term_a, w, ratios
+
+
+def split_ratio_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],
+                    target: int, sign: int, scalars: list[tuple[Node, int]],
+                    stepping: list[tuple[Poch, int]], shifts: list[Fraction],
+                    den_order: int = 0
+                    ) -> Series | tuple[Series, Series, Series, int] | None:
+    """Binary splitting for a sum whose consecutive terms have a ratio P(k)/Q(k) of
+    polynomials (a power of q, a number, binomials 1 - c q^j): with
+    P(l,r), Q(l,r) the products over [l, r) and T(l,r) = T(l,m) Q(m,r) + P(l,m) T(m,r),
+    the sum is term_a (Q + T)/Q over the whole range, in O(M(N) log K) instead of
+    K divisions by binomials.  Returns (term_a, Q + T, Q, w) with Q + T and Q known
+    modulo q^w, w at least ``den_order``; the sum itself when it is one term; None when
+    the terms do not have that shape (the caller then steps term by term)."""
+    got = consecutive_ratios(ev, node, ks, env, target, sign, scalars, stepping, shifts,
+                             den_order)
+    if got is None or isinstance(got, Series):
+        return got
+    term_a, w, ratios = got
+    ring = ev.ring
+    one = Series.constant(1, ring)
+    # the splitting tree holds polynomials of total degree up to the sum of the
+    # binomials' exponents: far beyond the order (a sum of about N terms such as
+    # sum q^n/(q;q)_n) every node is a dense length-N product, and the nested evaluation
+    # (``sum_nested``) or term-by-term stepping is cheaper
+    budget = SPLIT_DEGREE * w
+    if sum(x * abs(times) for _, _, binoms in ratios for _, x, times in binoms) > budget:
+        return None
+    num: list[Series] = []
+    den: list[Series] = []
+    for d, coef, binoms in ratios:
+        pn = one.shift(d).truncate(w) * coef
+        qd = one
+        for c, x, times in binoms:
+            for _ in range(abs(times)):
+                if times > 0:
+                    pn = pn.mul_binomial(c, x, w)
+                else:
+                    qd = qd.mul_binomial(c, x, w)
         num.append(pn.truncate(w))
         den.append(qd.truncate(w))
 

@@ -8,6 +8,8 @@ shape does not suit it after all, and the next one is tried):
 
 - ``monomials`` (``sum_monomials``): every term c q^e, added into one coefficient list;
 - ``splitting`` (``sum_splitting``): binary splitting on the ratio of consecutive terms;
+- ``nested`` (``sum_nested``): the same ratios from the innermost term outwards, for long
+  sums where the splitting tree would be dense;
 - ``lambert`` (``sum_lambert``): sparse terms c q^s num/(1 - c' q^j)^p;
 - ``stepping`` (``sum_stepping``): term by term, the q-Pochhammer symbols advanced by the
   ratio of consecutive values;
@@ -26,15 +28,18 @@ from dataclasses import dataclass
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
-from ..errors import DomainError
+from ..errors import DomainError, QSeriesError
 from ..lang.ast import BigOp, Node, Poch, Q
 from ..series import Series
 from . import chains, chooser
+from . import symbolic as sym
 from .sum_direct import sum_direct
 from .sum_lambert import sum_lambert
 from .sum_monomials import sum_monomials
+from .sum_nested import sum_nested
 from .sum_splitting import sum_splitting
 from .sum_stepping import steppable, sum_stepping
+from .termination import NoBound
 from .terms import Parts, Value, floor_int, is_q_power, label, rational_power, signed_factors
 
 if TYPE_CHECKING:
@@ -104,6 +109,38 @@ def plan_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],
             stepping.append((f, p))
         else:
             dense.append((f, p))
+    shifts = _shifts(ev, monos, ks, var, env)
+    return SumPlan(node, ks, env, order, sign, const, order - vconst, scalars, stepping,
+                   dense, shifts)
+
+
+def _shifts(ev: Evaluator, monos: list[tuple[Node, int]], ks: list[int], var: str,
+            env: dict[str, int]) -> list[Fraction]:
+    """The exponent of the q-power factors at each k: from one polynomial in k when the
+    exponents are polynomials (read once), else by evaluating them at each k."""
+    total: sym.Poly | None = ()
+    for f, p in monos:
+        if total is None:
+            break
+        if isinstance(f, Q):
+            total = sym.padd(total, sym.const(p))
+            continue
+        try:
+            poly = sym.m_to_uni(ev.bounds.poly_of(f.right, {var: 1}, env), var)  # type: ignore[attr-defined]
+        except (NoBound, QSeriesError):
+            poly = None
+        total = None if poly is None else sym.padd(total, sym.pscale(poly, Fraction(p)))
+    if total is not None:
+        if all(c.denominator == 1 for c in total):
+            coeffs = [int(c) for c in reversed(total)]
+            out = []
+            for k in ks:
+                acc = 0
+                for c in coeffs:
+                    acc = acc * k + c
+                out.append(Fraction(acc))
+            return out
+        return [sym.peval(total, k) for k in ks]
     shifts: list[Fraction] = []
     for k in ks:
         e = Fraction(0)
@@ -111,8 +148,7 @@ def plan_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],
         for f, p in monos:
             e += p * (Fraction(1) if isinstance(f, Q) else ev.scalar(f.right, env_k))  # type: ignore[attr-defined]
         shifts.append(e)
-    return SumPlan(node, ks, env, order, sign, const, order - vconst, scalars, stepping,
-                   dense, shifts)
+    return shifts
 
 
 def sum_value(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], order: int,
@@ -148,6 +184,10 @@ def _sum_known(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], o
             return plan.finish(sum_monomials(ev, plan))
         if name == "splitting":
             got = sum_splitting(ev, plan, parts)
+            if got is not None:
+                return got
+        elif name == "nested":
+            got = sum_nested(ev, plan)
             if got is not None:
                 return got
         elif name == "lambert":

@@ -116,7 +116,11 @@ class TermBounds:
 
     # -- valuations ------------------------------------------------------------------------
     def _constant(self, node: Node, env: dict[str, int], order: int) -> Bound:
-        v = self.ev._as_series(self.ev.value(node, env, order))
+        # a monomial c q^e written as such is read exactly: truncated to the working order
+        # (-q^42 at order 36, from f(-q^42) after a shift) it would vanish
+        v = self.ev._exact_monomial(node, env) if self.ev.has_q(node) else None
+        if v is None:
+            v = self.ev._as_series(self.ev.value(node, env, order))
         val = v.valuation
         if val is None:
             raise NoBound(f"the factor at column {_pos(node)} vanishes to the working order")

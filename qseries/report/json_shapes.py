@@ -122,10 +122,13 @@ def hint_json(h: Hint) -> dict[str, str]:
     return {"kind": h.kind, "message": h.message}
 
 
-def check_json(r: CheckResult, hints: Iterable[Hint] = ()) -> dict[str, Any]:
+def check_json(r: CheckResult, hints: Iterable[Hint] = (),
+               seconds: float | None = None) -> dict[str, Any]:
     """The result of ``qseries check --json``: ``holds`` (true, false, or null when
     inconclusive, with a ``reason``), the order verified and asked, the shortfall, the first
     mismatch, time, method, primes, extra variables and their weights, and the hints.
+    ``seconds`` is the time of the whole command when given (parsing, the cost estimate,
+    the check, the exact recomputation at a mismatch and the hints), else the check's own.
 
     >>> from qseries.analysis import check
     >>> out = check_json(check("O(q^-5) + 1", "2"))
@@ -139,7 +142,7 @@ def check_json(r: CheckResult, hints: Iterable[Hint] = ()) -> dict[str, Any]:
         "order_requested": r.order_requested,
         "shortfall": r.shortfall or None,
         "first_mismatch": mismatch_json(r),
-        "seconds": round(r.seconds, 6),
+        "seconds": round(r.seconds if seconds is None else seconds, 6),
         "method": r.method,
         "primes": list(r.primes),
         "variables": list(r.variables),

@@ -106,7 +106,13 @@ def test_modular_method_locates_and_recomputes_the_mismatch_exactly():
 def test_modular_method_with_rational_coefficients_and_auto_choice():
     assert check("1/(2-q)", "sum_{k>=0} q^k/2^(k+1)", order=200, method="modular").holds
     assert check("q", "q", order=10, method="auto").method == "exact"
-    assert check("q", "q", order=6000, method="auto").method == "modular"
+    # above AUTO_MODULAR_ORDER the choice follows the coefficients' size (issue 19, item 5):
+    # small ones (a monomial; theta_3^2, whose coefficients r_2(n) stay tiny) stay exact,
+    # partition numbers (about sqrt(n) digits) go modular
+    assert check("q", "q", order=6000, method="auto").method == "exact"
+    assert check("theta_3(q)^2", "1 + 4 sum_{n>=1} q^n/(1+q^(2n))", order=6000,
+                 method="auto").method == "exact"
+    assert check("1/(q;q)_inf", "1/(q;q)_inf", order=6000, method="auto").method == "modular"
 
 
 def test_modular_method_agrees_with_exact_on_a_broken_identity():

@@ -102,3 +102,10 @@ def test_a_hint_from_a_bounded_look_says_how_far_it_looked():
     hints = dg.diagnose(r)
     assert [h.kind for h in hints] == ["product-factor"]
     assert f"q^{dg.HINT_PRODUCT_TERMS}" in hints[0].message
+
+
+def test_a_ratio_of_one_names_no_factor():
+    # a late single-term mismatch: the ratio's first terms are 1, which is no missing factor
+    r = check("1/(q;q)_inf", "1/(q;q)_inf + q^297", order=300)
+    assert r.holds is False
+    assert not [h for h in diagnose(r) if h.kind == "product-factor"]

@@ -92,3 +92,12 @@ def test_a_series_in_a_fractional_power_is_refused_with_the_substitution():
     # e.g. Berndt, Ramanujan's Notebooks III, Ch. 16, Entry 22(i); from memory)
     pf = product_form("theta_2(q^4) + theta_3(q^4)", 80)
     assert pf.eta == "eta(q)^-2 eta(q^2)^5 eta(q^4)^-2"
+
+
+def test_huge_exponents_are_described_not_printed():
+    # exponents of thousands of digits: the message describes the number (Python refuses
+    # to print an int of more than 4300 digits, which was a traceback)
+    from qseries.series import Series
+    f = Series.from_coefficients([1, 10**5000, 3, 7, 1, 9, 4], prec=7)
+    pf = product_form(f, 7)
+    assert pf.period is None and pf.expression is None and "digits" in pf.reason

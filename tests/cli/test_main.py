@@ -618,3 +618,16 @@ def test_version_names_the_installed_versions():
     assert r.exit_code == 0
     assert r.stdout.startswith(f"qseries {version('qseries')} ")
     assert f"python-flint {flint.__version__}" in r.stdout
+
+
+def test_check_json_seconds_cover_the_whole_command(monkeypatch):
+    # issue 19, item 6: ``seconds`` is the time of the whole command (the hints included),
+    # read here from a fake clock: start of the command at 1000, end at 1042.5
+    import types
+
+    import qseries.cli.main as main
+    clock = iter([1000.0, 1042.5])
+    monkeypatch.setattr(main, "time", types.SimpleNamespace(perf_counter=lambda: next(clock)))
+    r = run("check", RR1[0], RR1[1] + " - q^150", "--order", "151", "--json")
+    assert r.exit_code == 1
+    assert json.loads(r.stdout)["seconds"] == 42.5

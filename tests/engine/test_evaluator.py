@@ -378,3 +378,15 @@ def test_extractor_over_other_rings_and_inside_sums():
     # inside a finite sum, the part of each term
     assert evaluate("sum_{k=0}^{3} [q^(2n)] q^k/(1-q)", 6) == \
         evaluate("1/(1-q) + 2q/(1-q) + q^2/(1-q)", 6)
+
+
+def test_one_evaluator_on_many_trees():
+    # the evaluator caches facts about nodes by id(); a tree freed after its evaluation must
+    # not lend its facts to a later tree whose nodes reuse the ids (a product over n read as
+    # a product of numbers was the symptom)
+    ev = Evaluator(ZZ)
+    texts = ["prod_{n>=1} (1+q^n)/(1-q^(2n-1))^2", "prod_{n>=1} (1-q^n)",
+             "sum_{n>=0} q^(n^2)/(q;q)_n", "prod_{n=1}^{5} (1-2q^n)"]
+    for _ in range(20):
+        for text in texts:
+            assert ev.evaluate(parse(text), 30) == Evaluator(ZZ).evaluate(parse(text), 30)

@@ -66,3 +66,13 @@ def test_a_denominator_one_minus_a_positive_power_in_a_double_sum():
     from qseries import evaluate
     f = evaluate("sum_{i,j>=0} q^(i+j)/(1-q^(i+j+1))", 80)
     assert f.coefficient_list(80) == [int(divisor_sigma(n + 1)) for n in range(80)]
+
+
+def test_a_substituted_monomial_is_read_exactly():
+    # f(-q^42) = (q^42;q^42)_inf (Berndt, Ramanujan's Notebooks III, ch. 16, Entry 22,
+    # from memory) needed only to q^36 after the shift q^4: its parameters -q^42 and
+    # -(-q^42)^2 must not be truncated to 0 before the terms are bounded (the catalogue's
+    # berndt-iv-25-27-1 at order 40 found it)
+    from qseries.engine import evaluate
+    assert evaluate("q^4 f(-q^6)^2 f(-q^42)^2", 40) == \
+        evaluate("q^4 (q^6;q^6)_inf^2 (q^42;q^42)_inf^2", 40)
