@@ -1,0 +1,5 @@
+"""Proofs of identities between modular forms by a finite check: the group Gamma_0(N)
+(:mod:`.gamma0`), eta quotients and their modularity criteria (:mod:`.eta`), recognising an
+expression as a combination of eta quotients (:mod:`.recognise`), and the proof with its
+certificate (:mod:`.prove`).
+"""
