@@ -173,17 +173,18 @@ class EtaQuotient:
         return " ".join(parts) or "1"
 
 
-def least_level(quotients: list[EtaQuotient], functions: bool = False) -> int | None:
-    """The least N, a multiple of every d that occurs, at which every quotient satisfies
-    Newman's congruences (and, with ``functions``, is a modular function on Gamma_0(N));
-    None when there is none (sum d r_d not 0 mod 24, or s not a square).
+def least_level(quotients: list[EtaQuotient], functions: bool = False,
+                multiple_of: int = 1) -> int | None:
+    """The least N, a multiple of ``multiple_of`` and of every d that occurs, at which every
+    quotient satisfies Newman's congruences (and, with ``functions``, is a modular function
+    on Gamma_0(N)); None when there is none (sum d r_d not 0 mod 24, or s not a square).
 
     >>> least_level([EtaQuotient.of({1: 16, 2: -24, 4: 8}), EtaQuotient.of({1: 8, 2: -24, 4: 16})])
     4
     >>> least_level([EtaQuotient.of({1: 24})]), least_level([EtaQuotient.of({1: 1})])
     (1, None)
     """
-    base = _lcm([q.least_multiple for q in quotients])
+    base = _lcm([multiple_of] + [q.least_multiple for q in quotients])
     need = 1
     for q in quotients:
         if sum(d * e for d, e in q.exponents) % 24:
