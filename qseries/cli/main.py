@@ -699,6 +699,11 @@ def list_cmd(
     console.print(listing_summary(rows))
 
 
+from .prove import prove_cmd  # noqa: E402  (the command lives in its own module)
+
+app.command(name="prove")(prove_cmd)
+
+
 def run() -> None:
     """Console-script entry point."""
     try:

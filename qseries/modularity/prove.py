@@ -132,7 +132,8 @@ class ProofResult:
             checked = (f"the coefficients of q^{c.low} .. q^{c.high} agree exactly "
                        f"({c.coefficients} compared)")
             if c.method == "sturm":
-                return (f"proved: both sides times q^({-c.shift}) are modular forms of weight "
+                scaled = "" if c.shift == 0 else f" times q^({-c.shift})"
+                return (f"proved: both sides{scaled} are modular forms of weight "
                         f"{c.weight} on Gamma_0({c.level}) with character {c.character_text}; "
                         f"Sturm's bound is {c.bound} and {checked}")
             assert c.divisor is not None
@@ -262,10 +263,11 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
     integer_argument("order", order, 1)
     lnode, rnode = _node(lhs), _node(rhs)
     left, right = recognise(lnode), recognise(rnode)
-    for name, rec in (("left", left), ("right", right)):
-        if rec.terms is None:
-            return _refused(lnode, rnode, order, f"the {name} side is not recognised as a "
-                                                 f"combination of eta quotients: {rec.reason}")
+    why = [f"the {name} side is not recognised as a combination of eta quotients: "
+           f"{rec.reason}" for name, rec in (("left", left), ("right", right))
+           if rec.terms is None]
+    if why:
+        return _refused(lnode, rnode, order, "; ".join(why))
     assert left.terms is not None and right.terms is not None
     labelled = [("lhs", t) for t in left.terms] + [
         ("rhs", RecognisedTerm(-t.coefficient, t.eta, t.shift)) for t in right.terms]
