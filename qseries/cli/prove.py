@@ -11,7 +11,24 @@ from typing import Annotated
 
 import typer
 
+from ..lang import Node
 from .main import DefineOption, JsonOption, OrderOption, _guarded, _parsed
+
+
+def mention_prove(lnode: Node, rnode: Node, holds: bool | None) -> None:
+    """After ``check`` agreed: print a note when ``qseries prove`` could decide the identity
+    (recognition only, no series computed)."""
+    if holds is not True:
+        return
+    from ..modularity.prove import looks_provable
+    from ..report.proof import provable_note
+
+    try:
+        provable = looks_provable(lnode, rnode)
+    except RecursionError:
+        return
+    if provable:
+        typer.echo(provable_note())
 
 
 def prove_cmd(

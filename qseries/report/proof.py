@@ -119,6 +119,17 @@ def certificate_lines(c: Certificate) -> list[str]:
     return lines
 
 
+def provable_note() -> str:
+    """The note ``check`` prints when both sides are combinations of eta quotients of one
+    weight.
+
+    >>> provable_note()[:40]
+    'note: both sides are combinations of eta'
+    """
+    return ("note: both sides are combinations of eta quotients of one weight, so a finite "
+            "check may prove this identity: run `qseries prove` with the same sides")
+
+
 def proof_lines(r: ProofResult) -> list[str]:
     """PROVED / DIFFERS / NOT PROVED with the verdict, then the certificate or the evidence.
 
