@@ -45,6 +45,8 @@ MAX_PERIOD = 5040
 MAX_TERMS = 256
 #: the largest power |k| taken of a sum of several terms
 MAX_SUM_POWER = 16
+#: how many terms of a one-sided theta series may lie outside its symmetric half
+MAX_SHIFT_TERMS = 1000
 #: the largest |exponent| of one factor
 MAX_EXPONENT = 10**6
 
@@ -528,15 +530,23 @@ def _sum(node: BigOp) -> Combination:
     if lo is None:
         return bilateral
     centre = -b / (2 * a2)
-    if centre == lo - Fraction(1, 2):
-        mirror = [sig[(2 * lo - 1 - n) % 4] for n in range(4)]
-        if mirror == sig:
-            return {p: v / 2 for p, v in bilateral.items()}
-    if centre == lo:
-        mirror = [sig[(2 * lo - n) % 4] for n in range(4)]
-        if mirror == sig:
-            middle = _single(_q_power(_pval(qexp, lo)), c * sig[lo % 4])
-            return {p: v / 2 for p, v in _add(bilateral, middle).items()}
+    start = math.ceil(centre)                 # the sum over n >= start is the symmetric half
+    if abs(start - lo) <= MAX_SHIFT_TERMS:
+        # sum_{n >= lo} = sum_{n >= start} + the terms lo <= n < start (or minus start <= n < lo)
+        between: Combination = {}
+        for n in range(min(lo, start), max(lo, start)):
+            between = _add(between, _single(_q_power(_pval(qexp, n)), c * sig[n % 4]),
+                           1 if lo < start else -1)
+        half = None
+        if centre == start - Fraction(1, 2):
+            if [sig[(2 * start - 1 - n) % 4] for n in range(4)] == sig:
+                half = {p: v / 2 for p, v in bilateral.items()}
+        elif centre == start:
+            if [sig[(2 * start - n) % 4] for n in range(4)] == sig:
+                middle = _single(_q_power(_pval(qexp, start)), c * sig[start % 4])
+                half = {p: v / 2 for p, v in _add(bilateral, middle).items()}
+        if half is not None:
+            return _add(half, between)
     raise _Refusal(f"the one-sided sum over {node.var} >= {lo} is not half of a symmetric "
                    f"theta series")
 
