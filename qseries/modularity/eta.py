@@ -38,8 +38,8 @@ def _lcm(values: list[int]) -> int:
 def squarefree_part(x: Fraction) -> int:
     """The squarefree integer t with x = t * (a rational square), for x != 0.
 
-    >>> squarefree_part(Fraction(8)), squarefree_part(Fraction(-3, 4)), squarefree_part(Fraction(1, 2))
-    (2, -3, 2)
+    >>> [squarefree_part(Fraction(x)) for x in ("8", "-3/4", "1/2")]
+    [2, -3, 2]
     """
     n = x.numerator * x.denominator          # same square class as x
     sign = -1 if n < 0 else 1
@@ -125,8 +125,8 @@ class EtaQuotient:
     def character_class(self) -> int:
         """The squarefree t with chi(d) = (t / d): the class of (-1)^k s (integral weight).
 
-        >>> EtaQuotient.of({1: 2, 11: 2}).character_class(), EtaQuotient.of({1: 4, 2: 4}).character_class()
-        (1, 1)
+        >>> [EtaQuotient.of(r).character_class() for r in ({1: 2, 11: 2}, {1: -4, 2: 10, 4: -4})]
+        [1, -1]
         """
         k = self.weight
         sign = -1 if k.denominator == 1 and k.numerator % 2 else 1

@@ -501,7 +501,7 @@ def _sum(node: BigOp) -> Combination:
                        f"sums, or a sum in extra variables is not recognised as modular)")
     c, sign, qexp = term
     if hi is not None:
-        raise _Refusal(f"a sum with an upper limit is a polynomial in q, not a modular object")
+        raise _Refusal("a sum with an upper limit is a polynomial in q, not a modular object")
     if len(qexp) != 3 or qexp[2] <= 0 or not _integer_valued(sign):
         raise _Refusal(f"the sum over {node.var} is not a theta series: the exponent of q is "
                        f"not a quadratic in {node.var} with positive leading coefficient, or "

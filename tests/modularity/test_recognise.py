@@ -46,7 +46,8 @@ def test_published_eta_forms(text, r, shift):
 
 
 @pytest.mark.parametrize("text", [
-    "phi(q)^2 - phi(-q)^2", "psi(q)^2 + 3 q^(-1/4) eta(q^2)^4 / eta(q)^2", "(-q;q)_inf^24 (q;q)_inf",
+    "phi(q)^2 - phi(-q)^2", "psi(q)^2 + 3 q^(-1/4) eta(q^2)^4 / eta(q)^2",
+    "(-q;q)_inf^24 (q;q)_inf",
     "f(q)", "f(q^2)", "f(q, q^2)", "f(-q, -q^2)", "psi(-q^3)^2 chi(q)", "(-1;q)_inf",
     "prod_{n>=1} 1/(1 + q^(2n-1))", "sum_{n>=0} q^(n^2)", "(theta_3(q) + theta_4(q))^3 / 8",
     "(q^2;q^2)_inf/(q;q^2)_inf", "sum_{n>=1} q^(n(n+1))", "sum_{n>=-2} (-1)^n q^(n^2)",
