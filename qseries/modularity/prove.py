@@ -41,7 +41,7 @@ from ..analysis import CheckResult, check
 from ..errors import integer_argument
 from ..lang import Node, parse
 from .eta import EtaQuotient, least_level
-from .gamma0 import cusps_gamma0, index_gamma0, sturm_bound
+from .gamma0 import MAX_LEVEL, cusps_gamma0, index_gamma0, sturm_bound
 from .recognise import RecognisedTerm, Recognition, recognise
 
 #: the highest exponent a proof checks coefficients to (the bound can grow with the level)
@@ -286,6 +286,10 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
                         f"the terms have different weights ({weights[0]} and {weights[-1]}): "
                         f"the identity is not one between modular forms of one weight")
     shift, weight = shifts[0], weights[0]
+    if least_level_base(terms) * 24 > MAX_LEVEL:
+        return _refused(lnode, rnode, order,
+                        f"the level would be a multiple of {least_level_base(terms)}, and "
+                        f"levels above {MAX_LEVEL} are not handled")
     sturm = _sturm(terms)
     if sturm is not None:
         level, table, char = sturm
@@ -307,7 +311,8 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
         return _refused(lnode, rnode, order,
                         f"the {cert.method} bound at level {cert.level} needs the coefficients "
                         f"up to q^{cert.high}, above the limit q^{MAX_CHECK_ORDER}")
-    upto = math.floor(cert.high) + 1          # exponents e = high (mod 1) with e <= high
+    # exponents e = high (mod 1) with e <= high; at least q^0 (a check compares below q^1)
+    upto = max(math.floor(cert.high) + 1, 1)
     result = check(lnode, rnode, upto, method="exact")
     if result.holds is False:
         return ProofResult(False, False, cert, None, result)

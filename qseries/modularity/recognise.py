@@ -34,7 +34,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from ..lang import Node, parse
-from ..lang.ast import BigO, BigOp, BinOp, Call, Dissect, Name, Neg, Num, Poch, Q, Var
+from ..lang.ast import BigO, BigOp, BinOp, Call, Dissect, Name, Neg, Num, Poch, Q, Var, sum_spine
 from .eta import EtaQuotient
 
 __all__ = ["Recognition", "RecognisedTerm", "parse", "recognise"]
@@ -47,6 +47,10 @@ MAX_TERMS = 256
 MAX_SUM_POWER = 16
 #: how many terms of a one-sided theta series may lie outside its symmetric half
 MAX_SHIFT_TERMS = 1000
+#: the most finite factors (1 - q^n) a term may carry
+MAX_FINITE = 10_000
+#: the largest number of bits of a constant raised to a power
+MAX_CONSTANT_BITS = 100_000
 #: the largest |exponent| of one factor
 MAX_EXPONENT = 10**6
 
@@ -109,6 +113,10 @@ def _q_power(e: Fraction) -> _Product:
 
 def _poch_inf(a: int, m: int) -> _Product:
     """(q^a;q^m)_inf for integers a, m >= 1."""
+    if m > MAX_PERIOD:
+        raise _Refusal(f"a product (q^a;q^m)_inf with m = {m} above {MAX_PERIOD}")
+    if a // m > MAX_FINITE:
+        raise _Refusal(f"a product (q^a;q^m)_inf with a/m above {MAX_FINITE}")
     a0 = (a - 1) % m + 1
     exps = [1 if n % m == a0 % m else 0 for n in range(1, m + 1)]
     finite = {n: -1 for n in range(a0, a, m)}       # factors below q^a are not in it
@@ -152,7 +160,7 @@ def _mul(x: Combination, y: Combination) -> Combination:
 def _power(x: Combination, k: int) -> Combination:
     if len(x) == 1:
         [(p, c)] = x.items()
-        return {p ** k: c ** k}
+        return {p ** k: _constant_power(c, k)}
     if not x:
         if k <= 0:
             raise _Refusal("a power 0^k with k <= 0")
@@ -189,6 +197,8 @@ def _monomial(node: Node) -> tuple[Fraction, Fraction] | None:
         inner = _monomial(node.operand)
         return None if inner is None else (-inner[0], inner[1])
     if isinstance(node, BinOp):
+        if node.op not in "*/^":
+            return None
         left = _monomial(node.left)
         right = _monomial(node.right)
         if left is None or right is None:
@@ -200,11 +210,21 @@ def _monomial(node: Node) -> tuple[Fraction, Fraction] | None:
         if node.op == "^" and right[1] == 0:
             k = right[0]
             if k.denominator == 1 and abs(k) <= MAX_EXPONENT and (left[0] != 0 or k > 0):
-                return left[0] ** int(k), left[1] * k
+                return _constant_power(left[0], int(k)), left[1] * k
             if left[0] == 1 and abs(k) <= MAX_EXPONENT:
                 return Fraction(1), left[1] * k
         return None
     return None
+
+
+def _constant_power(c: Fraction, k: int) -> Fraction:
+    if c in (1, -1) or (c == 0 and k > 0):
+        return c ** (k % 2 if c == -1 else 1)
+    bits = max(c.numerator.bit_length(), c.denominator.bit_length())
+    if bits * abs(k) > MAX_CONSTANT_BITS:
+        raise _Refusal(f"a constant raised to the power {k} would have more than "
+                       f"{MAX_CONSTANT_BITS} bits")
+    return c ** k
 
 
 def _padd(x: Poly, y: Poly, sign: int = 1) -> Poly:
@@ -294,7 +314,7 @@ def _sum_term(node: Node, var: str) -> _Term | None:
             if base[0] == 0 and k <= 0:
                 return None
             kk = int(k)
-            return (base[0] ** kk, tuple(c * kk for c in base[1]),
+            return (_constant_power(base[0], kk), tuple(c * kk for c in base[1]),
                     tuple(c * kk for c in base[2]))
         mono = _monomial(node.left)                     # (c q^e)^(P(n))
         if mono is None or mono[0] not in (1, -1):
@@ -399,7 +419,16 @@ def _walk(node: Node) -> Combination:
         return {p: -c for p, c in _walk(node.operand).items()}
     if isinstance(node, BinOp):
         if node.op in "+-":
-            return _add(_walk(node.left), _walk(node.right), 1 if node.op == "+" else -1)
+            first, rest = sum_spine(node)       # long sums are deep left spines: no recursion
+            acc = _walk(first)
+            for op, term in rest:
+                for p, c in _walk(term).items():
+                    v = acc.get(p, Fraction(0)) + (c if op == "+" else -c)
+                    if v:
+                        acc[p] = v
+                    else:
+                        acc.pop(p, None)
+            return acc
         if node.op == "*":
             return _mul(_walk(node.left), _walk(node.right))
         if node.op == "/":
@@ -447,7 +476,7 @@ def _poch(node: Poch) -> Combination:
     length: int | None = None
     if node.length is not None:
         n = _constant(node.length)
-        if n is None or n.denominator != 1 or n < 0 or n > 10**5:
+        if n is None or n.denominator != 1 or n < 0 or n > MAX_FINITE:
             raise _Refusal("a finite q-Pochhammer symbol needs a fixed length >= 0")
         length = int(n)
     out = _single(_ONE)

@@ -142,3 +142,15 @@ def test_the_rechecker_rejects_a_tampered_certificate(tamper):
     cert = copy.deepcopy(proof_json(r)["certificate"])
     tamper(cert)
     assert recheck(*JACOBI, cert) != []
+
+
+def test_levels_beyond_the_limit_are_refused():
+    s = " + ".join(f"eta(q^{i})^24" for i in range(1, 40))
+    r = prove(s, s, order=5)
+    assert not r.proved and "levels above" in r.reason
+
+
+def test_a_negative_power_of_q_in_front():
+    # q^-5 Delta = q^-5 Delta: both sides times q^5 are Delta (the check starts at q^-4)
+    c = _proved("q^-5 eta(q)^24", "q^-5 (q;q)_inf^24 q")
+    assert c.shift == -5 and c.low == -4 and c.high == -4

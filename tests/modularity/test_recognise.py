@@ -97,3 +97,12 @@ def test_zero_is_the_empty_combination():
 def test_limits_refuse_instead_of_growing():
     assert "terms" in recognise(parse("(theta_3(q) + theta_4(q) + 1)^16")).reason
     assert "period above" in recognise(parse("(q;q^4999)_inf (q;q^4997)_inf")).reason
+
+
+def test_large_inputs_are_refused_quickly():
+    # no list of a million exponents is built, and a long sum is walked without recursion
+    assert "above 5040" in recognise(parse("eta(q^1000000)")).reason
+    long_sum = " + ".join(f"q^{i}" for i in range(3000))
+    rec = recognise(parse(long_sum))
+    assert rec.terms is not None and len(rec.terms) == 3000
+    assert "bits" in recognise(parse("(10^100)^(10^5) eta(q)")).reason
