@@ -3,3 +3,9 @@
 expression as a combination of eta quotients (:mod:`.recognise`), and the proof with its
 certificate (:mod:`.prove`).
 """
+
+from .prove import Certificate, ProofResult, looks_provable, prove
+from .recognise import Recognition, recognise
+
+__all__ = ["Certificate", "ProofResult", "Recognition", "looks_provable", "prove",
+           "recognise"]

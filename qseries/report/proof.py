@@ -143,7 +143,8 @@ def proof_lines(r: ProofResult) -> list[str]:
         lines = [f"DIFFERS  {r.verdict}"]
         if r.certificate is not None:
             c = r.certificate
-            lines.append(f"  (within the {c.method} bound: the coefficients up to q^{c.high} "
+            name = "Sturm" if c.method == "sturm" else "valence"
+            lines.append(f"  (within the {name} bound: the coefficients up to q^{c.high} "
                          f"decide this identity at level {c.level})")
         return lines + check_lines(r.check)[1:]
     lines = [f"NOT PROVED  {r.verdict}"]

@@ -40,7 +40,7 @@ def test_differs_json_and_lines():
     assert out["first_mismatch"]["index"] == 25 and out["certificate"]["bound"] == 180
     lines = proof_lines(r)
     assert lines[0].startswith("DIFFERS  the two sides differ: first at q^25")
-    assert "sturm bound" in lines[1]
+    assert "within the Sturm bound" in lines[1]
 
 
 def test_refused_json_and_lines():
