@@ -40,6 +40,7 @@ from fractions import Fraction
 from ..analysis import CheckResult, check
 from ..errors import integer_argument
 from ..lang import Node, parse
+from ..lang.ast import Dissect
 from .eta import EtaQuotient, least_level
 from .gamma0 import MAX_LEVEL, cusps_gamma0, index_gamma0, sturm_bound
 from .recognise import RecognisedTerm, Recognition, recognise
@@ -90,6 +91,14 @@ class Certificate:
     bound: int
     low: Fraction
     high: Fraction
+    #: for ``dissection`` (:mod:`.dissection`): (m, r) of [q^(mn+r)], the eta quotient f
+    #: with U_m(f) = sum of the terms (each coefficient_i * eta_i, right side negated, is
+    #: then a modular function on Gamma_0(level)), the multiplier M with f = B(tau) M(m tau),
+    #: and the constant c_B in front of the dissected eta quotient B
+    operator: tuple[int, Fraction] | None = None
+    function: EtaQuotient | None = None
+    multiplier: EtaQuotient | None = None
+    scale: Fraction | None = None
 
     @property
     def coefficients(self) -> int:
@@ -136,6 +145,14 @@ class ProofResult:
                 return (f"proved: both sides{scaled} are modular forms of weight "
                         f"{c.weight} on Gamma_0({c.level}) with character {c.character_text}; "
                         f"Sturm's bound is {c.bound} and {checked}")
+            if c.method == "dissection":
+                assert c.operator is not None and c.function is not None
+                m = c.operator[0]
+                return (f"proved: U_{m} of f = {c.function.text()} and every term of the other "
+                        f"side times {c.multiplier.text() if c.multiplier else '1'} are modular "
+                        f"functions on Gamma_0({c.level}); the valence bound (with a lower "
+                        f"bound for the orders of U_{m} f at the cusps) is {c.bound} and "
+                        f"{checked}")
             assert c.divisor is not None
             return (f"proved: every term divided by {c.terms[c.divisor][1].eta.text()} is a "
                     f"modular function on Gamma_0({c.level}); the valence bound is {c.bound} "
@@ -262,6 +279,9 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
     """
     integer_argument("order", order, 1)
     lnode, rnode = _node(lhs), _node(rhs)
+    if isinstance(lnode, Dissect) or isinstance(rnode, Dissect):
+        from .dissection import prove_dissection  # it builds on this module
+        return prove_dissection(lnode, rnode, order)
     left, right = recognise(lnode), recognise(rnode)
     why = [f"the {name} side is not recognised as a combination of eta quotients: "
            f"{rec.reason}" for name, rec in (("left", left), ("right", right))

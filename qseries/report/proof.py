@@ -49,6 +49,12 @@ def certificate_json(c: Certificate) -> dict[str, Any]:
                    "orders": [_num(o) for o in x.orders], "least": _num(x.least)}
                   for x in c.cusps],
         "bound": c.bound,
+        "operator": None if c.operator is None else {"m": c.operator[0],
+                                                     "r": _num(c.operator[1])},
+        "function": None if c.function is None else {str(d): e for d, e in c.function.exponents},
+        "multiplier": None if c.multiplier is None else {
+            str(d): e for d, e in c.multiplier.exponents},
+        "scale": None if c.scale is None else str(c.scale),
         "checked": {"from": _num(c.low), "to": _num(c.high),
                     "coefficients": c.coefficients, "arithmetic": "exact"},
     }
@@ -97,10 +103,20 @@ def certificate_lines(c: Certificate) -> list[str]:
     char = c.character_text or "not used (half-integral weight or mixed characters)"
     lines.append(f"  level N = {c.level}, index [SL2(Z):Gamma_0(N)] = {c.index}, weight "
                  f"{c.weight}, character {char}")
-    if c.method == "sturm":
+    if c.method == "dissection":
+        assert c.operator is not None and c.function is not None and c.multiplier is not None
+        m = c.operator[0]
+        rhs = " + ".join(f"({-t.coefficient}) {t.eta.text()}" for _, t in c.terms)
+        lines = [f"  the identity times M(tau) = {c.multiplier.text()} (and a power of q) is "
+                 f"U_{m}(f) = {rhs}, with f = {c.function.text()}",
+                 f"  level N = {c.level}, index [SL2(Z):Gamma_0(N)] = {c.index}; f and every "
+                 f"term are modular functions on Gamma_0(N), and so is U_{m}(f) ({m} | N)",
+                 f"  lower bounds at each cusp a/c other than infinity: for U_{m}(f) (from the "
+                 f"orders of f at the cusps over a/c), then Ligozat's order of each term:"]
+    elif c.method == "sturm":
         lines.append("  orders of the terms at the cusps (Ligozat; all >= 0, so every term is "
                      "holomorphic):")
-    else:
+    elif c.method == "valence":
         assert c.divisor is not None
         lines.append(f"  orders at the cusps (Ligozat) of each term divided by term "
                      f"{c.divisor + 1}, {c.terms[c.divisor][1].eta.text()}:")
@@ -108,7 +124,10 @@ def certificate_lines(c: Certificate) -> list[str]:
         orders = ", ".join(str(o) for o in x.orders)
         lines.append(f"    cusp {x.cusp:>5} (d = {x.d}, {x.count} cusp{'s' * (x.count != 1)}, "
                      f"width {x.width}): {orders}")
-    if c.method == "sturm":
+    if c.method == "dissection":
+        lines.append(f"  valence bound B = -(sum over the cusps other than infinity of the "
+                     f"least lower bound) = {c.bound}")
+    elif c.method == "sturm":
         lines.append(f"  Sturm's bound B = floor(k m / 12) = floor({c.weight} * {c.index} / 12)"
                      f" = {c.bound}")
     else:
