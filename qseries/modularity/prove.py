@@ -176,8 +176,16 @@ def looks_provable(lhs: str | Node, rhs: str | Node) -> bool:
     True
     >>> looks_provable("sum_{n>=1} q^n/(1-q^n)", "1")
     False
+    >>> looks_provable("[q^(5n+4)] 1/(q;q)_inf", "5 (q^5;q^5)_inf^5/(q;q)_inf^6")
+    True
     """
-    left, right = recognise(_node(lhs)), recognise(_node(rhs))
+    lnode, rnode = _node(lhs), _node(rhs)
+    if isinstance(lnode, Dissect) != isinstance(rnode, Dissect):
+        dis, other = (lnode, rnode) if isinstance(lnode, Dissect) else (rnode, lnode)
+        assert isinstance(dis, Dissect)
+        body, rest = recognise(dis.body), recognise(other)
+        return body.terms is not None and len(body.terms) == 1 and bool(rest.terms)
+    left, right = recognise(lnode), recognise(rnode)
     if left.terms is None or right.terms is None:
         return False
     terms = list(left.terms) + list(right.terms)
