@@ -5,8 +5,12 @@ import copy
 from fractions import Fraction
 
 import pytest
+from hypothesis import assume, given, settings
+from hypothesis import strategies as st
 
 from qseries import check, parse, show
+from qseries.modularity.eta import EtaQuotient
+from qseries.modularity.gamma0 import divisors
 from qseries.modularity.prove import looks_provable, prove
 from qseries.report.proof import proof_json
 
@@ -187,3 +191,25 @@ def test_the_catalogue_entries_that_look_provable():
         else:
             assert r.proved, (e.ident, r.verdict)
             assert recheck(show(left), show(right), proof_json(r)["certificate"]) == [], e.ident
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.sampled_from([6, 8, 12, 18]), st.data(), st.integers(1, 3))
+def test_a_perturbed_identity_is_never_proved(n, data, c):
+    # Jacobi's quartic plus c * H for a random eta quotient H of weight 2 with integral
+    # exponents: the sides differ (H != 0), so prove must never say PROVED, and when it
+    # computed a bound the mismatch lies at or below it.  r_1 and r_n are solved for so that
+    # sum r_d = 4 and sum d r_d = 0 (mod 24) (n - 1 is prime to 24)
+    r = {d: data.draw(st.integers(-6, 6), label=f"r_{d}") for d in divisors(n)[1:-1]}
+    s, t = sum(r.values()), sum(d * e for d, e in r.items())
+    r_n = (pow(n - 1, -1, 24) * (-t - (4 - s))) % 24
+    r_n -= 24 if r_n >= 12 else 0
+    r[n], r[1] = r_n, 4 - s - r_n
+    h = EtaQuotient.of(r)
+    assume(h.weight == 2 and h.offset.denominator == 1 and h.offset < 30)
+    lhs, rhs = JACOBI[0], f"{JACOBI[1]} + {c} {h.text()}"
+    result = prove(lhs, rhs, order=30)
+    assert not result.proved
+    if result.reason is None:
+        assert result.holds is False
+        assert result.check.first_mismatch.exponent <= result.certificate.high
