@@ -8,7 +8,8 @@ import qseries
 
 ROOT = pathlib.Path(qseries.__file__).parent
 
-LAYERS = ["errors", "backend", "series", "products", "lang", "engine", "analysis", "report",
+LAYERS = ["errors", "backend", "series", "products", "lang", "engine", "analysis",
+          "modularity", "report",
           "catalogue", "testing", "cli"]
 
 

@@ -346,6 +346,7 @@ def check_cmd(
         typer.echo(check_latex(r, lnode, rnode))
     else:
         _print_check(r)
+        mention_prove(lnode, rnode, r.holds)
     raise typer.Exit(3 if r.holds is None else 0 if r.holds else 1)
 
 
@@ -732,6 +733,11 @@ def list_cmd(
     console = Console()
     console.print(listing_table(rows))
     console.print(listing_summary(rows))
+
+
+from .prove import mention_prove, prove_cmd  # noqa: E402  (the command lives in its own module)
+
+app.command(name="prove")(prove_cmd)
 
 
 def run() -> None:
