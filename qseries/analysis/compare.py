@@ -58,6 +58,7 @@ from ..series import (
     ring_for,
 )
 from ..series.formatting import coefficient_text
+from .display import Displayed
 
 Exponent = int | Fraction
 Number = int | Fraction
@@ -77,7 +78,7 @@ class Mismatch:
 
 
 @dataclass(frozen=True)
-class CheckResult:
+class CheckResult(Displayed):
     """Outcome of comparing two sides modulo q^order.
 
     ``holds`` is True when every coefficient of q^e with e < ``order_verified`` agrees, False

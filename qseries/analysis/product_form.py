@@ -24,6 +24,7 @@ from ..errors import DomainError
 from ..lang import Node
 from ..series import QQ, ZZ, Ring, Series
 from ..series.formatting import format_exponent
+from .display import Displayed
 
 Number = int | Fraction
 Exponent = int | Fraction
@@ -33,7 +34,7 @@ MIN_REPETITIONS = 3
 
 
 @dataclass(frozen=True)
-class ProductForm:
+class ProductForm(Displayed):
     """f = constant * q^shift * prod_{n=1}^{len(exponents)} (1 - q^n)^exponents[n-1]
     + O(q^order); ``period`` (with ``repetitions``) when the exponents repeat.
 

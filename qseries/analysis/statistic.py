@@ -30,6 +30,7 @@ from ..errors import (
 from ..lang import Node, parse
 from ..lang.ast import extra_variables
 from ..series import LaurentPoly, ring_for
+from .display import Displayed
 
 #: largest size n for which distributions are computed
 MAX_SIZE = 100_000
@@ -38,7 +39,7 @@ MAX_MOMENT = 1000
 
 
 @dataclass(frozen=True)
-class Distribution:
+class Distribution(Displayed):
     """The statistic's distribution over the objects of size n: ``counts[j]`` objects have
     statistic j (the coefficient of z^j q^n)."""
 
