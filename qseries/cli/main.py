@@ -220,6 +220,15 @@ def _guarded(fn: Any, *args: Any) -> Any:
         raise typer.Exit(130) from None
 
 
+def _draw(kind: str, what: Any, path: Path, *args: Any) -> None:
+    """Draw ``what`` with :mod:`qseries.report.plots` (matplotlib is imported only then)
+    into ``path``; a missing matplotlib or an unwritable file is exit 2."""
+    from ..report import plots
+
+    _guarded(getattr(plots, kind), what, path, *args)
+    typer.echo(f"qseries: wrote {path}", err=True)
+
+
 @app.command()
 def expand(
     expr: Annotated[str, typer.Argument(help="The expression, e.g. \"1/(q;q)_inf\".")],
@@ -229,6 +238,10 @@ def expand(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="Also draw log|a_n| against sqrt(n) into FILE (.png or .svg; needs matplotlib)."
+    )] = None,
     dissect: Annotated[int | None, typer.Option(
         "--dissect", min=1, max=MAX_LENGTH, metavar="M",
         help="Print the whole M-dissection instead: for each residue r the series "
@@ -248,6 +261,8 @@ def expand(
         return
     _refuse_long(allow_long, [node], order, None, weights)
     s: Series = _guarded(evaluate, node, order, None, weights)
+    if plot is not None:
+        _draw("growth_plot", s.truncate(order), plot)
     if as_json:
         typer.echo(json.dumps(expand_json(s, order)))
         return
@@ -319,6 +334,10 @@ def check_cmd(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="At a mismatch, draw the coefficients of left minus right side into FILE (.png "
+             "or .svg; needs matplotlib).")] = None,
 ) -> None:
     """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch, 3 if no
     coefficient could be compared (inconclusive: a side carries its own O(q^k) below the
@@ -335,6 +354,12 @@ def check_cmd(
         lambda say: check(lnode, rnode, order, method=method.value, primes=primes, progress=say,
                           weights=weights),
         show=order >= STATUS_ORDER and not as_json))
+    if plot is not None:
+        if r.holds is False:
+            _draw("difference_plot", r, plot)
+        else:
+            typer.echo(f"qseries: no picture written to {plot}: the sides do not differ",
+                       err=True)
     if as_json:
         typer.echo(json.dumps(check_json(r, diagnose(r))))
     elif latex:
@@ -358,6 +383,10 @@ def product(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="Also draw the exponents e_n against n, coloured by n modulo the period, into "
+             "FILE (.png or .svg; needs matplotlib).")] = None,
 ) -> None:
     """Find c, s and integers e_n with EXPR = c q^s prod_{n>=1} (1-q^n)^(e_n) + O(q^N); print
     the product in the notation (periodic exponents as (q^a;q^m)_inf powers, and as an eta
@@ -383,6 +412,8 @@ def product(
         else:
             typer.echo(no_product_line(str(err)))
         raise typer.Exit(1) from None
+    if plot is not None:
+        _draw("exponents_plot", pf, plot)
     if as_json:
         typer.echo(json.dumps(product_json(pf)))
     elif latex:
@@ -423,6 +454,10 @@ def distribution(
     define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="Also draw the standardised distribution at each --at size (at most 6) with the "
+             "normal density over it into FILE (.png or .svg; needs matplotlib).")] = None,
 ) -> None:
     """The distribution of the statistic marked by VAR among the objects of size n (the
     coefficient of q^n), with its mean, variance and standardised moments next to those of
@@ -439,6 +474,10 @@ def distribution(
                  smaller="smaller sizes (--at, --trend-upto)")
     dists = _guarded(distributions, node, var, sorted(set(sizes + trend)))
     by_n = {d.n: d for d in dists}
+    if plot is not None:
+        if not sizes:
+            _fail("--plot draws the distributions at the --at sizes: give at least one")
+        _draw("distribution_plot", [by_n[n] for n in dict.fromkeys(sizes)], plot, var)
     if sizes and as_json:
         typer.echo(json.dumps(distributions_json(var, [by_n[n] for n in sizes], moments)))
     elif sizes:

@@ -583,3 +583,32 @@ def test_version_names_the_installed_versions():
     assert r.exit_code == 0
     assert r.stdout.startswith(f"qseries {version('qseries')} ")
     assert f"python-flint {flint.__version__}" in r.stdout
+
+
+# -- pictures (--plot; the drawings themselves: tests/report/test_plots.py) ---------------
+@pytest.mark.parametrize("args, name", [
+    (["expand", "1/(q;q)_inf", "-n", "200"], "expand.png"),
+    (["product", RR1[0], "-n", "100"], "product.svg"),
+    (["distribution", "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "--at", "50", "--at", "80"],
+     "distribution.png"),
+    (["check", RR1[0], "1/((q;q^5)_inf (q^4;q^5)_inf (q^30;q^30)_inf)", "-n", "80"],
+     "check.svg"),
+])
+def test_plot_option_writes_a_picture(tmp_path, args, name):
+    path = tmp_path / name
+    r = run(*args, "--plot", str(path))
+    assert r.exit_code == (1 if args[0] == "check" else 0), r.output
+    data = path.read_bytes()
+    assert data.startswith(b"\x89PNG\r\n\x1a\n") if name.endswith(".png") else b"<svg" in data
+    assert 5_000 < len(data) < 2_000_000
+    assert f"wrote {path}" in r.stderr
+
+
+def test_plot_option_refusals(tmp_path):
+    r = run("expand", "1/(1-q)", "--plot", str(tmp_path / "x.jpg"))
+    assert r.exit_code == 2 and "PNG or SVG" in r.stderr
+    r = run("check", *RR1, "-n", "50", "--plot", str(tmp_path / "agree.png"))
+    assert r.exit_code == 0 and "no picture" in r.stderr and not (tmp_path / "agree.png").exists()
+    r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "5", "--plot",
+            str(tmp_path / "d.png"))
+    assert r.exit_code == 2 and "--at" in r.stderr
