@@ -66,6 +66,7 @@ from ..report import (
 from ..report.latex import check_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
 from .demo import DEMO_CASES
+from .progress import run_with_bar
 
 app = typer.Typer(
     name="qseries",
@@ -119,6 +120,8 @@ def _json_mode(value: bool) -> bool:
 
 LatexOption = Annotated[bool, typer.Option(
     "--latex", help="Print the result as LaTeX a paper can include (the parser reads it back).")]
+QuietOption = Annotated[bool, typer.Option(
+    "--quiet", help="No progress bar on a terminal (a pipe or --json never shows one).")]
 JsonOption = Annotated[bool, typer.Option(
     "--json", callback=_json_mode,
     help="Print machine-readable JSON (errors too: {\"error\": {\"message\", \"position\"}} "
@@ -297,22 +300,8 @@ def _print_check(r: CheckResult) -> None:
         typer.echo(line)
 
 
-#: checks from this order on show a status line on a terminal
-STATUS_ORDER = 20_000
-
-
-def _with_status(run: Any, show: bool) -> Any:
-    """Run ``run(say)``; on a terminal (and when ``show``) display what it says as a live
-    status line, on a pipe nothing."""
-    if not (show and sys.stderr.isatty()):
-        return run(lambda _text: None)
-    from rich.console import Console  # only for a live status line on a terminal
-
-    console = Console(stderr=True)
-    if not console.is_terminal:
-        return run(lambda _text: None)
-    with console.status("checking") as status:
-        return run(lambda text: status.update(text))
+#: checks from this order on show a progress bar on a terminal (per side, or per prime)
+STATUS_ORDER = 2_000
 
 
 @app.command(name="check")
@@ -334,6 +323,7 @@ def check_cmd(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
     plot: Annotated[Path | None, typer.Option(
         "--plot", metavar="FILE",
         help="At a mismatch, draw the coefficients of left minus right side into FILE (.png "
@@ -350,10 +340,10 @@ def check_cmd(
     modular = method == Method.modular or (method == Method.auto and order >= AUTO_MODULAR_ORDER)
     _refuse_long(allow_long, [lnode, rnode], order, _probe_field() if modular else None, weights,
                  times=primes if modular else 1)
-    r: CheckResult = _guarded(lambda: _with_status(
+    r: CheckResult = _guarded(lambda: run_with_bar(
         lambda say: check(lnode, rnode, order, method=method.value, primes=primes, progress=say,
                           weights=weights),
-        show=order >= STATUS_ORDER and not as_json))
+        show=order >= STATUS_ORDER and not (as_json or quiet)))
     if plot is not None:
         if r.holds is False:
             _draw("difference_plot", r, plot)
@@ -658,6 +648,7 @@ def verify(
     only: Annotated[list[str] | None, typer.Option(
         "--only", help="Run only entries with this key, member id or tag (repeatable).")] = None,
     as_json: JsonOption = False,
+    quiet: QuietOption = False,
 ) -> None:
     """Verify every identity of the given files; exit 0 when every entry behaves as its file
     says (holds, or fails exactly where it is recorded to fail), 1 otherwise, 2 for
@@ -669,25 +660,22 @@ def verify(
     import time
 
     from rich.console import Console
-    from rich.progress import Progress
 
-    from ..catalogue import VerifyInterrupted, verify_entries
+    from ..catalogue import VerifyInterrupted
+    from .progress import verify_with_bar
 
     entries = _load(paths, only or [])
     t0 = time.perf_counter()
     console = Console()
-    show_bar = console.is_terminal and not as_json
-    interrupted = False
+    interrupted = streamed = False
+    labels = {e.ident: e.label for e in entries}
+    expects = {e.ident: e.expect for e in entries}
     try:
-        if show_bar:
-            with Progress(console=console, transient=True) as bar:
-                task = bar.add_task("verifying", total=len(entries))
-                results = verify_entries(entries, order, jobs,
-                                         progress=lambda _r: bar.advance(task))
-        else:
-            results = verify_entries(entries, order, jobs)
+        results, streamed = verify_with_bar(entries, order, jobs, not (as_json or quiet),
+                                            expects, labels)
     except VerifyInterrupted as stop:     # the workers are stopped; show what finished
         results, interrupted = stop.results, True
+        streamed = not (as_json or quiet) and console.is_terminal
     except KeyboardInterrupt:
         typer.echo("qseries: interrupted", err=True)
         raise typer.Exit(130) from None
@@ -697,9 +685,8 @@ def verify(
         typer.echo(json.dumps(verify_json(results, elapsed,
                                           len(entries) if interrupted else None)))
     else:
-        labels = {e.ident: e.label for e in entries}
-        if results:
-            console.print(verify_table(results, {e.ident: e.expect for e in entries}, labels))
+        if results and not streamed:      # on a terminal each line came as it finished
+            console.print(verify_table(results, expects, labels))
         console.print(verify_summary(results, elapsed, interrupted))
         if len(results) > 1:
             console.print(slowest_line(results, 5, labels), markup=False)
