@@ -175,6 +175,8 @@ def product_html(pf: ProductForm) -> str:
                      f"periods below q^{_e(order)})")
     else:
         notes.append("no period in the exponents below the order; the product is finite")
+    if pf.factors:
+        notes.append(f"in fewer factors: <code>{_e(pf.factors)}</code>")
     if pf.eta:
         notes.append(f"as an eta quotient: <code>{_e(pf.eta)}</code>")
     items = "".join(f"<li>{n}</li>" for n in notes)
