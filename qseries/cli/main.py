@@ -63,6 +63,7 @@ from ..report import (
     verify_summary,
     verify_table,
 )
+from ..report.distribution import counts_csv
 from ..report.latex import check_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
 from .demo import DEMO_CASES
@@ -439,8 +440,9 @@ def distribution(
     fmt: Annotated[ExportFormat, typer.Option(
         "--format", help="Format of the --trend-upto table.")] = ExportFormat.csv,
     out: Annotated[Path | None, typer.Option(
-        "--out", help="Write the --trend-upto table to this file (default: standard output).")
-                   ] = None,
+        "--out", help="Write the --trend-upto table to this file (default: standard output); "
+                      "without --trend-upto, every count of the --at sizes (CSV: n, value, "
+                      "count, share; or JSON with --format json).")] = None,
     define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
@@ -474,6 +476,16 @@ def distribution(
         for n in sizes:
             for line in distribution_lines(by_n[n], var, moments):
                 typer.echo(line)
+    if out is not None and not trend:
+        chosen = [by_n[n] for n in dict.fromkeys(sizes)]
+        text = counts_csv(chosen, var) if fmt == ExportFormat.csv else \
+            json.dumps(distributions_json(var, chosen, moments)) + "\n"
+        try:
+            out.write_text(text)
+        except OSError as err:
+            _fail(f"cannot write {out}: {err.strerror}")
+        typer.echo(f"wrote every count for n = {', '.join(map(str, dict.fromkeys(sizes)))} "
+                   f"to {out}", err=True)
     if trend:
         rows = [by_n[n] for n in trend]
         text = trend_csv(rows) if fmt == ExportFormat.csv else json.dumps(trend_json(rows)) + "\n"

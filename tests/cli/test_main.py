@@ -612,3 +612,15 @@ def test_plot_option_refusals(tmp_path):
     r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "5", "--plot",
             str(tmp_path / "d.png"))
     assert r.exit_code == 2 and "--at" in r.stderr
+
+
+def test_distribution_out_writes_every_count_of_the_sizes(tmp_path):
+    # Durfee squares of the partitions of 10: 10, 30, 2 (p(10) = 42, A000041)
+    out = tmp_path / "counts.csv"
+    r = run("distribution", "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "--at", "10", "--at", "4",
+            "--out", str(out))
+    assert r.exit_code == 0 and "mode z = 2" in r.stdout
+    rows = out.read_text().splitlines()
+    assert rows[0] == "n,z,count,share"
+    assert rows[1:4] == ["10,1,10,0.2380952381", "10,2,30,0.7142857143", "10,3,2,0.04761904762"]
+    assert sum(int(row.split(",")[2]) for row in rows if row.startswith("4,")) == 5   # p(4)
