@@ -8,6 +8,7 @@ coefficient could be compared.
 from __future__ import annotations
 
 import contextvars
+import inspect
 import json
 import sys
 from enum import StrEnum
@@ -16,6 +17,7 @@ from pathlib import Path
 from typing import Annotated, Any
 
 import typer
+from typer.core import TyperGroup
 
 from ..analysis import diagnose, dissection, distributions, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
@@ -69,7 +71,21 @@ from ..series import GF, MAX_LENGTH, Series
 from .demo import DEMO_CASES
 from .progress import run_with_bar
 
+
+class _Commands(TyperGroup):
+    """The command group, listing each command by the first paragraph of its help as one
+    line of text (rich keeps a docstring's line breaks, which fall inside sentences)."""
+
+    def get_command(self, ctx: Any, name: str) -> Any:
+        command = super().get_command(ctx, name)
+        if command is not None and command.help and not command.short_help:
+            first = inspect.cleandoc(command.help).split("\n\n")[0]
+            command.short_help = " ".join(first.split())
+        return command
+
+
 app = typer.Typer(
+    cls=_Commands,
     name="qseries",
     help="Check formal power series and q-series identities to a chosen order.\n\n"
          "Write both sides as papers do: (a;q)_n, (a,b;q)_inf, sum_{k>=0} ..., "

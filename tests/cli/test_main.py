@@ -624,3 +624,11 @@ def test_distribution_out_writes_every_count_of_the_sizes(tmp_path):
     assert rows[0] == "n,z,count,share"
     assert rows[1:4] == ["10,1,10,0.2380952381", "10,2,30,0.7142857143", "10,3,2,0.04761904762"]
     assert sum(int(row.split(",")[2]) for row in rows if row.startswith("4,")) == 5   # p(4)
+
+
+def test_the_command_list_wraps_sentences_only_at_the_width():
+    # issue 16: the list kept the docstrings' line breaks, which fall inside sentences
+    r = runner.invoke(app, ["--help"], env={"COLUMNS": "250"})
+    assert r.exit_code == 0
+    line = next(x for x in r.stdout.splitlines() if "expand " in x)
+    assert "Letters other than q that no sum binds are extra variables" in line
