@@ -465,7 +465,12 @@ def distribution(
     plot: Annotated[Path | None, typer.Option(
         "--plot", metavar="FILE",
         help="Also draw the standardised distribution at each --at size (at most 6) with the "
-             "normal density over it into FILE (.png or .svg; needs matplotlib).")] = None,
+             "normal density over it into FILE (.png or .svg; needs matplotlib); without "
+             "--at, the mean and variance of --trend-upto against n.")] = None,
+    fit: Annotated[str | None, typer.Option(
+        "--fit", metavar="FORM",
+        help="With --plot of the trend: fit c*f(n) to the mean and to the variance, f one of "
+             "sqrt, log, linear, sqrt-log.")] = None,
 ) -> None:
     """The distribution of the statistic marked by VAR among the objects of size n (the
     coefficient of q^n), with its mean, variance and standardised moments next to those of
@@ -482,10 +487,12 @@ def distribution(
                  smaller="smaller sizes (--at, --trend-upto)")
     dists = _guarded(distributions, node, var, sorted(set(sizes + trend)))
     by_n = {d.n: d for d in dists}
-    if plot is not None:
-        if not sizes:
-            _fail("--plot draws the distributions at the --at sizes: give at least one")
+    if fit is not None and (plot is None or sizes):
+        _fail("--fit goes with --plot of the --trend-upto table (and no --at)")
+    if plot is not None and sizes:
         _draw("distribution_plot", [by_n[n] for n in dict.fromkeys(sizes)], plot, var)
+    elif plot is not None:
+        _draw("trend_plot", [by_n[n] for n in trend], plot, fit)
     if sizes and as_json:
         typer.echo(json.dumps(distributions_json(var, [by_n[n] for n in sizes], moments)))
     elif sizes:

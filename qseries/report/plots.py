@@ -224,3 +224,61 @@ def exponents_plot(pf: ProductForm, path: str | Path | None = None) -> Any:
                                                             ", no period"))
     ax.legend(loc="best", fontsize="small", ncol=2 if len(classes) > 6 else 1)
     return _save(fig, target)
+
+
+#: the asymptotic forms ``trend_plot`` fits: name -> (label, function of n)
+FITS: dict[str, tuple[str, Any]] = {
+    "sqrt": ("c sqrt(n)", math.sqrt),
+    "log": ("c log(n)", math.log),
+    "linear": ("c n", float),
+    "sqrt-log": ("c sqrt(n) log(n)", lambda n: math.sqrt(n) * math.log(n)),
+}
+
+
+def fitted_constant(xs: Sequence[float], ys: Sequence[float]) -> float:
+    """The c of least squares for y ~ c x (through the origin).
+
+    >>> fitted_constant([1.0, 2.0], [2.0, 4.0])
+    2.0
+    """
+    den = sum(x * x for x in xs)
+    if den == 0:
+        raise ArgumentError("nothing to fit: every value of the form is 0")
+    return sum(x * y for x, y in zip(xs, ys, strict=True)) / den
+
+
+def trend_plot(dists: Sequence[Distribution], path: str | Path | None = None,
+               fit: str | None = None) -> Any:
+    """The mean and the variance of the statistic against n (two panels); with ``fit`` (one
+    of ``FITS``: "sqrt", "log", "linear", "sqrt-log"), the curve c f(n) fitted to each by
+    least squares over the upper half of the sizes, with c in the legend.
+
+    >>> from qseries.analysis import distributions
+    >>> fig = trend_plot(distributions("1/(z*q;q)_inf", "z", list(range(1, 60))), fit="sqrt")
+    >>> [ax.get_ylabel() for ax in fig.axes]
+    ['mean', 'variance']
+    """
+    ds = sorted(dists, key=lambda d: d.n)
+    if len(ds) < 2:
+        raise ArgumentError("the trend needs at least two sizes n")
+    if fit is not None and fit not in FITS:
+        raise ArgumentError(f"fit must be one of {', '.join(FITS)}, not {fit!r}")
+    target = _check_path(path)
+    fig = _figure(2)
+    axes = fig.subplots(1, 2)
+    ns = [d.n for d in ds]
+    for ax, name, values in ((axes[0], "mean", [float(d.mean) for d in ds]),
+                             (axes[1], "variance", [float(d.variance) for d in ds])):
+        ax.plot(ns, values, ".", markersize=3, color="#4c72b0", label=name)
+        if fit is not None:
+            label, f = FITS[fit]
+            upper = [(n, v) for n, v in zip(ns, values, strict=True) if n >= ns[-1] / 2 and n > 0]
+            c = fitted_constant([f(n) for n, _ in upper], [v for _, v in upper])
+            grid = [n for n in ns if n > 0]
+            ax.plot(grid, [c * f(n) for n in grid], color="#c44e52",
+                    label=f"{label}, c = {c:.5g} (fitted for n >= {ns[-1] // 2})")
+        ax.set_xlabel("n")
+        ax.set_ylabel(name)
+        ax.legend(loc="upper left", fontsize="small")
+    fig.suptitle(f"the statistic's mean and variance for n = {ns[0]} .. {ns[-1]}")
+    return _save(fig, target)

@@ -609,9 +609,20 @@ def test_plot_option_refusals(tmp_path):
     assert r.exit_code == 2 and "PNG or SVG" in r.stderr
     r = run("check", *RR1, "-n", "50", "--plot", str(tmp_path / "agree.png"))
     assert r.exit_code == 0 and "no picture" in r.stderr and not (tmp_path / "agree.png").exists()
-    r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "5", "--plot",
+    r = run("distribution", "1/(z*q;q)_inf", "--at", "5", "--fit", "sqrt", "--plot",
             str(tmp_path / "d.png"))
-    assert r.exit_code == 2 and "--at" in r.stderr
+    assert r.exit_code == 2 and "--trend-upto" in r.stderr
+    r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "9", "--fit", "cube", "--plot",
+            str(tmp_path / "d.png"))
+    assert r.exit_code == 2 and "fit must be one of" in r.stderr
+
+
+def test_plot_of_the_trend(tmp_path):
+    path = tmp_path / "trend.png"
+    r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "80", "--fit", "sqrt", "--plot",
+            str(path), "--out", str(tmp_path / "trend.csv"))
+    assert r.exit_code == 0, r.output
+    assert path.read_bytes().startswith(b"\x89PNG") and path.stat().st_size > 5_000
 
 
 def test_distribution_out_writes_every_count_of_the_sizes(tmp_path):

@@ -120,3 +120,26 @@ def test_missing_matplotlib_is_a_clear_error(monkeypatch):
     [d] = distributions("1/(z*q;q)_inf", "z", [10])
     with pytest.raises(UnableError, match="pip install matplotlib"):
         distribution_plot(d)
+
+
+def test_trend_of_the_number_of_parts(tmp_path):
+    from sympy import divisor_count
+
+    from qseries.report.plots import trend_plot
+
+    ds = distributions("1/(z*q;q)_inf", "z", list(range(1, 201)))
+    fig = trend_plot(ds, tmp_path / "t.svg", fit="sqrt-log")
+    assert_svg(tmp_path / "t.svg")
+    ns, means = fig.axes[0].lines[0].get_data()
+    # the parts of all partitions of n number sum_{k=1}^n d(k) p(n-k) (each part size k
+    # occurring j >= 1 times is counted through the divisors of jk)
+    for n in (1, 17, 200):
+        total = sum(int(divisor_count(k)) * int(partition(n - k)) for k in range(1, n + 1))
+        assert means[n - 1] == pytest.approx(total / int(partition(n)))
+    legend = fig.axes[0].get_legend().get_texts()[1].get_text()
+    c = float(legend.split("c = ")[1].split()[0])
+    # Erdos-Lehner: mean ~ sqrt(6n)/(2 pi) (log n + 2 gamma - log(pi^2/6)), so c is a little
+    # above sqrt(6)/(2 pi) = 0.3898 at these n
+    assert 0.39 < c < 0.47
+    with pytest.raises(ArgumentError, match="fit must be"):
+        trend_plot(ds, fit="cube")
