@@ -447,6 +447,10 @@ class Series:
         """
         if n is None:
             n = self._known_count(_as_exponent(start, "start"))
+            if n > MAX_LENGTH:
+                raise UnableError(f"the series has {n} known coefficients from "
+                                  f"{_power_text(start)} on, beyond the limit {MAX_LENGTH}: "
+                                  f"pass n (and start) for the part you need")
         if isinstance(n, bool) or not isinstance(n, numbers.Integral):
             raise ArgumentTypeError(f"n must be an integer, not {type(n).__name__}")
         n = int(n)

@@ -104,3 +104,13 @@ def test_missing_library_is_a_clear_error(monkeypatch):
     monkeypatch.setitem(sys.modules, "sympy", None)      # import sympy now raises ImportError
     with pytest.raises(UnableError, match="pip install sympy"):
         Series.from_coefficients([1]).to_sympy()
+
+
+def test_a_far_monomial_is_read_but_not_listed_whole():
+    s = Series.from_sympy(q ** (10**100))
+    assert s.valuation == 10**100 and s.to_sympy() == q ** (10**100)
+    with pytest.raises(UnableError, match="beyond the limit"):
+        s.coefficient_list()
+    with pytest.raises(UnableError, match="beyond the limit"):
+        s.to_numpy()
+    assert s.to_numpy(3, start=10**100).tolist() == [1, 0, 0]
