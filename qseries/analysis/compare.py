@@ -580,7 +580,9 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
         say(f"comparing modulo {len(ps)} primes" + (" in parallel" if pool else ""))
         outcomes = [_modular_compare(lnode, rnode, order, ps[0], names, weights)]
         if pool:
-            outcomes += [f.result() for f in futures]
+            for i, future in enumerate(futures, start=2):
+                say(f"comparing modulo prime {i} of {len(ps)} (in a worker process)")
+                outcomes.append(future.result())
         else:
             for i, p in enumerate(ps[1:], start=2):
                 say(f"comparing modulo prime {i} of {len(ps)}")
