@@ -154,6 +154,8 @@ def growth_plot(s: Series, path: str | Path | None = None) -> Any:
 def difference_plot(r: CheckResult, path: str | Path | None = None) -> Any:
     """The coefficients of left minus right side of a failed check against n, over every
     exponent known on both sides (a symmetric logarithmic scale), the first mismatch marked.
+    After a modular check the sides are known exactly only a few terms past the mismatch
+    (they were compared modulo primes), so that is all the picture shows.
 
     >>> from qseries.analysis import check
     >>> fig = difference_plot(check("1/(1-q)", "1/(1-q) + q^5 - 3q^7", order=10))

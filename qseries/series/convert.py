@@ -35,7 +35,8 @@ def _optional(name: str, extra: str) -> Any:
 
 def to_sympy(s: Series, symbol: str = "q") -> Any:
     """The series as a sympy expression in ``symbol`` (and the extra variables by their
-    names), plus ``O(q**N)`` when it is known only to O(q^N); exact rationals throughout.
+    names), plus ``O(q**N)`` when it is known only to O(q^N); exact rationals throughout
+    (over GF(p), the residues 0 .. p-1 as integers).
 
     >>> from qseries.series import Series
     >>> from fractions import Fraction
