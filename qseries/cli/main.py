@@ -240,6 +240,12 @@ def _guarded(fn: Any, *args: Any) -> Any:
         raise typer.Exit(130) from None
 
 
+def _busy(quiet: bool, text: str, order: int, fn: Any, *args: Any) -> Any:
+    """``fn(*args)`` with a moving bar and the time elapsed on a terminal from order
+    ``STATUS_ORDER`` on (unless ``quiet``)."""
+    return run_with_bar(lambda _say: fn(*args), not quiet and order >= STATUS_ORDER, text)
+
+
 def _draw(kind: str, what: Any, path: Path, *args: Any) -> None:
     """Draw ``what`` with :mod:`qseries.report.plots` (matplotlib is imported only then)
     into ``path``; a missing matplotlib or an unwritable file is exit 2."""
@@ -258,6 +264,7 @@ def expand(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
     plot: Annotated[Path | None, typer.Option(
         "--plot", metavar="FILE",
         help="Also draw log|a_n| against sqrt(n) into FILE (.png or .svg; needs matplotlib)."
@@ -280,7 +287,8 @@ def expand(
         _expand_dissection(node, dissect, order, weights, as_json, allow_long)
         return
     _refuse_long(allow_long, [node], order, None, weights)
-    s: Series = _guarded(evaluate, node, order, None, weights)
+    s: Series = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,
+                         evaluate, node, order, None, weights)
     if plot is not None:
         _draw("growth_plot", s.truncate(order), plot)
     if as_json:
@@ -390,6 +398,7 @@ def product(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
     plot: Annotated[Path | None, typer.Option(
         "--plot", metavar="FILE",
         help="Also draw the exponents e_n against n, coloured by n modulo the period, into "
@@ -407,7 +416,8 @@ def product(
               f"inverse series it needs holds coefficients of thousands of digits, gigabytes "
               f"at order 10^7); pass --allow-long to try order {order} anyway")
     _refuse_long(allow_long, [node], order, then=product_form)
-    series: Series = _guarded(evaluate, node, order)
+    series: Series = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,
+                              evaluate, node, order)
     if getattr(series.ring, "names", ()):
         _fail("product forms are recovered for series in q alone; this expression has the "
               f"extra variables {', '.join(series.ring.names)}")  # type: ignore[attr-defined]
@@ -462,6 +472,7 @@ def distribution(
     define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
     plot: Annotated[Path | None, typer.Option(
         "--plot", metavar="FILE",
         help="Also draw the standardised distribution at each --at size (at most 6) with the "
@@ -485,7 +496,9 @@ def distribution(
     [node] = _parsed([expr], define)
     _refuse_long(allow_long, [node], max(sizes + trend) + 1,
                  smaller="smaller sizes (--at, --trend-upto)")
-    dists = _guarded(distributions, node, var, sorted(set(sizes + trend)))
+    top = max(sizes + trend)
+    dists = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{top + 1}) for n up to {top}",
+                     top, distributions, node, var, sorted(set(sizes + trend)))
     by_n = {d.n: d for d in dists}
     if fit is not None and (plot is None or sizes):
         _fail("--fit goes with --plot of the --trend-upto table (and no --at)")

@@ -48,10 +48,12 @@ def stage_step(text: str) -> tuple[int, int] | None:
     return _SIDES.get(text)
 
 
-def run_with_bar(run: Callable[[Callable[[str], None]], Any], show: bool) -> Any:
+def run_with_bar(run: Callable[[Callable[[str], None]], Any], show: bool,
+                 description: str = "checking") -> Any:
     """``run(say)`` with, on a terminal and when ``show``, a transient bar that follows the
     stages ``say`` reports (the two sides, or the primes of the modular method) and names
-    the current one; elsewhere ``say`` does nothing."""
+    the current one (``description`` until the first); elsewhere ``say`` does nothing.
+    A run that reports no stages shows a moving bar with the time elapsed."""
     console = _console() if show else None
     if console is None:
         return run(lambda _text: None)
@@ -59,7 +61,7 @@ def run_with_bar(run: Callable[[Callable[[str], None]], Any], show: bool) -> Any
 
     with Progress(TextColumn("{task.description}"), BarColumn(), TimeElapsedColumn(),
                   console=console, transient=True) as bar:
-        task = bar.add_task("checking", total=None)
+        task = bar.add_task(description, total=None)
 
         def say(text: str) -> None:
             step = stage_step(text)

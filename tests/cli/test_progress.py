@@ -152,3 +152,19 @@ def test_primes_in_worker_processes_are_steps_too():
               method="modular", primes=3, progress=said.append)
     assert r.holds
     assert [stage_step(t) for t in said] == [(0, 3), (1, 3), (2, 3)]
+
+
+@pytest.mark.parametrize("args", [
+    ["expand", "1/(q;q)_inf", "-n", "3000"],
+    ["product", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "2000"],
+    ["distribution", "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "--trend-upto", "2000", "--out",
+     "{tmp}/t.csv"],
+])
+def test_long_evaluations_show_a_moving_bar(tmp_path, args):
+    args = [a.replace("{tmp}", str(tmp_path)) for a in args]
+    code, out = run(args)
+    assert code == 0 and "evaluating to O(q^" in out
+    code, out = run(args + ["--quiet"])
+    assert code == 0 and "evaluating to" not in out
+    code, out = run(args, terminal=False)
+    assert code == 0 and "evaluating to" not in out
