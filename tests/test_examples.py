@@ -59,7 +59,7 @@ def _outputs(nb: nbformat.NotebookNode) -> list[dict]:
 
 def test_the_misremembered_identity_notebook_runs_and_shows_html():
     outs = _outputs(_run(EXAMPLES / "misremembered_identity.ipynb"))
-    series, failed, product, repaired, distribution, lists, expression = outs
+    series, failed, product, repaired, distribution, picture, lists, expression = outs
     # G(q) = sum q^(k^2+k)/(q;q)_k: 1 + q^2 + q^3 + q^4 + q^5 + 2q^6 (partitions into parts
     # = 2, 3 mod 5, by Rogers-Ramanujan; A003106)
     assert "1 + <i>q</i><sup>2</sup> + <i>q</i><sup>3</sup>" in series["text/html"]
@@ -70,6 +70,9 @@ def test_the_misremembered_identity_notebook_runs_and_shows_html():
     assert "(q^2, q^3;q^5)_inf^-1" in product["text/html"]
     assert "AGREES" in repaired["text/html"]
     assert "<table>" in distribution["text/html"]
+    import base64
+    png = base64.b64decode(picture["image/png"])
+    assert png.startswith(b"\x89PNG\r\n\x1a\n") and len(png) > 5_000
     assert lists["text/plain"].startswith("([1, 0, 1, 1, 1, 1, 2, 2, 3, 3, 4, 4],")
     # Euler's pentagonal number theorem to q^15 (Andrews, The Theory of Partitions, Cor. 1.7)
     assert expression["text/plain"] == "1 - q - q**2 + q**5 + q**7 - q**12 - q**15 + O(q**16)"
