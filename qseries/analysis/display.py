@@ -2,7 +2,8 @@
 
 The result classes of :mod:`qseries.analysis` (``CheckResult``, ``ProductForm``,
 ``Distribution``) derive from :class:`Displayed`, whose ``_repr_html_`` and ``_repr_latex_``
-(the methods Jupyter calls) look the renderer up in a table.  The renderers live in the
+(the methods Jupyter calls) and ``_repr_pretty_`` (IPython's plain text) look the renderer
+up in a table.  The renderers live in the
 report layer, below this one (:mod:`qseries.report.notebook`), which fills the table when it
 is imported; ``import qseries`` imports it.  With no renderer registered, the methods return
 None and Jupyter shows the plain text.
@@ -21,8 +22,8 @@ from __future__ import annotations
 from collections.abc import Callable
 from typing import Any
 
-#: the kinds of rendering a notebook asks for
-KINDS = ("html", "latex")
+#: the kinds of rendering a notebook asks for ("text": IPython's plain text)
+KINDS = ("html", "latex", "text")
 
 _RENDERERS: dict[tuple[type, str], Callable[[Any], str]] = {}
 
@@ -34,7 +35,7 @@ def register_display(cls: type, kind: str, render: Callable[[Any], str]) -> None
     >>> register_display(int, "svg", str)
     Traceback (most recent call last):
     ...
-    ValueError: kind must be one of ('html', 'latex'), not 'svg'
+    ValueError: kind must be one of ('html', 'latex', 'text'), not 'svg'
     """
     if kind not in KINDS:
         raise ValueError(f"kind must be one of {KINDS}, not {kind!r}")
@@ -65,3 +66,8 @@ class Displayed:
 
     def _repr_latex_(self) -> str | None:
         return rendered(self, "latex")
+
+    def _repr_pretty_(self, p: Any, cycle: bool) -> None:
+        """IPython's plain text: the registered "text" rendering, else the ``repr``."""
+        text = rendered(self, "text")
+        p.text(repr(self) if text is None else text)

@@ -14,7 +14,7 @@ distribution: 0, 1, 0, 3, 0, 15, 0, 105, ...  (see the contributor guide's metho
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from fractions import Fraction
 
 from ..engine import Evaluator
@@ -45,6 +45,8 @@ class Distribution(Displayed):
 
     n: int
     counts: dict[int, int]
+    #: the extra variable that marks the statistic (for display; not compared)
+    var: str = field(default="", compare=False)
 
     @property
     def total(self) -> int:
@@ -173,5 +175,5 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
         if not counts:
             raise DomainError(f"there are no objects of size {n} (the coefficient of q^{n} "
                               f"is 0)")
-        out.append(Distribution(n, dict(sorted(counts.items()))))
+        out.append(Distribution(n, dict(sorted(counts.items())), var))
     return out

@@ -27,8 +27,10 @@ from ..errors import QSeriesError
 from ..lang import parse
 from ..lang.printer import show_latex
 from ..series.formatting import coefficient_text, number_text
-from .distribution import decimal_text
+from .distribution import decimal_text, distribution_lines
 from .latex import _reciprocals
+from .product import product_lines
+from .verdict import check_lines
 
 #: a distribution with more values than this shows the first and last half of it
 SHOWN_ROWS = 100
@@ -209,11 +211,12 @@ def _rows(d: Distribution) -> list[tuple[int, int] | None]:
     return items[:half] + [None] + items[-half:]
 
 
-def distribution_html(d: Distribution, var: str = "z", moments: int = 6) -> str:
+def distribution_html(d: Distribution, var: str | None = None, moments: int = 6) -> str:
     """A distribution as HTML: the number of objects, a table of every value of the
-    statistic with its count, share and a bar (the first and last 50 values when there are
-    more than 100), the mode, the mean and variance (exact and decimal), and the
-    standardised moments beside the normal distribution's.
+    statistic (named ``var``, by default the variable that marked it) with its count, share
+    and a bar (the first and last 50 values when there are more than 100), the mode, the
+    mean and variance (exact and decimal), and the standardised moments beside the normal
+    distribution's.
 
     >>> from qseries.analysis import distributions
     >>> [d] = distributions("sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "z", [10])
@@ -221,6 +224,7 @@ def distribution_html(d: Distribution, var: str = "z", moments: int = 6) -> str:
     >>> text.count("<tr>"), "mode 2" in text, "38/21" in text
     (4, True, True)
     """
+    var = var or d.var or "X"
     top = max(d.counts.values())
     mode = [j for j, c in d.counts.items() if c == top]
     body = []
@@ -265,3 +269,8 @@ register_display(ProductForm, "html", product_html)
 register_display(ProductForm, "latex", product_latex_display)
 register_display(Distribution, "html", distribution_html)
 register_display(Distribution, "latex", distribution_latex_display)
+# IPython's plain text is what the command line prints
+register_display(CheckResult, "text", lambda r: "\n".join(check_lines(r, _hints(r))))
+register_display(ProductForm, "text", lambda pf: "\n".join(product_lines(pf)))
+register_display(Distribution, "text",
+                 lambda d: "\n".join(distribution_lines(d, d.var or "X", 6)))

@@ -73,7 +73,7 @@ def _log_abs(c: int | Fraction) -> float:
 
 
 def distribution_plot(dists: Distribution | Sequence[Distribution], path: str | Path | None = None,
-                      var: str = "z") -> Any:
+                      var: str | None = None) -> Any:
     """The standardised distribution of the statistic at each size n (one panel per size,
     at most 6): a bar at (j - mean)/sd of height sd * share, so that the bars have area 1
     like the standard normal density drawn over them; the legend gives the mean, the
@@ -111,7 +111,7 @@ def distribution_plot(dists: Distribution | Sequence[Distribution], path: str | 
         grid = [lo + (hi - lo) * i / 400 for i in range(401)]
         ax.plot(grid, [math.exp(-x * x / 2) / math.sqrt(2 * math.pi) for x in grid],
                 color="#c44e52", label="standard normal density")
-        ax.set_xlabel(f"({var} - mean) / sd")
+        ax.set_xlabel(f"({var or d.var or 'X'} - mean) / sd")
         ax.set_ylabel("sd x share")
         ax.set_title(f"n = {d.n} ({d.total:,} objects)" if d.total < 10**15 else
                      f"n = {d.n} (about 10^{len(str(d.total)) - 1} objects)")

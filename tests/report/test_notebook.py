@@ -108,3 +108,27 @@ def test_a_wide_distribution_is_cut_in_the_middle():
     rows = _cells(distribution_html(d))
     assert len(rows) == 1 + 100 + 1 and rows[51] == ["..."]
     assert rows[1][0] == "1" and rows[-1][0] == "300"
+
+
+def test_ipython_plain_text_is_what_the_command_line_prints():
+    from qseries.report import check_lines, distribution_lines, product_lines
+
+    class Printer:
+        def __init__(self):
+            self.out = ""
+
+        def text(self, t):
+            self.out += t
+
+    def pretty(obj):
+        p = Printer()
+        obj._repr_pretty_(p, False)
+        return p.out
+
+    r = check("1/(1-q)", "1 + q", order=6)
+    assert pretty(r).splitlines()[:-1] == check_lines(r)[:-1]        # the time may differ
+    pf = product_form("(q;q)_inf^3", 30)
+    assert pretty(pf) == "\n".join(product_lines(pf))
+    [d] = distributions("sum_{k>=0} w^k q^(k^2)/(q;q)_k^2", "w", [10])
+    assert pretty(d) == "\n".join(distribution_lines(d, "w", 6))
+    assert "<th>w</th>" in d._repr_html_()
