@@ -44,6 +44,7 @@ from .errors import (
                        UnableError,
 )
 from .lang import parse, show
+from .report import notebook as _notebook  # noqa: F401  (registers the notebook displays)
 from .series import Series
 
 __version__ = "0.1.0"

@@ -64,6 +64,7 @@ from ..series import (
     ring_for,
 )
 from ..series.formatting import coefficient_text
+from .display import Displayed
 
 Exponent = int | Fraction
 Number = int | Fraction
@@ -83,7 +84,7 @@ class Mismatch:
 
 
 @dataclass(frozen=True)
-class CheckResult:
+class CheckResult(Displayed):
     """Outcome of comparing two sides modulo q^order.
 
     ``holds`` is True when every coefficient of q^e with e < ``order_verified`` agrees, False
@@ -626,7 +627,9 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
         say(f"comparing modulo {len(ps)} primes" + (" in parallel" if pool else ""))
         outcomes = [_modular_compare(lnode, rnode, order, ps[0], names, weights)]
         if pool:
-            outcomes += [f.result() for f in futures]
+            for i, future in enumerate(futures, start=2):
+                say(f"comparing modulo prime {i} of {len(ps)} (in a worker process)")
+                outcomes.append(future.result())
         else:
             for i, p in enumerate(ps[1:], start=2):
                 say(f"comparing modulo prime {i} of {len(ps)}")

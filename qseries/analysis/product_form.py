@@ -23,7 +23,9 @@ from ..engine import evaluate
 from ..errors import DomainError
 from ..lang import Node
 from ..series import QQ, ZZ, Ring, Series
-from ..series.formatting import format_exponent, short_number_text
+from ..series.formatting import format_exponent, format_term, short_number_text
+from .display import Displayed
+from .product_factors import simplest_factors, symbol_count
 
 Number = int | Fraction
 Exponent = int | Fraction
@@ -33,7 +35,7 @@ MIN_REPETITIONS = 3
 
 
 @dataclass(frozen=True)
-class ProductForm:
+class ProductForm(Displayed):
     """f = constant * q^shift * prod_{n=1}^{len(exponents)} (1 - q^n)^exponents[n-1]
     + O(q^order); ``period`` (with ``repetitions``) when the exponents repeat.
 
@@ -53,6 +55,15 @@ class ProductForm:
     eta: str | None
     #: why there is no recognisable product (``expression`` is then None)
     reason: str = ""
+    #: the same product in fewer q-Pochhammer symbols than ``expression`` (factors such as
+    #: (q;q^2)_inf, (-q^a;q^m)_inf, (q^a;q^a)_inf found by :mod:`.product_factors`), or None
+    factors: str | None = None
+    #: when the exponents repeat with a period up to some n and then stop doing so (no
+    #: product form then): (period, first n that breaks it)
+    breaks: tuple[int, int] | None = None
+    #: with ``breaks``: (exponent, coefficient) of the first term by which the series
+    #: differs from the periodic product, c q^e (a stray term?)
+    stray: tuple[Exponent, Number] | None = None
 
     def nonzero(self) -> list[tuple[int, int]]:
         """(n, e_n) for the nonzero exponents."""
@@ -130,6 +141,25 @@ def find_period(ex: list[int], min_repetitions: int = MIN_REPETITIONS) -> int | 
         fail[i] = k
     m = n - fail[-1]
     return m if m <= n // min_repetitions else None
+
+
+def periodic_break(ex: list[int], min_repetitions: int = MIN_REPETITIONS
+                   ) -> tuple[int, int] | None:
+    """(m, n) when e_1 .. e_(n-1) repeat with period m at least ``min_repetitions`` times
+    and e_n breaks it (e_n != e_(n-m)): the m whose break comes last (the smallest such m);
+    None when no period holds that long.
+
+    >>> periodic_break([1, 0, 1, 0, 1, 0, 1, 0, 5, 0, 1])
+    (2, 9)
+    """
+    best: tuple[int, int] | None = None
+    for m in range(1, len(ex) // min_repetitions + 1):
+        i = next((i for i in range(m, len(ex)) if ex[i] != ex[i - m]), None)
+        if i is None or i < min_repetitions * m:
+            continue
+        if best is None or i + 1 > best[1]:
+            best = (m, i + 1)
+    return best
 
 
 def _power(e: int) -> str:
@@ -218,8 +248,12 @@ def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
     reps = len(ints) // period if period else 0
     prefix = _constant_text(c) + ("" if v == 0 else f"{_q(v)} ")
     eta_text = None
+    short = None
     if period:
         body = periodic_expression(period, ints[:period])
+        fewer = simplest_factors(period, ints[:period])
+        if fewer is not None and symbol_count(fewer) < symbol_count(body):
+            short = (prefix + fewer).strip()
         eq = eta_quotient(period, ints[:period])
         if eq is not None:
             r, w = eq
@@ -232,13 +266,34 @@ def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
             # exponents still non-zero in the upper half: neither periodic nor a finite
             # product that the computed terms can show
             big = max(nonzero, key=lambda t: abs(t[1]))
-            return ProductForm(known if known is not None else order, c, v, ints, None, 0,
-                               None, None, f"the exponents show no period and do not end "
-                                           f"below the order (e_{big[0]} = "
-                                           f"{short_number_text(big[1])})")
+            at = known if known is not None else order
+            brk = periodic_break(ints)
+            if brk is None:
+                longest = len(ints) // MIN_REPETITIONS
+                return ProductForm(at, c, v, ints, None, 0, None, None,
+                                   f"the exponents show no period up to {longest} and do not "
+                                   f"end below the order (e_{big[0]} = "
+                                   f"{short_number_text(big[1])}): the order is too low "
+                                   f"to see a longer period, if there is one (a "
+                                   f"period m shows from order {MIN_REPETITIONS}m + 1 on; "
+                                   f"try twice the order)")
+            m, n = brk
+            d = ints[n - 1] - ints[n - 1 - m]
+            stray_e = Fraction(v) + n
+            stray_c = -d * c
+            stray = (stray_e.numerator if stray_e.denominator == 1 else stray_e, stray_c)
+            periodic = (prefix + periodic_expression(m, ints[:m])).strip()
+            return ProductForm(at, c, v, ints, None, 0, None, None,
+                               f"the exponents repeat with period {m} up to n = {n - 1} and "
+                               f"then break: e_{n} = {short_number_text(ints[n - 1])}, where the "
+                               f"period gives {short_number_text(ints[n - 1 - m])}; the series "
+                               f"is {periodic} "
+                               f"{format_term(stray_e, stray_c, False)} + "
+                               f"O({_q(stray_e + 1)}), as if a stray term had been added",
+                               breaks=brk, stray=stray)
         body = " ".join(f"(1 - {_q(n)}){_power(e)}" for n, e in nonzero) or "1"
     expression = (prefix + body).strip() if body != "1" or not prefix else prefix.strip()
     if expression in ("", "-"):
         expression += "1"
     return ProductForm(known if known is not None else order, c, v, ints, period, reps,
-                       expression, eta_text)
+                       expression, eta_text, factors=short)

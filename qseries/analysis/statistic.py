@@ -14,7 +14,7 @@ distribution: 0, 1, 0, 3, 0, 15, 0, 105, ...  (see the contributor guide's metho
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from fractions import Fraction
 
 from ..engine import Evaluator
@@ -30,6 +30,7 @@ from ..errors import (
 from ..lang import Node, parse
 from ..lang.ast import extra_variables
 from ..series import LaurentPoly, ring_for
+from .display import Displayed
 
 #: largest size n for which distributions are computed
 MAX_SIZE = 100_000
@@ -38,12 +39,14 @@ MAX_MOMENT = 1000
 
 
 @dataclass(frozen=True)
-class Distribution:
+class Distribution(Displayed):
     """The statistic's distribution over the objects of size n: ``counts[j]`` objects have
     statistic j (the coefficient of z^j q^n)."""
 
     n: int
     counts: dict[int, int]
+    #: the extra variable that marks the statistic (for display; not compared)
+    var: str = field(default="", compare=False)
 
     @property
     def total(self) -> int:
@@ -172,5 +175,5 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
         if not counts:
             raise DomainError(f"there are no objects of size {n} (the coefficient of q^{n} "
                               f"is 0)")
-        out.append(Distribution(n, dict(sorted(counts.items()))))
+        out.append(Distribution(n, dict(sorted(counts.items())), var))
     return out

@@ -8,6 +8,7 @@ coefficient could be compared.
 from __future__ import annotations
 
 import contextvars
+import inspect
 import json
 import sys
 import time
@@ -17,6 +18,7 @@ from pathlib import Path
 from typing import Annotated, Any
 
 import typer
+from typer.core import TyperGroup
 
 from ..analysis import diagnose, dissection, distributions, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
@@ -66,11 +68,27 @@ from ..report import (
     verify_summary,
     verify_table,
 )
+from ..report.distribution import counts_csv
 from ..report.latex import check_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
 from .demo import DEMO_CASES
+from .progress import run_with_bar
+
+
+class _Commands(TyperGroup):
+    """The command group, listing each command by the first paragraph of its help as one
+    line of text (rich keeps a docstring's line breaks, which fall inside sentences)."""
+
+    def get_command(self, ctx: Any, name: str) -> Any:
+        command = super().get_command(ctx, name)
+        if command is not None and command.help and not command.short_help:
+            first = inspect.cleandoc(command.help).split("\n\n")[0]
+            command.short_help = " ".join(first.split())
+        return command
+
 
 app = typer.Typer(
+    cls=_Commands,
     name="qseries",
     help="Check formal power series and q-series identities to a chosen order.\n\n"
          "Write both sides as papers do: (a;q)_n, (a,b;q)_inf, sum_{k>=0} ..., "
@@ -122,6 +140,8 @@ def _json_mode(value: bool) -> bool:
 
 LatexOption = Annotated[bool, typer.Option(
     "--latex", help="Print the result as LaTeX a paper can include (the parser reads it back).")]
+QuietOption = Annotated[bool, typer.Option(
+    "--quiet", help="No progress bar on a terminal (a pipe or --json never shows one).")]
 JsonOption = Annotated[bool, typer.Option(
     "--json", callback=_json_mode,
     help="Print machine-readable JSON (errors too: {\"error\": {\"message\", \"position\"}} "
@@ -223,6 +243,21 @@ def _guarded(fn: Any, *args: Any) -> Any:
         raise typer.Exit(130) from None
 
 
+def _busy(quiet: bool, text: str, order: int, fn: Any, *args: Any) -> Any:
+    """``fn(*args)`` with a moving bar and the time elapsed on a terminal from order
+    ``STATUS_ORDER`` on (unless ``quiet``)."""
+    return run_with_bar(lambda _say: fn(*args), not quiet and order >= STATUS_ORDER, text)
+
+
+def _draw(kind: str, what: Any, path: Path, *args: Any) -> None:
+    """Draw ``what`` with :mod:`qseries.report.plots` (matplotlib is imported only then)
+    into ``path``; a missing matplotlib or an unwritable file is exit 2."""
+    from ..report import plots
+
+    _guarded(getattr(plots, kind), what, path, *args)
+    typer.echo(f"qseries: wrote {path}", err=True)
+
+
 @app.command()
 def expand(
     expr: Annotated[str, typer.Argument(help="The expression, e.g. \"1/(q;q)_inf\".")],
@@ -232,6 +267,11 @@ def expand(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="Also draw log|a_n| against sqrt(n) into FILE (.png or .svg; needs matplotlib)."
+    )] = None,
     dissect: Annotated[int | None, typer.Option(
         "--dissect", min=1, max=MAX_LENGTH, metavar="M",
         help="Print the whole M-dissection instead: for each residue r the series "
@@ -250,7 +290,10 @@ def expand(
         _expand_dissection(node, dissect, order, weights, as_json, allow_long)
         return
     _refuse_long(allow_long, [node], order, None, weights)
-    s: Series = _guarded(evaluate, node, order, None, weights)
+    s: Series = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,
+                         evaluate, node, order, None, weights)
+    if plot is not None:
+        _draw("growth_plot", s.truncate(order), plot)
     if as_json:
         typer.echo(json.dumps(expand_json(s, order)))
         return
@@ -285,22 +328,8 @@ def _print_check(r: CheckResult) -> None:
         typer.echo(line)
 
 
-#: checks from this order on show a status line on a terminal
-STATUS_ORDER = 20_000
-
-
-def _with_status(run: Any, show: bool) -> Any:
-    """Run ``run(say)``; on a terminal (and when ``show``) display what it says as a live
-    status line, on a pipe nothing."""
-    if not (show and sys.stderr.isatty()):
-        return run(lambda _text: None)
-    from rich.console import Console  # only for a live status line on a terminal
-
-    console = Console(stderr=True)
-    if not console.is_terminal:
-        return run(lambda _text: None)
-    with console.status("checking") as status:
-        return run(lambda text: status.update(text))
+#: checks from this order on show a progress bar on a terminal (per side, or per prime)
+STATUS_ORDER = 2_000
 
 
 @app.command(name="check")
@@ -322,6 +351,11 @@ def check_cmd(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="At a mismatch, draw the coefficients of left minus right side into FILE (.png "
+             "or .svg; needs matplotlib).")] = None,
 ) -> None:
     """Compare LHS and RHS modulo q^N; exit 0 if they agree, 1 at a mismatch, 3 if no
     coefficient could be compared (inconclusive: a side carries its own O(q^k) below the
@@ -335,10 +369,16 @@ def check_cmd(
     modular = method == Method.modular or (method == Method.auto and order >= AUTO_MODULAR_ORDER)
     _refuse_long(allow_long, [lnode, rnode], order, _probe_field() if modular else None, weights,
                  times=primes if modular else 1)
-    r: CheckResult = _guarded(lambda: _with_status(
+    r: CheckResult = _guarded(lambda: run_with_bar(
         lambda say: check(lnode, rnode, order, method=method.value, primes=primes, progress=say,
                           weights=weights),
-        show=order >= STATUS_ORDER and not as_json))
+        show=order >= STATUS_ORDER and not (as_json or quiet)))
+    if plot is not None:
+        if r.holds is False:
+            _draw("difference_plot", r, plot)
+        else:
+            typer.echo(f"qseries: no picture written to {plot}: the sides do not differ",
+                       err=True)
     if as_json:
         hints = diagnose(r)
         typer.echo(json.dumps(check_json(r, hints, seconds=time.perf_counter() - started)))
@@ -364,6 +404,11 @@ def product(
     as_json: JsonOption = False,
     latex: LatexOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="Also draw the exponents e_n against n, coloured by n modulo the period, into "
+             "FILE (.png or .svg; needs matplotlib).")] = None,
 ) -> None:
     """Find c, s and integers e_n with EXPR = c q^s prod_{n>=1} (1-q^n)^(e_n) + O(q^N); print
     the product in the notation (periodic exponents as (q^a;q^m)_inf powers, and as an eta
@@ -377,7 +422,8 @@ def product(
               f"inverse series it needs holds coefficients of thousands of digits, gigabytes "
               f"at order 10^7); pass --allow-long to try order {order} anyway")
     _refuse_long(allow_long, [node], order, then=product_form)
-    series: Series = _guarded(evaluate, node, order)
+    series: Series = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,
+                              evaluate, node, order)
     if getattr(series.ring, "names", ()):
         _fail("product forms are recovered for series in q alone; this expression has the "
               f"extra variables {', '.join(series.ring.names)}")  # type: ignore[attr-defined]
@@ -389,6 +435,8 @@ def product(
         else:
             typer.echo(no_product_line(str(err)))
         raise typer.Exit(1) from None
+    if plot is not None:
+        _draw("exponents_plot", pf, plot)
     if as_json:
         typer.echo(json.dumps(product_json(pf)))
     elif latex:
@@ -424,11 +472,22 @@ def distribution(
     fmt: Annotated[ExportFormat, typer.Option(
         "--format", help="Format of the --trend-upto table.")] = ExportFormat.csv,
     out: Annotated[Path | None, typer.Option(
-        "--out", help="Write the --trend-upto table to this file (default: standard output).")
-                   ] = None,
+        "--out", help="Write the --trend-upto table to this file (default: standard output); "
+                      "without --trend-upto, every count of the --at sizes (CSV: n, value, "
+                      "count, share; or JSON with --format json).")] = None,
     define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,
+    quiet: QuietOption = False,
+    plot: Annotated[Path | None, typer.Option(
+        "--plot", metavar="FILE",
+        help="Also draw the standardised distribution at each --at size (at most 6) with the "
+             "normal density over it into FILE (.png or .svg; needs matplotlib); without "
+             "--at, the mean and variance of --trend-upto against n.")] = None,
+    fit: Annotated[str | None, typer.Option(
+        "--fit", metavar="FORM",
+        help="With --plot of the trend: fit c*f(n) to the mean and to the variance, f one of "
+             "sqrt, log, linear, sqrt-log.")] = None,
 ) -> None:
     """The distribution of the statistic marked by VAR among the objects of size n (the
     coefficient of q^n), with its mean, variance and standardised moments next to those of
@@ -443,14 +502,32 @@ def distribution(
     [node] = _parsed([expr], define)
     _refuse_long(allow_long, [node], max(sizes + trend) + 1,
                  smaller="smaller sizes (--at, --trend-upto)")
-    dists = _guarded(distributions, node, var, sorted(set(sizes + trend)))
+    top = max(sizes + trend)
+    dists = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{top + 1}) for n up to {top}",
+                     top, distributions, node, var, sorted(set(sizes + trend)))
     by_n = {d.n: d for d in dists}
+    if fit is not None and (plot is None or sizes):
+        _fail("--fit goes with --plot of the --trend-upto table (and no --at)")
+    if plot is not None and sizes:
+        _draw("distribution_plot", [by_n[n] for n in dict.fromkeys(sizes)], plot, var)
+    elif plot is not None:
+        _draw("trend_plot", [by_n[n] for n in trend], plot, fit)
     if sizes and as_json:
         typer.echo(json.dumps(distributions_json(var, [by_n[n] for n in sizes], moments)))
     elif sizes:
         for n in sizes:
             for line in distribution_lines(by_n[n], var, moments):
                 typer.echo(line)
+    if out is not None and not trend:
+        chosen = [by_n[n] for n in dict.fromkeys(sizes)]
+        text = counts_csv(chosen, var) if fmt == ExportFormat.csv else \
+            json.dumps(distributions_json(var, chosen, moments)) + "\n"
+        try:
+            out.write_text(text)
+        except OSError as err:
+            _fail(f"cannot write {out}: {err.strerror}")
+        typer.echo(f"wrote every count for n = {', '.join(map(str, dict.fromkeys(sizes)))} "
+                   f"to {out}", err=True)
     if trend:
         rows = [by_n[n] for n in trend]
         text = trend_csv(rows) if fmt == ExportFormat.csv else json.dumps(trend_json(rows)) + "\n"
@@ -655,6 +732,7 @@ def verify(
     only: Annotated[list[str] | None, typer.Option(
         "--only", help="Run only entries with this key, member id or tag (repeatable).")] = None,
     as_json: JsonOption = False,
+    quiet: QuietOption = False,
 ) -> None:
     """Verify every identity of the given files; exit 0 when every entry behaves as its file
     says (holds, or fails exactly where it is recorded to fail), 1 otherwise, 2 for
@@ -666,25 +744,22 @@ def verify(
     import time
 
     from rich.console import Console
-    from rich.progress import Progress
 
-    from ..catalogue import VerifyInterrupted, verify_entries
+    from ..catalogue import VerifyInterrupted
+    from .progress import verify_with_bar
 
     entries = _load(paths, only or [])
     t0 = time.perf_counter()
     console = Console()
-    show_bar = console.is_terminal and not as_json
-    interrupted = False
+    interrupted = streamed = False
+    labels = {e.ident: e.label for e in entries}
+    expects = {e.ident: e.expect for e in entries}
     try:
-        if show_bar:
-            with Progress(console=console, transient=True) as bar:
-                task = bar.add_task("verifying", total=len(entries))
-                results = verify_entries(entries, order, jobs,
-                                         progress=lambda _r: bar.advance(task))
-        else:
-            results = verify_entries(entries, order, jobs)
+        results, streamed = verify_with_bar(entries, order, jobs, not (as_json or quiet),
+                                            expects, labels)
     except VerifyInterrupted as stop:     # the workers are stopped; show what finished
         results, interrupted = stop.results, True
+        streamed = not (as_json or quiet) and console.is_terminal
     except KeyboardInterrupt:
         typer.echo("qseries: interrupted", err=True)
         raise typer.Exit(130) from None
@@ -694,9 +769,8 @@ def verify(
         typer.echo(json.dumps(verify_json(results, elapsed,
                                           len(entries) if interrupted else None)))
     else:
-        labels = {e.ident: e.label for e in entries}
-        if results:
-            console.print(verify_table(results, {e.ident: e.expect for e in entries}, labels))
+        if results and not streamed:      # on a terminal each line came as it finished
+            console.print(verify_table(results, expects, labels))
         console.print(verify_summary(results, elapsed, interrupted))
         if len(results) > 1:
             console.print(slowest_line(results, 5, labels), markup=False)

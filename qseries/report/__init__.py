@@ -3,7 +3,8 @@
 the JSON shapes shared by the command line and the catalogue (:mod:`.json_shapes`),
 expansions and dissections (:mod:`.expansion`), congruences (:mod:`.congruences`),
 relations (:mod:`.relations`), product forms (:mod:`.product`), distributions
-(:mod:`.distribution`) and the tables of ``verify`` and ``list`` (:mod:`.tables`).
+(:mod:`.distribution`), the tables of ``verify`` and ``list`` (:mod:`.tables`), and the HTML
+and LaTeX that notebooks show for results (:mod:`.notebook`, registered on import).
 
 Each function returns text, lines or plain data; printing is the caller's business.
 
@@ -39,6 +40,7 @@ from .json_shapes import (
     verify_json,
 )
 from .neighbours import neighbour_table
+from .notebook import check_html, distribution_html, product_html
 from .product import no_product_line, product_lines
 from .relations import combination_lines, relation_lines
 from .tables import (
@@ -52,15 +54,15 @@ from .tables import (
 )
 from .verdict import check_lines, entry_verdict_text, mismatch_report, mismatch_text
 
-__all__ = ["check_json", "check_lines", "combination_json", "combination_lines",
+__all__ = ["check_html", "check_json", "check_lines", "combination_json", "combination_lines",
            "congruence_lines", "congruences_json",
-           "decimal_text", "dissection_json", "dissection_lines", "distribution_json",
-           "distribution_lines", "distributions_json", "entry_json", "entry_verdict_text",
-           "expand_json", "expansion_note", "expansion_text", "exponent_json", "finite_json",
-           "hint_json", "hint_line", "listing_json", "listing_rows", "listing_summary",
-           "listing_table", "mismatch_json", "mismatch_report", "mismatch_text",
-           "neighbour_table", "no_product_json", "no_product_line", "product_json",
-           "divisibility_json", "divisibility_lines", "progression_text", "relation_lines",
-           "relations_json",
-           "product_lines", "row_label", "slowest_line", "sources_lines", "trend_csv",
-           "trend_json", "verify_json", "verify_summary", "verify_table"]
+           "decimal_text", "dissection_json", "dissection_lines", "distribution_html",
+           "distribution_json", "distribution_lines", "distributions_json", "divisibility_json",
+           "divisibility_lines", "entry_json", "entry_verdict_text", "expand_json",
+           "expansion_note", "expansion_text", "exponent_json", "finite_json", "hint_json",
+           "hint_line", "listing_json", "listing_rows", "listing_summary", "listing_table",
+           "mismatch_json", "mismatch_report", "mismatch_text", "neighbour_table",
+           "no_product_json", "no_product_line", "product_html", "product_json", "product_lines",
+           "progression_text", "relation_lines", "relations_json", "row_label", "slowest_line",
+           "sources_lines", "trend_csv", "trend_json", "verify_json", "verify_summary",
+           "verify_table"]

@@ -260,8 +260,9 @@ def combination_json(c: Combination) -> dict[str, Any]:
 
 def product_json(pf: ProductForm) -> dict[str, Any]:
     """The result of ``qseries product --json``: constant, shift, the exponents e_n, the
-    period, the product and eta quotient as text (null when there is none, with a
-    ``reason``).
+    period, the product, the same in fewer factors and the eta quotient as text (null when
+    there is none, with a ``reason``, and ``breaks`` when a period held up to some n: the
+    period, that n, and the first differing term [exponent, coefficient]).
 
     >>> from qseries.analysis import product_form
     >>> out = product_json(product_form("(q;q)_inf", 6))
@@ -271,9 +272,14 @@ def product_json(pf: ProductForm) -> dict[str, Any]:
     out: dict[str, Any] = {
         "order": exponent_json(pf.order), "constant": coefficient_text(pf.constant),
         "shift": exponent_json(pf.shift), "exponents": pf.exponents, "period": pf.period,
-        "repetitions": pf.repetitions, "expression": pf.expression, "eta": pf.eta}
+        "repetitions": pf.repetitions, "expression": pf.expression, "eta": pf.eta,
+        "factors": pf.factors}
     if pf.expression is None:
         out["reason"] = pf.reason
+        if pf.breaks is not None and pf.stray is not None:
+            out["breaks"] = {"period": pf.breaks[0], "at": pf.breaks[1],
+                             "stray_term": [exponent_json(pf.stray[0]),
+                                            coefficient_text(pf.stray[1])]}
     return out
 
 

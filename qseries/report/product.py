@@ -24,6 +24,10 @@ def product_lines(pf: ProductForm) -> list[str]:
       no period in the exponents below the order; the product is finite
     >>> product_lines(product_form("1 + 2q", 8))[0][:40]
     'no product form of this kind to this ord'
+    >>> print("\\n".join(product_lines(product_form("(q;q^2)_inf (q;q^3)_inf", 60))))
+    (q;q^6)_inf^2 (q^3, q^4, q^5;q^6)_inf + O(q^60)
+      the exponents repeat with period 6 (9 full periods below q^60)
+      in fewer factors: (q;q^2)_inf (q;q^3)_inf
     """
     if pf.expression is None:
         return [f"no product form of this kind to this order: {pf.reason}"]
@@ -34,6 +38,8 @@ def product_lines(pf: ProductForm) -> list[str]:
                      f"periods below q^{order})")
     else:
         lines.append("  no period in the exponents below the order; the product is finite")
+    if pf.factors:
+        lines.append(f"  in fewer factors: {pf.factors}")
     if pf.eta:
         lines.append(f"  as an eta quotient: {pf.eta}")
     return lines

@@ -146,3 +146,23 @@ def listing_summary(rows: Sequence[Mapping[str, Any]]) -> str:
     """
     return (f"{len(rows)} entries, {sum(row['members'] for row in rows)} identities counting "
             f"family members")
+
+
+def verify_line(r: EntryOutcome, expect: str, label: str | None = None) -> str:
+    """One finished entry of ``qseries verify`` as a line, printed as it finishes on a
+    terminal: identifier, verdict, order, seconds and the first mismatch (if any).
+
+    >>> from types import SimpleNamespace as Outcome
+    >>> r = Outcome(ident="x", holds=False, ok=False, order=9, seconds=0.5, error="",
+    ...             first_mismatch={"index": 2, "lhs": "1", "rhs": "0"})
+    >>> verify_line(r, "holds", "fam k=2")
+    'fam k=2  FAILS  order 9  0.50 s  q^2: 1 vs 0'
+    """
+    parts = [label or r.ident, entry_verdict_text(r, expect)]
+    if not r.error:
+        parts.append(f"order {coefficient_text(r.order)}")
+    parts.append(f"{r.seconds:.2f} s")
+    mismatch = mismatch_text(r)
+    if mismatch:
+        parts.append(mismatch)
+    return "  ".join(parts)

@@ -477,11 +477,13 @@ class Series:
                 e = (self.start + i + self.offset) / self.den
                 yield (e.numerator if e.denominator == 1 else e), c
 
-    def coefficient_list(self, n: int, start: Exponent = 0) -> list[Number]:
+    def coefficient_list(self, n: int | None = None, start: Exponent = 0) -> list[Number]:
         """The coefficients of q^start, q^(start+1), ..., q^(start+n-1): the whole series
-        below q^(start+n).  Refused (:class:`~qseries.errors.ArgumentError`) when the series
-        has a known nonzero term that the list would not show: below ``start``, or at an
-        exponent that differs from ``start`` by a non-integer (pass ``start=f.valuation``);
+        below q^(start+n); without ``n``, every coefficient known (up to the precision, or
+        to the last term of an exact polynomial).  Refused
+        (:class:`~qseries.errors.ArgumentError`) when the series has a known nonzero term
+        that the list would not show: below ``start``, or at an exponent that differs from
+        ``start`` by a non-integer (pass ``start=f.valuation``);
         a :class:`~qseries.errors.PrecisionError` when q^(start+n-1) lies beyond the
         precision.  For a window that drops terms, slice: ``f[a:b]``.
 
@@ -496,7 +498,15 @@ class Series:
         [1, 0, 1, 1, 0]
         >>> (Series.monomial(Fraction(1, 24)) * f).coefficient_list(3, start=Fraction(-47, 24))
         [1, 0, 1]
+        >>> Series.from_coefficients([1, 2], prec=4).coefficient_list()
+        [1, 2, 0, 0]
         """
+        if n is None:
+            n = self._known_count(_as_exponent(start, "start"))
+            if n > MAX_LENGTH:
+                raise UnableError(f"the series has {n} known coefficients from "
+                                  f"{_power_text(start)} on, beyond the limit {MAX_LENGTH}: "
+                                  f"pass n (and start) for the part you need")
         if isinstance(n, bool) or not isinstance(n, numbers.Integral):
             raise ArgumentTypeError(f"n must be an integer, not {type(n).__name__}")
         n = int(n)
@@ -564,6 +574,16 @@ class Series:
         return self
 
     # -- internal helpers ------------------------------------------------------------------
+    def _known_count(self, start: Exponent) -> int:
+        """How many coefficients from q^start on are known (up to the precision or the last
+        term); the exponents of the list step from ``start`` by 1."""
+        if self.precision is not None:
+            return max(0, _ceil(Fraction(self.precision) - Fraction(start)))
+        last = None
+        for e, _ in self.terms():
+            last = e
+        return 0 if last is None else max(0, _ceil(Fraction(last) - Fraction(start)) + 1)
+
     def _with(self, poly: Any, start: int, offset: Fraction, prec: int | None,
               ring: Ring | None = None, cap: Exponent | None = None) -> Series:
         return Series(ring or self.ring, poly, start, offset, prec, cap, self.den)
@@ -1152,6 +1172,70 @@ class Series:
     def _repr_latex_(self) -> str:
         """Jupyter's rendering: the first and last 20 terms and the order."""
         return f"${self.latex(max_terms=40)}$"
+
+    def html(self, max_terms: int | None = 20) -> str:
+        """The series as HTML for a notebook: the first ``max_terms`` nonzero terms (all
+        when None), the order and a line saying how much is known.
+
+        >>> "O(<i>q</i><sup>5</sup>)" in Series.from_coefficients([1, 0, -2], prec=5).html()
+        True
+        """
+        from .html import series_html
+        return series_html(self, max_terms)
+
+    def _repr_html_(self) -> str:
+        """Jupyter's rendering (preferred to LaTeX by the notebook): the first 20 terms, the
+        order and the number of terms; ``f.view()`` shows them all."""
+        return self.html()
+
+    def _repr_pretty_(self, p: Any, cycle: bool) -> None:
+        """IPython's plain text: the first and last 20 terms (``print(f)`` shows all)."""
+        from .formatting import format_series
+        p.text(format_series(self, 40))
+
+    def view(self, terms: int | None = None) -> Any:
+        """A notebook display of the whole series (or its first ``terms`` terms).
+
+        >>> Series.from_coefficients([1, 2, 3, 4], prec=4).view(2)
+        1 + ... + 4q^3 + O(q^4)
+        """
+        from .html import SeriesView
+        return SeriesView(self, terms)
+
+    def to_sympy(self, symbol: str = "q") -> Any:
+        """The series as a sympy expression (exact rationals, extra variables as symbols of
+        the same names) plus ``O(q**N)`` when it is known only to O(q^N).  Needs sympy.
+
+        >>> Series.from_coefficients([1, 0, -2], prec=5).to_sympy()
+        1 - 2*q**2 + O(q**5)
+        """
+        from .convert import to_sympy
+        return to_sympy(self, symbol)
+
+    @classmethod
+    def from_sympy(cls, expr: Any, order: Exponent | None = None,
+                   symbol: str = "q") -> Series:
+        """The series of a sympy expression: exact rational coefficients, rational powers of
+        ``symbol`` (one class modulo 1), integer powers of other symbols (extra variables),
+        and its own ``O(q**N)`` if any; ``order`` truncates further.  Strings are refused.
+
+        >>> import sympy
+        >>> q = sympy.Symbol("q")
+        >>> Series.from_sympy(sympy.series(1/(1 - q), q, 0, 4))
+        1 + q + q^2 + q^3 + O(q^4)
+        """
+        from .convert import from_sympy
+        return from_sympy(expr, order, symbol)
+
+    def to_numpy(self, n: int | None = None, start: Exponent = 0) -> Any:
+        """The coefficients of :meth:`coefficient_list` as a numpy array: int64 when they
+        all fit, else an object array of exact values.  Needs numpy.
+
+        >>> Series.from_coefficients([1, 2], prec=3).to_numpy()
+        array([1, 2, 0])
+        """
+        from .convert import to_numpy
+        return to_numpy(self, n, start)
 
     def __str__(self) -> str:
         return self.__repr__()

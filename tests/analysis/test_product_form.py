@@ -101,3 +101,23 @@ def test_huge_exponents_are_described_not_printed():
     f = Series.from_coefficients([1, 10**5000, 3, 7, 1, 9, 4], prec=7)
     pf = product_form(f, 7)
     assert pf.period is None and pf.expression is None and "digits" in pf.reason
+
+
+# -- issue 16: where the period breaks, and an order too low to see one -----------------
+def test_a_stray_term_is_located():
+    # Rogers-Ramanujan's product 1/((q;q^5)_inf (q^4;q^5)_inf) plus a stray q^100
+    pf = product_form("1/((q;q^5)_inf (q^4;q^5)_inf) + q^100", 200)
+    assert pf.expression is None
+    assert pf.breaks == (5, 100) and pf.stray == (100, 1)
+    assert "period 5 up to n = 99" in pf.reason
+    assert "(q, q^4;q^5)_inf^-1 + q^100 + O(q^101)" in pf.reason
+    # with a constant and a shift the stray term is where the series has it
+    pf = product_form("2 q^3 (q;q^2)_inf - 6 q^73", 160)
+    assert pf.breaks == (2, 70) and pf.stray == (73, -6)
+
+
+def test_an_order_too_low_for_the_period_says_so():
+    # (q;q^37)_inf has period 37, seen from order 3*37 + 1 = 112 on
+    low = product_form("(q;q^37)_inf", 60)
+    assert low.expression is None and "too low" in low.reason and "3m + 1" in low.reason
+    assert product_form("(q;q^37)_inf", 112).period == 37

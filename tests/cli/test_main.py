@@ -631,3 +631,63 @@ def test_check_json_seconds_cover_the_whole_command(monkeypatch):
     r = run("check", RR1[0], RR1[1] + " - q^150", "--order", "151", "--json")
     assert r.exit_code == 1
     assert json.loads(r.stdout)["seconds"] == 42.5
+
+
+# -- pictures (--plot; the drawings themselves: tests/report/test_plots.py) ---------------
+@pytest.mark.parametrize("args, name", [
+    (["expand", "1/(q;q)_inf", "-n", "200"], "expand.png"),
+    (["product", RR1[0], "-n", "100"], "product.svg"),
+    (["distribution", "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "--at", "50", "--at", "80"],
+     "distribution.png"),
+    (["check", RR1[0], "1/((q;q^5)_inf (q^4;q^5)_inf (q^30;q^30)_inf)", "-n", "80"],
+     "check.svg"),
+])
+def test_plot_option_writes_a_picture(tmp_path, args, name):
+    path = tmp_path / name
+    r = run(*args, "--plot", str(path))
+    assert r.exit_code == (1 if args[0] == "check" else 0), r.output
+    data = path.read_bytes()
+    assert data.startswith(b"\x89PNG\r\n\x1a\n") if name.endswith(".png") else b"<svg" in data
+    assert 5_000 < len(data) < 2_000_000
+    assert f"wrote {path}" in r.stderr
+
+
+def test_plot_option_refusals(tmp_path):
+    r = run("expand", "1/(1-q)", "--plot", str(tmp_path / "x.jpg"))
+    assert r.exit_code == 2 and "PNG or SVG" in r.stderr
+    r = run("check", *RR1, "-n", "50", "--plot", str(tmp_path / "agree.png"))
+    assert r.exit_code == 0 and "no picture" in r.stderr and not (tmp_path / "agree.png").exists()
+    r = run("distribution", "1/(z*q;q)_inf", "--at", "5", "--fit", "sqrt", "--plot",
+            str(tmp_path / "d.png"))
+    assert r.exit_code == 2 and "--trend-upto" in r.stderr
+    r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "9", "--fit", "cube", "--plot",
+            str(tmp_path / "d.png"))
+    assert r.exit_code == 2 and "fit must be one of" in r.stderr
+
+
+def test_plot_of_the_trend(tmp_path):
+    path = tmp_path / "trend.png"
+    r = run("distribution", "1/(z*q;q)_inf", "--trend-upto", "80", "--fit", "sqrt", "--plot",
+            str(path), "--out", str(tmp_path / "trend.csv"))
+    assert r.exit_code == 0, r.output
+    assert path.read_bytes().startswith(b"\x89PNG") and path.stat().st_size > 5_000
+
+
+def test_distribution_out_writes_every_count_of_the_sizes(tmp_path):
+    # Durfee squares of the partitions of 10: 10, 30, 2 (p(10) = 42, A000041)
+    out = tmp_path / "counts.csv"
+    r = run("distribution", "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "--at", "10", "--at", "4",
+            "--out", str(out))
+    assert r.exit_code == 0 and "mode z = 2" in r.stdout
+    rows = out.read_text().splitlines()
+    assert rows[0] == "n,z,count,share"
+    assert rows[1:4] == ["10,1,10,0.2380952381", "10,2,30,0.7142857143", "10,3,2,0.04761904762"]
+    assert sum(int(row.split(",")[2]) for row in rows if row.startswith("4,")) == 5   # p(4)
+
+
+def test_the_command_list_wraps_sentences_only_at_the_width():
+    # issue 16: the list kept the docstrings' line breaks, which fall inside sentences
+    r = runner.invoke(app, ["--help"], env={"COLUMNS": "250"})
+    assert r.exit_code == 0
+    line = next(x for x in r.stdout.splitlines() if "expand " in x)
+    assert "Letters other than q that no sum binds are extra variables" in line

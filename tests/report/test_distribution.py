@@ -1,9 +1,12 @@
 """report.distribution: a distribution as text, and the mean/variance table as CSV."""
 
+import re
 from fractions import Fraction
 
 from qseries import distributions
+from qseries.analysis import Distribution
 from qseries.report import decimal_text, distribution_lines, trend_csv
+from qseries.report.distribution import counts_csv, quantile
 
 DURFEE = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"
 
@@ -15,6 +18,7 @@ def test_one_size_with_counts_shares_and_moments():
         "  z =    1: 10  (0.238095)",
         "  z =    2: 30  (0.714286)",
         "  z =    3: 2  (0.047619)",
+        "  mode z = 2; quantiles 1%: 1, 25%: 2, median: 2, 75%: 2, 99%: 3",
         "  mean      38/21  = 1.80952381",
         "  variance  110/441  = 0.2494331066",
         "  standardised moments (normal distribution in brackets):",
@@ -22,13 +26,30 @@ def test_one_size_with_counts_shares_and_moments():
         "6: 13.0546 [15]"]
 
 
-def test_many_values_show_the_first_six_and_the_last_five():
-    [d] = distributions("1/(z*q;q)_inf", "z", [20])      # largest part: 1 .. 20
+def test_many_values_show_the_middle_and_account_for_the_tails():
+    # number of parts of the partitions of 300 (z marks each part): p(300) =
+    # 9253082936723602 (A000041, from memory)
+    [d] = distributions("1/(z*q;q)_inf", "z", [300])
     lines = distribution_lines(d, "z", 2)
-    values = [line for line in lines if line.startswith("  z =")]
-    assert [int(v.split()[2].rstrip(":")) for v in values] == [1, 2, 3, 4, 5, 6,
-                                                               16, 17, 18, 19, 20]
-    assert lines[7] == "    ..."
+    assert lines[0] == "n = 300: 9253082936723602 objects"
+    assert lines[1].startswith("  z =    1 .. 20: ") and lines[1].endswith("together  (0.009849)")
+    shown = [int(v) for line in lines[2:] for v in re.findall(r"z = +(\d+): ", line)]
+    assert shown == list(range(21, 93))             # the 1% .. 99% quantiles, 3 to a line
+    tail = next(line for line in lines if line.startswith("  z =   93 .. 300"))
+    counted = sum(int(c) for c in re.findall(r": (\d+)  ", "\n".join(lines[1:])))
+    counted += sum(int(c) for c in re.findall(r": (\d+) together", "\n".join(lines[1:])))
+    assert counted == d.total and tail
+    mode = next(line for line in lines if line.startswith("  mode"))
+    # the most frequent number of parts: the count at 37 is the largest of the table
+    assert mode.startswith("  mode z = 37; quantiles 1%: 21") and max(
+        d.counts.values()) == d.counts[37]
+
+
+def test_quantiles_and_counts_csv():
+    d = Distribution(4, {0: 1, 1: 2, 5: 1})
+    assert [quantile(d, Fraction(k, 4)) for k in range(1, 5)] == [0, 1, 1, 5]
+    assert counts_csv([d], "w").splitlines() == ["n,w,count,share", "4,0,1,0.25", "4,1,2,0.5",
+                                                 "4,5,1,0.25"]
 
 
 def test_decimals():

@@ -237,3 +237,14 @@ def test_combination_json_shape():
                    "coefficients": ["1/2", "1/2"],
                    "text": "(1/(1-q^2)) = 1/2 (1/(1-q)) + 1/2 (1/(1+q))",
                    "equations": 30, "unknowns": 3, "confirmed": 27, "stable": True}
+
+
+def test_product_json_gives_the_short_form_and_where_a_period_breaks():
+    from qseries import product_form
+    from qseries.report import product_json
+
+    out = product_json(product_form("(q;q^7)_inf (q;q^2)_inf (q;q^5)_inf", 300))
+    assert out["factors"] == "(q;q^2)_inf (q;q^5)_inf (q;q^7)_inf" and out["period"] == 70
+    out = product_json(product_form("1/((q;q^5)_inf (q^4;q^5)_inf) + q^100", 200))
+    assert out["expression"] is None
+    assert out["breaks"] == {"period": 5, "at": 100, "stray_term": [100, "1"]}
