@@ -9,7 +9,7 @@ import qseries
 ROOT = pathlib.Path(qseries.__file__).parent
 
 LAYERS = ["errors", "backend", "series", "products", "lang", "engine", "analysis", "report",
-          "catalogue", "testing", "cli"]
+          "catalogue", "discovery", "testing", "cli"]
 
 
 def _layer(module: str) -> str:

@@ -2,8 +2,8 @@
 (:mod:`.verdict`), the table around a mismatch (:mod:`.neighbours`), hints (:mod:`.hints`),
 the JSON shapes shared by the command line and the catalogue (:mod:`.json_shapes`),
 expansions and dissections (:mod:`.expansion`), congruences (:mod:`.congruences`),
-relations (:mod:`.relations`), product forms (:mod:`.product`), distributions
-(:mod:`.distribution`) and the tables of ``verify`` and ``list`` (:mod:`.tables`).
+relations (:mod:`.relations`), scans (:mod:`.scan`), product forms (:mod:`.product`),
+distributions (:mod:`.distribution`) and the tables of ``verify`` and ``list`` (:mod:`.tables`).
 
 Each function returns text, lines or plain data; printing is the caller's business.
 
@@ -40,6 +40,7 @@ from .json_shapes import (
 from .neighbours import neighbour_table
 from .product import no_product_line, product_lines
 from .relations import relation_lines
+from .scan import relation_text, scan_json, scan_lines
 from .tables import (
     listing_summary,
     listing_table,
@@ -59,6 +60,6 @@ __all__ = ["check_json", "check_lines", "congruence_lines", "congruences_json",
            "listing_table", "mismatch_json", "mismatch_report", "mismatch_text",
            "neighbour_table", "no_product_json", "no_product_line", "product_json",
            "divisibility_json", "divisibility_lines", "progression_text", "relation_lines",
-           "relations_json",
+           "relations_json", "relation_text", "scan_json", "scan_lines",
            "product_lines", "row_label", "slowest_line", "sources_lines", "trend_csv",
            "trend_json", "verify_json", "verify_summary", "verify_table"]
