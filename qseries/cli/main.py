@@ -699,6 +699,9 @@ def list_cmd(
     console.print(listing_summary(rows))
 
 
+from . import scan as _scan  # noqa: E402, F401 - registers qseries scan on app
+
+
 def run() -> None:
     """Console-script entry point."""
     try:

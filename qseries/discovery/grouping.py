@@ -69,8 +69,9 @@ class Relation:
 
 @dataclass(frozen=True)
 class Group:
-    """A representative hit (the first in the family's order) and the hits related to
-    it."""
+    """A representative hit and the hits related to it: the representative is the first
+    member (in the family's order) with constant 1 and no power of q in front, or the
+    first member when none has them."""
 
     representative: MemberOutcome
     related: tuple[Relation, ...]
@@ -119,7 +120,12 @@ def group_hits(hits: list[MemberOutcome]) -> list[Group]:
         members[k].append((o, side))
     groups = []
     for k in order:
-        (rep, rep_side), *rest = members[k]
+        # the representative: constant 1 and no power of q if a member has them, else
+        # the first
+        first = min(range(len(members[k])), key=lambda j: (
+            members[k][j][0].constant != "1", members[k][j][0].shift != "0", j))
+        (rep, rep_side) = members[k][first]
+        rest = members[k][:first] + members[k][first + 1:]
         related = tuple(Relation(o, Fraction(1), Fraction(0), 1, same_right=True)
                         if k[0] == "right" else _relation(o, rep, side == rep_side)
                         for o, side in rest)
