@@ -101,7 +101,7 @@ class Family:
             raise ArgumentError(f"at most {MAX_PARAMETERS} parameters")
         for name, rng in self.ranges:
             parse_param(f"{name}={rng}")
-        if "$" not in self.template and names:
+        if names and "$" not in self.template + (self.right or ""):
             raise ArgumentError("the template uses no parameter: write $NAME where a "
                                 "parameter's value goes, such as q^(n^2+$b n)")
 
