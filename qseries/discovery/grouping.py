@@ -98,7 +98,7 @@ def _relation(o: MemberOutcome, rep: MemberOutcome, same_side: bool) -> Relation
 
 
 def group_hits(hits: list[MemberOutcome]) -> list[Group]:
-    """Groups of trivially related hits, in the order of their first members.
+    """Groups of trivially related hits, in the order of their representatives.
 
     >>> from qseries.discovery.examine import MemberOutcome as M
     >>> a = M(0, (("s", 0),), "f", "hit", "p", pattern=(-1, 0, 0, -1, 0))
@@ -130,4 +130,4 @@ def group_hits(hits: list[MemberOutcome]) -> list[Group]:
                         if k[0] == "right" else _relation(o, rep, side == rep_side)
                         for o, side in rest)
         groups.append(Group(rep, related))
-    return groups
+    return sorted(groups, key=lambda g: g.representative.index)
