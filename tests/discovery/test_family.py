@@ -36,8 +36,8 @@ def test_members_expand_as_the_members_of_an_identity_file(tmp_path):
     template = "sum_{n>=0} q^(n^2+$(2b+1) n)/(q;q)_n $repeat(j=1..b; (q;q)_$j; )"
     f = Family(template, (("a", "0..1"), ("b", "a..2")))
     (tmp_path / "f.toml").write_text(
-        '[[identity]]\nkey = "f"\ntitle = "t"\nleft = "%s"\nright = "1"\norder = 5\n'
-        'source = "s"\nparams = {a = "0..1", b = "a..2"}\n' % template)
+        f'[[identity]]\nkey = "f"\ntitle = "t"\nleft = "{template}"\nright = "1"\n'
+        'order = 5\nsource = "s"\nparams = {a = "0..1", b = "a..2"}\n')
     entries = load_file(tmp_path / "f.toml")
     assert [e.params for e in entries] == list(f.members())
     assert [e.left for e in entries] == [f.expand(dict(p)) for p in f.members()]
