@@ -26,7 +26,7 @@ def _write_atomically(path: Path, text: str) -> None:
         _fail(f"cannot write {path}: {err.strerror or err}")
 
 
-def _engine(cluster: str | None, jobs: int | None) -> Any:
+def _engine(cluster: str | None, jobs: int | None, timeout: float) -> Any:
     from ..discovery import DaskEngine, InlineEngine, PoolEngine
 
     if cluster is None:
@@ -41,7 +41,7 @@ def _engine(cluster: str | None, jobs: int | None) -> Any:
         if not address:
             _fail("--cluster config: no scheduler-address in the Dask configuration (set "
                   "DASK_SCHEDULER_ADDRESS or give the address)")
-    return _guarded(DaskEngine, address)
+    return _guarded(DaskEngine, address, None, timeout)
 
 
 @app.command(name="scan")
@@ -88,6 +88,9 @@ def scan(
         help="Run on the Dask scheduler at ADDRESS (tcp://host:8786), or \"config\" for the "
              "one in the Dask configuration; needs qseries[cluster] here and qseries on the "
              "workers.")] = None,
+    connect_timeout: Annotated[float, typer.Option(
+        "--connect-timeout", min=0.1, max=3600, metavar="SECONDS",
+        help="How long to try reaching the --cluster scheduler.")] = 30,
     batch: Annotated[int | None, typer.Option(
         "--batch", min=1, max=10_000, help="Members per task (default: automatic).")] = None,
     as_json: JsonOption = False,
@@ -135,7 +138,7 @@ def scan(
     date = datetime.now(UTC).date().isoformat()
     interrupted = None
     try:
-        engine = _engine(cluster, jobs)
+        engine = _engine(cluster, jobs, connect_timeout)
         try:
             report = run_scan(family, criteria, engine=engine, batch_size=batch,
                               record=record)

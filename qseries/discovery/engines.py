@@ -165,7 +165,8 @@ class DaskEngine(Engine):
         return future
 
     def wait_any(self, pending: Iterable[Any]) -> set[Any]:
-        done = self._distributed.wait(list(pending), return_when="FIRST_COMPLETED").done
+        with self.client.as_current():       # our client, not the process's default
+            done = self._distributed.wait(list(pending), return_when="FIRST_COMPLETED").done
         return set(done)
 
     def result(self, handle: Any) -> list[MemberOutcome]:
