@@ -124,14 +124,23 @@ class ScanRecord:
 
     def append(self, outcomes: Iterable[MemberOutcome]) -> None:
         """Record finished members (written and flushed at once)."""
+        outcomes = list(outcomes)
+        try:
+            self.stream.write("".join(json.dumps(outcome_data(o)) + "\n" for o in outcomes))
+            self.stream.flush()
+        except OSError as err:
+            raise QSeriesError(f"cannot write {self.path}: {err.strerror or err}; the "
+                               f"members recorded so far are kept, continue with "
+                               f"--resume") from None
         for o in outcomes:
-            self.stream.write(json.dumps(outcome_data(o)) + "\n")
             self.finished[o.index] = o
-        self.stream.flush()
 
     def close(self) -> None:
         """Close the file."""
-        self.stream.close()
+        try:
+            self.stream.close()
+        except OSError:        # a failed flush was reported by append already
+            pass
 
     def __enter__(self) -> ScanRecord:
         return self

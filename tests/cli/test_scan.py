@@ -112,9 +112,15 @@ def test_a_dask_scheduler_address(tmp_path):
                                   dashboard_address=None, silence_logs=50) as cluster:
         r = run(RR, "-p", "b=0..3", "-n", "200", "--cluster", cluster.scheduler_address,
                 "--json")
-    assert r.exit_code == 0, r.output
+        import dask.config
+        with dask.config.set({"scheduler-address": cluster.scheduler_address}):
+            configured = run(RR, "-p", "b=0..3", "-n", "200", "--cluster", "config",
+                             "--json")
     local = run(RR, "-p", "b=0..3", "-n", "200", "-j", "1", "--json")
+    assert r.exit_code == 0, r.output
     assert json.loads(r.stdout)["hits"] == json.loads(local.stdout)["hits"]
+    assert configured.exit_code == 0, configured.output
+    assert json.loads(configured.stdout)["hits"] == json.loads(local.stdout)["hits"]
 
 
 def test_an_unreachable_cluster_exits_2():

@@ -71,3 +71,20 @@ def test_nothing_to_resume_or_not_a_record(tmp_path):
 
 def test_the_record_sits_next_to_the_output(tmp_path):
     assert progress_path(tmp_path / "hits.toml") == tmp_path / "hits.toml.progress"
+
+
+def test_a_failed_write_is_a_clear_error(tmp_path):
+    class Full:
+        def write(self, text):
+            raise OSError(28, "No space left on device")
+
+        def flush(self):
+            pass
+
+        def close(self):
+            pass
+
+    rec = ScanRecord(tmp_path / "r", Full(), {})
+    with pytest.raises(QSeriesError, match="No space left on device.*--resume"):
+        rec.append(OUTCOMES[:1])
+    assert rec.finished == {}
