@@ -21,6 +21,7 @@ died, a batch that killed several Dask workers, a worker without qseries) comes 
 from __future__ import annotations
 
 import hashlib
+from abc import ABC, abstractmethod
 from collections.abc import Iterable
 from concurrent.futures import FIRST_COMPLETED, Future
 from concurrent.futures import wait as wait_futures
@@ -58,25 +59,25 @@ def batch_key(job: ScanJob, batch: Batch) -> str:
     return f"qseries-scan-{batch[0][0] if batch else 0}-{digest}"
 
 
-class Engine:
+class Engine(ABC):
     """The interface: ``workers`` (parallel slots), :meth:`submit`, :meth:`wait_any`,
     :meth:`result`, :meth:`close`; a context manager (closing aborts on an exception)."""
 
     workers: int = 1
 
+    @abstractmethod
     def submit(self, job: ScanJob, batch: Batch) -> Any:
         """Start a batch; a handle to wait for."""
-        raise NotImplementedError
 
+    @abstractmethod
     def wait_any(self, pending: Iterable[Any]) -> set[Any]:
         """Block until at least one of ``pending`` is finished; the finished ones."""
-        raise NotImplementedError
 
+    @abstractmethod
     def result(self, handle: Any) -> list[MemberOutcome]:
         """The outcomes of a finished batch, or :class:`BatchLost`."""
-        raise NotImplementedError
 
-    def close(self, abort: bool = False) -> None:
+    def close(self, abort: bool = False) -> None:  # noqa: B027 - nothing to release here
         """Release the workers (``abort``: cancel what is still queued and stop now)."""
 
     def __enter__(self) -> Engine:
@@ -154,8 +155,7 @@ class DaskEngine(Engine):
                 raise QSeriesError(f"cannot reach the Dask scheduler at {address}: "
                                    f"{err}") from None
         self.client = client
-        threads = sum(client.nthreads().values()) if client.nthreads() else 1
-        self.workers = max(1, threads)
+        self.workers = max(1, sum(client.nthreads().values()))
         self.futures: set[Any] = set()
 
     def submit(self, job: ScanJob, batch: Batch) -> Any:
