@@ -44,6 +44,24 @@ def _engine(cluster: str | None, jobs: int | None, timeout: float) -> Any:
     return _guarded(DaskEngine, address, None, timeout)
 
 
+def _run_with_bar(run: Any, wanted: bool, *args: Any, **kwargs: Any) -> Any:
+    """``run(*args, **kwargs, progress=...)`` with a progress bar on a terminal."""
+    from rich.console import Console  # only when a scan runs
+
+    console = Console(stderr=True)
+    if not (wanted and console.is_terminal):
+        return run(*args, **kwargs)
+    from rich.progress import Progress
+
+    with Progress(console=console, transient=True) as bar:
+        task = bar.add_task("scanning", total=None)
+
+        def advance(_outcomes: Any, done: int, total: int) -> None:
+            bar.update(task, completed=done, total=total)
+
+        return run(*args, **kwargs, progress=advance)
+
+
 @app.command(name="scan")
 def scan(
     template: Annotated[str, typer.Argument(
@@ -140,8 +158,8 @@ def scan(
     try:
         engine = _engine(cluster, jobs, connect_timeout)
         try:
-            report = run_scan(family, criteria, engine=engine, batch_size=batch,
-                              record=record)
+            report = _run_with_bar(run_scan, not as_json, family, criteria, engine=engine,
+                                   batch_size=batch, record=record)
         except ScanInterrupted as stop:
             report, interrupted = stop.report, len(stop.report.outcomes)
         except QSeriesError as err:
