@@ -40,6 +40,13 @@ MOD14_PRODUCTS = {(("b", 0), ("c", 0)): "(q^6,q^8,q^14;q^14)_inf/(q;q)_inf",
 MOD20 = Family("sum_{n>=0} q^(n^2)/(q;q)_(2n+$c)", (("c", "0..1"),))
 MOD20_PRODUCTS = {(("c", 0),): "1/(q,q^3,q^4,q^5,q^7,q^9,q^11,q^13,q^15,q^16,q^17,q^19;q^20)_inf"}
 
+# Rogers (1894): sum q^(n^2)/(q^4;q^4)_n = 1/((-q^2;q^2)_inf (q,q^4;q^5)_inf) and
+# sum q^(n^2+2n)/(q^4;q^4)_n = 1/((-q^2;q^2)_inf (q^2,q^3;q^5)_inf); L. J. Slater (1952),
+# entries 20 and 16 (entry numbers from memory)
+ROGERS4 = Family("sum_{n>=0} q^(n^2+$b n)/(q^4;q^4)_n", (("b", "0..3"),))
+ROGERS4_PRODUCTS = {(("b", 0),): "1/((-q^2;q^2)_inf (q;q^5)_inf (q^4;q^5)_inf)",
+                    (("b", 2),): "1/((-q^2;q^2)_inf (q^2;q^5)_inf (q^3;q^5)_inf)"}
+
 # Ramanujan's third-order mock theta functions f(q) = sum q^(n^2)/(-q;q)_n^2 and
 # phi(q) = sum q^(n^2)/(-q^2;q^2)_n (G. N. Watson, J. London Math. Soc. 11 (1936)) are not
 # modular (M. Griffin, K. Ono and L. Rolen, Ramanujan's mock theta functions, PNAS 110
@@ -57,7 +64,8 @@ def _agrees(found, published):
 
 
 @pytest.mark.parametrize("family, published", [(RR, RR_PRODUCTS), (MOD14, MOD14_PRODUCTS),
-                                               (MOD20, MOD20_PRODUCTS)])
+                                               (MOD20, MOD20_PRODUCTS),
+                                               (ROGERS4, ROGERS4_PRODUCTS)])
 def test_rediscovers_published_identities(family, published):
     report = run_scan(family, Criteria(order=ORDER), engine=InlineEngine())
     hits = _hits(report)
