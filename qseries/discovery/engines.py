@@ -38,7 +38,11 @@ __all__ = ["BatchLost", "DaskEngine", "Engine", "InlineEngine", "PoolEngine", "b
 
 
 class BatchLost(Exception):
-    """A batch that could not be run; ``reason`` says why."""
+    """A batch that could not be run; ``reason`` says why.
+
+    >>> BatchLost("worker died").reason
+    'worker died'
+    """
 
     def __init__(self, reason: str) -> None:
         super().__init__(reason)
@@ -61,7 +65,11 @@ def batch_key(job: ScanJob, batch: Batch) -> str:
 
 class Engine(ABC):
     """The interface: ``workers`` (parallel slots), :meth:`submit`, :meth:`wait_any`,
-    :meth:`result`, :meth:`close`; a context manager (closing aborts on an exception)."""
+    :meth:`result`, :meth:`close`; a context manager (closing aborts on an exception).
+
+    >>> sorted(Engine.__abstractmethods__)
+    ['result', 'submit', 'wait_any']
+    """
 
     workers: int = 1
 
@@ -88,7 +96,11 @@ class Engine(ABC):
 
 
 class InlineEngine(Engine):
-    """Runs each batch in this process when it is submitted (one worker)."""
+    """Runs each batch in this process when it is submitted (one worker).
+
+    >>> InlineEngine().workers
+    1
+    """
 
     workers = 1
 
@@ -106,7 +118,12 @@ class InlineEngine(Engine):
 
 class PoolEngine(InlineEngine):
     """Local worker processes (default: one per core); Ctrl-C reaches only this process,
-    which stops the workers (as ``verify`` does)."""
+    which stops the workers (as ``verify`` does).
+
+    >>> with PoolEngine(1) as engine:
+    ...     engine.workers
+    1
+    """
 
     def __init__(self, jobs: int | None = None) -> None:
         cores = available_cores()
@@ -135,7 +152,13 @@ class PoolEngine(InlineEngine):
 class DaskEngine(Engine):
     """A Dask distributed cluster: the scheduler at ``address`` (``tcp://host:8786``), or
     an existing ``client`` (which is left open).  Needs the extra ``cluster``
-    (``pip install 'qseries[cluster]'``) here and qseries on every worker."""
+    (``pip install 'qseries[cluster]'``) here and qseries on every worker.
+
+    >>> DaskEngine()  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    qseries.errors.QSeriesError: give the scheduler's address, such as tcp://host:8786
+    """
 
     def __init__(self, address: str | None = None, client: Any = None,
                  timeout: float = 30) -> None:

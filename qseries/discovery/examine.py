@@ -78,7 +78,13 @@ class Criteria:
 @dataclass(frozen=True)
 class ScanJob:
     """Everything a worker needs besides the members (plain data, pickled once per
-    batch)."""
+    batch).
+
+    >>> import pickle
+    >>> job = ScanJob(Family("q^$a", (("a", "0..1"),)), Criteria(order=10))
+    >>> pickle.loads(pickle.dumps(job)) == job
+    True
+    """
 
     family: Family
     criteria: Criteria
@@ -90,7 +96,11 @@ class MemberOutcome:
     an equality scan) for hits and unconfirmed members; ``pattern`` the exponents over one
     period, ``constant`` and ``shift`` the c and s of c q^s prod (...) (as text), used to
     group trivially related hits; ``reason`` says why a member was rejected, unconfirmed or
-    failed."""
+    failed.
+
+    >>> MemberOutcome(3, (("a", 1), ("b", 2)), "x", "rejected").label
+    'a=1 b=2'
+    """
 
     index: int
     params: Params
@@ -121,7 +131,13 @@ def _failed(index: int, params: Params, expression: str, reason: str,
 
 
 def examine_member(job: ScanJob, index: int, params: Params) -> MemberOutcome:
-    """The outcome for one member (never raises for a member's own trouble)."""
+    """The outcome for one member (never raises for a member's own trouble).
+
+    >>> job = ScanJob(Family("sum_{n>=0} q^($a n)", (("a", "0..1"),)), Criteria(order=20))
+    >>> o = examine_member(job, 0, (("a", 0),))
+    >>> o.status, o.stage
+    ('failed', 'evaluation')
+    """
     values = dict(params)
     expression = ""
     try:
@@ -217,5 +233,11 @@ def examine_batch(job: ScanJob, members: tuple[tuple[int, Params], ...]
                   ) -> list[MemberOutcome]:
     """The outcomes of a batch of (index, params) members, in order.  A pure function of
     its arguments: computing a batch twice (a lost worker's batch retried elsewhere) gives
-    the same outcomes."""
+    the same outcomes.
+
+    >>> job = ScanJob(Family("1/(q^$a;q^$a)_inf", (("a", "1..2"),)), Criteria(order=30))
+    >>> batch = ((0, (("a", 1),)), (1, (("a", 2),)))
+    >>> examine_batch(job, batch) == examine_batch(job, batch)
+    True
+    """
     return [examine_member(job, i, p) for i, p in members]

@@ -85,7 +85,11 @@ class Family:
     ``ranges`` (in the order given, the last varying fastest) that satisfies every
     ``constraints``; ``right`` is a right-side template when the scan looks for equality
     with it instead of a product form; ``definitions`` are functions the templates call
-    (``"G(q) = ..."``)."""
+    (``"G(q) = ..."``).
+
+    >>> Family("G(q^$k)", (("k", "1..2"),), definitions=("G(q) = 1/(1-q)",)).expand({"k": 2})
+    'G(q^2)'
+    """
 
     template: str
     ranges: tuple[tuple[str, str], ...]
@@ -155,7 +159,11 @@ class Family:
         return levels
 
     def members(self) -> Iterator[Params]:
-        """The parameter values of each member (constraints applied), in order."""
+        """The parameter values of each member (constraints applied), in order.
+
+        >>> list(Family("$a", (("a", "0..5"),), ("2a > 7",)).members())
+        [(('a', 4),), (('a', 5),)]
+        """
         ev = Evaluator()
         constraints = self._constraint_nodes()
         for a in self.assignments():
@@ -173,11 +181,19 @@ class Family:
                 yield tuple(a.items())
 
     def expand(self, values: dict[str, int]) -> str:
-        """The member's left side (the template with the values put in)."""
+        """The member's left side (the template with the values put in).
+
+        >>> Family("q^$(a+1)", (("a", "0..1"),)).expand({"a": 1})
+        'q^2'
+        """
         return expand_template(self.template, values, Budget())
 
     def expand_right(self, values: dict[str, int]) -> str | None:
-        """The member's right side in an equality scan (None in a product scan)."""
+        """The member's right side in an equality scan (None in a product scan).
+
+        >>> Family("q^$a", (("a", "0..1"),), right="q^$a").expand_right({"a": 1})
+        'q^1'
+        """
         if self.right is None:
             return None
         return expand_template(self.right, values, Budget())

@@ -53,7 +53,12 @@ def minus_q(pattern: tuple[int, ...]) -> tuple[int, ...]:
 @dataclass(frozen=True)
 class Relation:
     """``member`` = ``factor`` * q^``shift`` * representative(``sign`` q), to the order of
-    the scan (``same_right`` for an equality scan: the two have the same right side)."""
+    the scan (``same_right`` for an equality scan: the two have the same right side).
+
+    >>> from qseries.discovery.examine import MemberOutcome as M
+    >>> Relation(M(1, (), "f", "hit"), Fraction(1), Fraction(0), 1).equal
+    True
+    """
 
     member: MemberOutcome
     factor: Fraction
@@ -71,7 +76,12 @@ class Relation:
 class Group:
     """A representative hit and the hits related to it: the representative is the first
     member (in the family's order) with constant 1 and no power of q in front, or the
-    first member when none has them."""
+    first member when none has them.
+
+    >>> from qseries.discovery.examine import MemberOutcome as M
+    >>> Group(M(0, (), "f", "hit"), ()).related
+    ()
+    """
 
     representative: MemberOutcome
     related: tuple[Relation, ...]

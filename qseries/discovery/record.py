@@ -44,7 +44,12 @@ def progress_path(out: Path) -> Path:
 
 
 def outcome_data(o: MemberOutcome) -> dict[str, Any]:
-    """One outcome as JSON data (the inverse of :func:`outcome_from`)."""
+    """One outcome as JSON data (the inverse of :func:`outcome_from`).
+
+    >>> o = MemberOutcome(0, (("b", 1),), "f", "hit", "p", pattern=(-1, 0))
+    >>> outcome_from(json.loads(json.dumps(outcome_data(o)))) == o
+    True
+    """
     data = asdict(o)
     data["params"] = [list(p) for p in o.params]
     data["pattern"] = list(o.pattern)
@@ -52,14 +57,20 @@ def outcome_data(o: MemberOutcome) -> dict[str, Any]:
 
 
 def outcome_from(data: dict[str, Any]) -> MemberOutcome:
-    """The outcome written by :func:`outcome_data`."""
+    """The outcome written by :func:`outcome_data`.
+
+    >>> outcome_from({"index": 0, "params": [["b", 1]], "expression": "f",
+    ...               "status": "rejected", "pattern": []}).params
+    (('b', 1),)
+    """
     return MemberOutcome(**{**data, "params": tuple((str(n), int(v)) for n, v in data["params"]),
                             "pattern": tuple(int(e) for e in data["pattern"])})
 
 
 class ScanRecord:
     """An open progress record: ``finished`` maps member indices to their outcomes (read
-    from the file when resuming); :meth:`append` adds outcomes."""
+    from the file when resuming); :meth:`append` adds outcomes.  See the module's
+    example."""
 
     def __init__(self, path: Path, stream: IO[str], finished: dict[int, MemberOutcome]
                  ) -> None:

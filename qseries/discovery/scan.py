@@ -41,7 +41,12 @@ __all__ = ["MAX_BATCH", "ScanInterrupted", "ScanReport", "batch_size_for", "hits
 class ScanReport:
     """The outcome of a scan: every member's outcome (in the family's order), the groups
     of hits, how many outcomes were read from the progress record (``resumed``) and how
-    many were computed in this run (``computed``)."""
+    many were computed in this run (``computed``).
+
+    >>> r = run_scan(Family("q^$a", (("a", "0..1"),)), Criteria(order=20), jobs=1)
+    >>> r.members, [o.status for o in r.of("rejected")]
+    (2, ['rejected', 'rejected'])
+    """
 
     family: Family
     criteria: Criteria
@@ -67,7 +72,17 @@ class ScanReport:
 
 class ScanInterrupted(KeyboardInterrupt):
     """Ctrl-C during :func:`run_scan`, raised once the workers are stopped; ``report``
-    holds the members that finished (they are in the progress record)."""
+    holds the members that finished (they are in the progress record).
+
+    >>> def stop(*args):
+    ...     raise KeyboardInterrupt
+    >>> try:
+    ...     run_scan(Family("q^$a", (("a", "0..3"),)), Criteria(order=20), jobs=1,
+    ...              batch_size=1, progress=stop)
+    ... except ScanInterrupted as err:
+    ...     print(err)
+    interrupted: 1 of 4 members finished
+    """
 
     def __init__(self, report: ScanReport) -> None:
         super().__init__(f"interrupted: {len(report.outcomes)} of {report.members} members "
@@ -197,7 +212,14 @@ def hits_file_text(report: ScanReport, date: str, name: str = "scan") -> str:
     ``qseries verify`` reads as it is: the template as ``left`` with each parameter's value
     as a one-value range, the product (or the right side) as ``right``, the scan's order,
     and ``source = "found by scan on DATE, order N"``; the related members are named in
-    ``note``.  ``name`` gives the keys (``name-1``, ``name-2``, ...)."""
+    ``note``.  ``name`` gives the keys (``name-1``, ``name-2``, ...).
+
+    >>> r = run_scan(Family("sum_{n>=0} q^(n^2+$b n)/(q;q)_n", (("b", "0..0"),)),
+    ...              Criteria(order=60), jobs=1)
+    >>> [line for line in hits_file_text(r, "2026-01-01").splitlines()
+    ...  if line.startswith(("key", "source", "params"))]
+    ['key = "scan-1"', 'source = "found by scan on 2026-01-01, order 60"', 'params = {b = "0..0"}']
+    """
     fam, crit = report.family, report.criteria
     prefix = _key_prefix(name)
     entries = []

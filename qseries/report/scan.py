@@ -95,7 +95,13 @@ def _params(o: _Outcome) -> dict[str, int]:
 def scan_json(report: ScanResult) -> dict[str, Any]:
     """``{"order", "filter_order", "members", "stages", "hits": [{"params", "expression",
     "product", "related": [{"params", "expression", "relation"}]}], "unconfirmed",
-    "failed", "resumed", "computed", "seconds"}``."""
+    "failed", "resumed", "computed", "seconds"}``.
+
+    >>> from qseries.discovery import Criteria, Family, run_scan
+    >>> r = run_scan(Family("q^$a", (("a", "0..1"),)), Criteria(order=20), jobs=1)
+    >>> scan_json(r)["stages"]["rejected"], scan_json(r)["hits"]
+    (2, [])
+    """
     crit = report.criteria
     hits = []
     for g in report.groups:
@@ -118,7 +124,13 @@ def scan_json(report: ScanResult) -> dict[str, Any]:
 
 
 def scan_lines(report: ScanResult, finished: int | None = None) -> list[str]:
-    """The text report; ``finished`` (members done) when the scan was interrupted."""
+    """The text report; ``finished`` (members done) when the scan was interrupted.
+
+    >>> from qseries.discovery import Criteria, Family, run_scan
+    >>> r = run_scan(Family("q^$a", (("a", "0..1"),)), Criteria(order=20), jobs=1)
+    >>> scan_lines(r)[-1]
+    'no hits'
+    """
     crit, fam = report.criteria, report.family
     c = report.counts()
     what = (f"equality with {fam.right}" if fam.right is not None else
