@@ -257,4 +257,7 @@ def hits_file_text(report: ScanReport, date: str, name: str = "scan") -> str:
                f"template: {fam.template}\nparameters: {ranges}{where}\n"
                f"{report.members} members, {len(report.of('hit'))} hits in "
                f"{len(report.groups)} groups, {len(report.of('failed'))} failed")
+    if len(report.outcomes) < report.members:
+        comment += (f"\ninterrupted: {len(report.outcomes)} of {report.members} members "
+                    f"finished (scan again with --resume for the others)")
     return identity_file_text(entries, fam.definitions, comment)

@@ -154,6 +154,10 @@ def test_ctrl_c_then_resume(tmp_path):
     assert "interrupted" in stderr and "--resume" in stderr and "Traceback" not in stderr
     done = record.read_text().count("\n") - 1
     assert 2 <= done < 20
+    # the hits found before the interrupt are in the identity file already
+    partial = tomllib.loads(out.read_text())
+    assert all(e["source"].startswith("found by scan") for e in partial.get("identity", []))
+    assert f"interrupted: {done} of 20 members finished" in out.read_text()
     r = runner.invoke(app, ["scan", *args[4:], "--resume", "--json"])
     assert r.exit_code == 0, r.output
     data = json.loads(r.stdout)
