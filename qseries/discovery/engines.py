@@ -38,15 +38,17 @@ __all__ = ["BatchLost", "DaskEngine", "Engine", "InlineEngine", "PoolEngine", "b
 
 
 class BatchLost(Exception):
-    """A batch that could not be run; ``reason`` says why.
+    """A batch that could not be run; ``reason`` says why, ``retry`` whether the scan should
+    submit it again (a local worker process that died; Dask retries by itself).
 
     >>> BatchLost("worker died").reason
     'worker died'
     """
 
-    def __init__(self, reason: str) -> None:
+    def __init__(self, reason: str, retry: bool = False) -> None:
         super().__init__(reason)
         self.reason = reason
+        self.retry = retry
 
 
 def batch_key(job: ScanJob, batch: Batch) -> str:
@@ -131,8 +133,21 @@ class PoolEngine(InlineEngine):
         self.pool = _start_pool(self.workers)
 
     def submit(self, job: ScanJob, batch: Batch) -> Future:
+        from concurrent.futures.process import BrokenProcessPool
+
         with _interrupts_held():           # workers start with Ctrl-C ignored
-            return self.pool.submit(examine_batch, job, batch)
+            try:
+                return self.pool.submit(examine_batch, job, batch)
+            except BrokenProcessPool:
+                self._replace()
+                return self.pool.submit(examine_batch, job, batch)
+
+    def _replace(self) -> None:
+        """A worker died, which breaks the whole pool: a fresh one takes its place (the
+        batches the old one held come back as :class:`BatchLost` to be submitted again)."""
+        if getattr(self.pool, "_broken", False):
+            _stop_pool(self.pool)
+            self.pool = _start_pool(self.workers)
 
     def result(self, handle: Future) -> list[MemberOutcome]:
         from concurrent.futures.process import BrokenProcessPool
@@ -140,7 +155,9 @@ class PoolEngine(InlineEngine):
         try:
             return handle.result()
         except BrokenProcessPool:
-            raise BatchLost("a worker process ended abruptly (out of memory?)") from None
+            self._replace()
+            raise BatchLost("a worker process ended abruptly (out of memory, or a crash in "
+                            "the member's evaluation)", retry=True) from None
 
     def close(self, abort: bool = False) -> None:
         if abort:

@@ -32,6 +32,9 @@ from .record import ScanRecord
 MAX_BATCH = 32
 #: batches in flight per worker (so that a worker never waits for the next one)
 WINDOW_PER_WORKER = 2
+#: the members of a batch lost with a local worker process run again one at a time, alone,
+#: up to this many times each before they are listed as failed
+ALONE_ATTEMPTS = 2
 
 __all__ = ["MAX_BATCH", "ScanInterrupted", "ScanReport", "batch_size_for", "hits_file_text",
            "record_header", "run_scan"]
@@ -159,8 +162,19 @@ def run_scan(family: Family, criteria: Criteria, engine: Engine | None = None,
         batches = _batches(todo, size)
         window = WINDOW_PER_WORKER * engine.workers
         pending: dict[Any, Batch] = {}
+        # members of lost batches, to be run one at a time with nothing else in flight, so
+        # that a member which crashes its worker is known: it fails alone, after
+        # ALONE_ATTEMPTS tries
+        quarantine: list[Batch] = []
+        alone: dict[Batch, int] = {}
 
         def top_up() -> None:
+            if quarantine:
+                if not pending:
+                    single = quarantine.pop(0)
+                    alone[single] = alone.get(single, 0) + 1
+                    pending[engine.submit(job, single)] = single
+                return
             while len(pending) < window:
                 batch = next(batches, None)
                 if batch is None:
@@ -174,6 +188,12 @@ def run_scan(family: Family, criteria: Criteria, engine: Engine | None = None,
                 try:
                     got = engine.result(handle)
                 except BatchLost as lost:
+                    if lost.retry and batch not in alone:
+                        quarantine.extend((member,) for member in batch)
+                        continue
+                    if lost.retry and alone[batch] < ALONE_ATTEMPTS:
+                        quarantine.insert(0, batch)
+                        continue
                     got = [MemberOutcome(i, p, "", "failed", reason=lost.reason,
                                          stage="engine") for i, p in batch]
                 for o in got:

@@ -116,3 +116,45 @@ def test_a_batch_the_cluster_cannot_run_is_lost_not_fatal():
 def test_an_unreachable_scheduler_is_a_clear_error():
     with pytest.raises(QSeriesError, match="cannot reach the Dask scheduler"):
         DaskEngine("tcp://127.0.0.1:9", timeout=1)
+
+
+def _crashing(marker_dir, crash_once, crash_always):
+    """examine_member, except that the worker process dies at some members (the test's
+    pool is forked, so its workers run this replacement)."""
+    import qseries.discovery.examine as examine_module
+    real = examine_module.examine_member
+
+    def member(job, index, params):
+        marker = marker_dir / f"crashed-{index}"
+        if index in crash_always or (index in crash_once and not marker.exists()):
+            marker.touch()
+            os._exit(1)
+        return real(job, index, params)
+
+    return member
+
+
+@pytest.mark.skipif(__import__("multiprocessing").get_start_method() != "fork",
+                    reason="the replacement reaches the workers only in forked processes")
+def test_a_local_worker_that_dies_is_replaced_and_its_batches_retried(inline, tmp_path,
+                                                                       monkeypatch):
+    import qseries.discovery.examine as examine_module
+    monkeypatch.setattr(examine_module, "examine_member",
+                        _crashing(tmp_path, crash_once={2, 9}, crash_always={5}))
+    with PoolEngine(2) as engine:
+        report = run_scan(FAMILY, CRITERIA, engine=engine, batch_size=3)
+    # members 2 and 9 crashed their workers once and were computed on the retry; member 5
+    # crashes every time: it fails alone (the members of a lost batch run again one at a
+    # time, with nothing else in flight)
+    assert (tmp_path / "crashed-2").exists() and (tmp_path / "crashed-9").exists()
+    [failed] = report.of("failed")
+    assert failed.index == 5 and "ended abruptly" in failed.reason
+    assert [o for o in report.outcomes if o.index != 5] == \
+        [o for o in inline.outcomes if o.index != 5]
+
+
+def test_without_dask_cluster_is_a_clear_error(monkeypatch):
+    import sys
+    monkeypatch.setitem(sys.modules, "distributed", None)
+    with pytest.raises(QSeriesError, match=r"qseries\[cluster\]"):
+        DaskEngine("tcp://127.0.0.1:8786")
