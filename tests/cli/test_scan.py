@@ -164,3 +164,17 @@ def test_ctrl_c_then_resume(tmp_path):
     assert (data["resumed"], data["computed"]) == (done, 20 - done)
     [hit] = data["hits"]            # the first Rogers-Ramanujan identity, and 19 q-shifts
     assert hit["params"] == {"s": 0} and len(hit["related"]) == 19
+
+
+def test_definitions_reach_the_members_and_the_out_file(tmp_path):
+    # G(q) = sum q^(n^2)/(q;q)_n, the first Rogers-Ramanujan function (Andrews 1976,
+    # Cor. 7.6, from memory); G(q^k) = 1/((q^k;q^(5k))_inf (q^(4k);q^(5k))_inf)
+    out = tmp_path / "g.toml"
+    r = run("G(q^$k)", "-p", "k=1..2", "-D", "G(q) = sum_{n>=0} q^(n^2)/(q;q)_n",
+            "-n", "200", "-j", "1", "-o", str(out), "--json")
+    assert r.exit_code == 0, r.output
+    products = {h["params"]["k"]: h["product"] for h in json.loads(r.stdout)["hits"]}
+    assert check(products[2], "1/((q^2;q^10)_inf (q^8;q^10)_inf)", order=200).holds is True
+    assert '"G(q)" = "sum_{n>=0} q^(n^2)/(q;q)_n"' in out.read_text()
+    v = runner.invoke(app, ["verify", str(out), "-n", "400", "-j", "1"])
+    assert v.exit_code == 0, v.output
