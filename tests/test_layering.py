@@ -9,8 +9,7 @@ import qseries
 ROOT = pathlib.Path(qseries.__file__).parent
 
 LAYERS = ["errors", "backend", "series", "products", "lang", "engine", "analysis",
-          "modularity", "report",
-          "catalogue", "testing", "cli"]
+          "modularity", "report", "catalogue", "discovery", "testing", "cli"]
 
 
 def _layer(module: str) -> str:

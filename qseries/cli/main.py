@@ -812,6 +812,7 @@ def list_cmd(
 from .prove import mention_prove, prove_cmd  # noqa: E402  (the command lives in its own module)
 
 app.command(name="prove")(prove_cmd)
+from . import scan as _scan  # noqa: E402, F401 - registers qseries scan on app
 
 
 def run() -> None:

@@ -2,9 +2,10 @@
 (:mod:`.verdict`), the table around a mismatch (:mod:`.neighbours`), hints (:mod:`.hints`),
 the JSON shapes shared by the command line and the catalogue (:mod:`.json_shapes`),
 expansions and dissections (:mod:`.expansion`), congruences (:mod:`.congruences`),
-relations (:mod:`.relations`), product forms (:mod:`.product`), distributions
-(:mod:`.distribution`), the tables of ``verify`` and ``list`` (:mod:`.tables`), and the HTML
-and LaTeX that notebooks show for results (:mod:`.notebook`, registered on import).
+relations (:mod:`.relations`), scans (:mod:`.scan`), product forms (:mod:`.product`),
+distributions (:mod:`.distribution`), the tables of ``verify`` and ``list`` (:mod:`.tables`),
+and the HTML and LaTeX that notebooks show for results (:mod:`.notebook`, registered on
+import).
 
 Each function returns text, lines or plain data; printing is the caller's business.
 
@@ -43,6 +44,7 @@ from .neighbours import neighbour_table
 from .notebook import check_html, distribution_html, product_html
 from .product import no_product_line, product_lines
 from .relations import combination_lines, relation_lines
+from .scan import relation_text, scan_json, scan_lines
 from .tables import (
     listing_summary,
     listing_table,
@@ -63,6 +65,7 @@ __all__ = ["check_html", "check_json", "check_lines", "combination_json", "combi
            "hint_line", "listing_json", "listing_rows", "listing_summary", "listing_table",
            "mismatch_json", "mismatch_report", "mismatch_text", "neighbour_table",
            "no_product_json", "no_product_line", "product_html", "product_json", "product_lines",
-           "progression_text", "relation_lines", "relations_json", "row_label", "slowest_line",
+           "progression_text", "relation_lines", "relation_text", "relations_json", "row_label",
+           "scan_json", "scan_lines", "slowest_line",
            "sources_lines", "trend_csv", "trend_json", "verify_json", "verify_summary",
            "verify_table"]

@@ -1,0 +1,231 @@
+"""Where the batches of a scan run: in this process, in a pool of local worker processes,
+or on a Dask distributed cluster.  The scan drives all three the same way (submit a batch,
+wait for any to finish, take its outcomes), so the code the tests run in-process is the
+code that runs on a cluster.
+
+A batch is a pure function call (:func:`qseries.discovery.examine.examine_batch`): running
+it twice gives the same outcomes, so the cluster may retry the batches of a worker it lost
+(Dask does, on another worker).  A batch that cannot be run (a local worker process that
+died, a batch that killed several Dask workers, a worker without qseries) comes back as
+:class:`BatchLost`, and its members are listed as failed.
+
+>>> from qseries.discovery.examine import Criteria, ScanJob
+>>> from qseries.discovery.family import Family
+>>> job = ScanJob(Family("1/(q^$a;q^$a)_inf", (("a", "1..2"),)), Criteria(order=20))
+>>> with InlineEngine() as engine:
+...     f = engine.submit(job, ((0, (("a", 1),)),))
+...     [o.status for o in engine.result(f)]
+['hit']
+"""
+
+from __future__ import annotations
+
+import hashlib
+from abc import ABC, abstractmethod
+from collections.abc import Iterable
+from concurrent.futures import FIRST_COMPLETED, Future
+from concurrent.futures import wait as wait_futures
+from typing import Any
+
+from ..catalogue.verify import _interrupts_held, _start_pool, _stop_pool, available_cores
+from ..errors import QSeriesError
+from .examine import MemberOutcome, ScanJob, examine_batch
+from .family import Params
+
+Batch = tuple[tuple[int, Params], ...]
+
+__all__ = ["BatchLost", "DaskEngine", "Engine", "InlineEngine", "PoolEngine", "batch_key"]
+
+
+class BatchLost(Exception):
+    """A batch that could not be run; ``reason`` says why, ``retry`` whether the scan should
+    submit it again (a local worker process that died; Dask retries by itself).
+
+    >>> BatchLost("worker died").reason
+    'worker died'
+    """
+
+    def __init__(self, reason: str, retry: bool = False) -> None:
+        super().__init__(reason)
+        self.reason = reason
+        self.retry = retry
+
+
+def batch_key(job: ScanJob, batch: Batch) -> str:
+    """A name for a batch that depends only on what it computes (Dask's task key: the
+    same batch submitted twice is one task).
+
+    >>> from qseries.discovery.examine import Criteria
+    >>> from qseries.discovery.family import Family
+    >>> job = ScanJob(Family("$a", (("a", "1..2"),)), Criteria(order=20))
+    >>> batch_key(job, ((0, (("a", 1),)),)) == batch_key(job, ((0, (("a", 1),)),))
+    True
+    """
+    digest = hashlib.sha256(repr((job, batch)).encode("utf-8")).hexdigest()[:24]
+    return f"qseries-scan-{batch[0][0] if batch else 0}-{digest}"
+
+
+class Engine(ABC):
+    """The interface: ``workers`` (parallel slots), :meth:`submit`, :meth:`wait_any`,
+    :meth:`result`, :meth:`close`; a context manager (closing aborts on an exception).
+
+    >>> sorted(Engine.__abstractmethods__)
+    ['result', 'submit', 'wait_any']
+    """
+
+    workers: int = 1
+
+    @abstractmethod
+    def submit(self, job: ScanJob, batch: Batch) -> Any:
+        """Start a batch; a handle to wait for."""
+
+    @abstractmethod
+    def wait_any(self, pending: Iterable[Any]) -> set[Any]:
+        """Block until at least one of ``pending`` is finished; the finished ones."""
+
+    @abstractmethod
+    def result(self, handle: Any) -> list[MemberOutcome]:
+        """The outcomes of a finished batch, or :class:`BatchLost`."""
+
+    def close(self, abort: bool = False) -> None:  # noqa: B027 - nothing to release here
+        """Release the workers (``abort``: cancel what is still queued and stop now)."""
+
+    def __enter__(self) -> Engine:
+        return self
+
+    def __exit__(self, kind: object, *rest: object) -> None:
+        self.close(abort=kind is not None)
+
+
+class InlineEngine(Engine):
+    """Runs each batch in this process when it is submitted (one worker).
+
+    >>> InlineEngine().workers
+    1
+    """
+
+    workers = 1
+
+    def submit(self, job: ScanJob, batch: Batch) -> Future:
+        future: Future = Future()
+        future.set_result(examine_batch(job, batch))
+        return future
+
+    def wait_any(self, pending: Iterable[Future]) -> set[Future]:
+        return set(wait_futures(list(pending), return_when=FIRST_COMPLETED).done)
+
+    def result(self, handle: Future) -> list[MemberOutcome]:
+        return handle.result()
+
+
+class PoolEngine(InlineEngine):
+    """Local worker processes (default: one per core); Ctrl-C reaches only this process,
+    which stops the workers (as ``verify`` does).
+
+    >>> with PoolEngine(1) as engine:
+    ...     engine.workers
+    1
+    """
+
+    def __init__(self, jobs: int | None = None) -> None:
+        cores = available_cores()
+        self.workers = max(1, min(cores if jobs is None else jobs, cores))
+        self.pool = _start_pool(self.workers)
+
+    def submit(self, job: ScanJob, batch: Batch) -> Future:
+        from concurrent.futures.process import BrokenProcessPool
+
+        with _interrupts_held():           # workers start with Ctrl-C ignored
+            try:
+                return self.pool.submit(examine_batch, job, batch)
+            except BrokenProcessPool:
+                self._replace()
+                return self.pool.submit(examine_batch, job, batch)
+
+    def _replace(self) -> None:
+        """A worker died, which breaks the whole pool: a fresh one takes its place (the
+        batches the old one held come back as :class:`BatchLost` to be submitted again)."""
+        if getattr(self.pool, "_broken", False):
+            _stop_pool(self.pool)
+            self.pool = _start_pool(self.workers)
+
+    def result(self, handle: Future) -> list[MemberOutcome]:
+        from concurrent.futures.process import BrokenProcessPool
+
+        try:
+            return handle.result()
+        except BrokenProcessPool:
+            self._replace()
+            raise BatchLost("a worker process ended abruptly (out of memory, or a crash in "
+                            "the member's evaluation)", retry=True) from None
+
+    def close(self, abort: bool = False) -> None:
+        if abort:
+            _stop_pool(self.pool)
+        else:
+            self.pool.shutdown(wait=True)
+
+
+class DaskEngine(Engine):
+    """A Dask distributed cluster: the scheduler at ``address`` (``tcp://host:8786``), or
+    an existing ``client`` (which is left open).  Needs the extra ``cluster``
+    (``pip install 'qseries[cluster]'``) here and qseries on every worker.
+
+    >>> DaskEngine()  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    qseries.errors.QSeriesError: give the scheduler's address, such as tcp://host:8786
+    """
+
+    def __init__(self, address: str | None = None, client: Any = None,
+                 timeout: float = 30) -> None:
+        try:
+            import distributed
+        except ImportError:
+            raise QSeriesError("--cluster needs dask.distributed: pip install "
+                               "'qseries[cluster]'") from None
+        self._distributed = distributed
+        self.own = client is None
+        if client is None:
+            if not address:
+                raise QSeriesError("give the scheduler's address, such as tcp://host:8786")
+            try:
+                client = distributed.Client(address, timeout=timeout, set_as_default=False)
+            except (OSError, TimeoutError) as err:
+                raise QSeriesError(f"cannot reach the Dask scheduler at {address}: "
+                                   f"{err}") from None
+        self.client = client
+        self.workers = max(1, sum(client.nthreads().values()))
+        self.futures: set[Any] = set()
+
+    def submit(self, job: ScanJob, batch: Batch) -> Any:
+        future = self.client.submit(examine_batch, job, batch, key=batch_key(job, batch),
+                                    pure=True)
+        self.futures.add(future)
+        return future
+
+    def wait_any(self, pending: Iterable[Any]) -> set[Any]:
+        with self.client.as_current():       # our client, not the process's default
+            done = self._distributed.wait(list(pending), return_when="FIRST_COMPLETED").done
+        return set(done)
+
+    def result(self, handle: Any) -> list[MemberOutcome]:
+        self.futures.discard(handle)
+        try:
+            out = handle.result()
+        except Exception as err:     # noqa: BLE001 - KilledWorker, a worker without qseries
+            name = type(err).__name__
+            raise BatchLost(f"the cluster could not run this batch ({name}: {err})") from None
+        finally:
+            handle.release()
+        return out
+
+    def close(self, abort: bool = False) -> None:
+        if abort and self.futures:
+            try:
+                self.client.cancel(list(self.futures))
+            except Exception:  # noqa: BLE001 - the cluster may be gone already
+                pass
+        self.futures.clear()
+        if self.own:
+            self.client.close()
