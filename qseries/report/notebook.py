@@ -29,7 +29,7 @@ from ..lang.printer import show_latex
 from ..series.formatting import coefficient_text, number_text
 from .distribution import decimal_text, distribution_lines
 from .latex import _reciprocals
-from .product import product_lines
+from .product import product_lines, product_notes
 from .verdict import check_lines
 
 #: a distribution with more values than this shows the first and last half of it
@@ -171,17 +171,8 @@ def product_html(pf: ProductForm) -> str:
         return (f'<div class="qseries-product"><p>no product form of this kind to this '
                 f"order: {_e(pf.reason)}</p></div>")
     order = coefficient_text(pf.order)
-    notes = []
-    if pf.period:
-        notes.append(f"the exponents repeat with period {pf.period} ({pf.repetitions} full "
-                     f"periods below q^{_e(order)})")
-    else:
-        notes.append("no period in the exponents below the order; the product is finite")
-    if pf.factors:
-        notes.append(f"in fewer factors: <code>{_e(pf.factors)}</code>")
-    if pf.eta:
-        notes.append(f"as an eta quotient: <code>{_e(pf.eta)}</code>")
-    items = "".join(f"<li>{n}</li>" for n in notes)
+    items = "".join(f"<li>{_e(label)}" + (f"<code>{_e(value)}</code>" if value else "")
+                    + "</li>" for label, value in product_notes(pf))
     return (f'<div class="qseries-product"><p><code>{_e(pf.expression)} + O(q^{_e(order)})'
             f"</code></p><ul>{items}</ul></div>")
 

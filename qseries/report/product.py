@@ -32,17 +32,27 @@ def product_lines(pf: ProductForm) -> list[str]:
     if pf.expression is None:
         return [f"no product form of this kind to this order: {pf.reason}"]
     order = coefficient_text(pf.order)
-    lines = [pf.expression + f" + O(q^{order})"]
-    if pf.period:
-        lines.append(f"  the exponents repeat with period {pf.period} ({pf.repetitions} full "
-                     f"periods below q^{order})")
-    else:
-        lines.append("  no period in the exponents below the order; the product is finite")
+    return [pf.expression + f" + O(q^{order})"] + \
+        [f"  {label}{value}" for label, value in product_notes(pf)]
+
+
+def product_notes(pf: ProductForm) -> list[tuple[str, str]]:
+    """The notes under a product form, as (sentence, notation) pairs (the notation empty
+    where there is none), for the text and the HTML report alike.
+
+    >>> from qseries.analysis import product_form
+    >>> product_notes(product_form("(q;q)_inf", 12))[1]
+    ('as an eta quotient: ', 'eta(q) q^(-1/24)')
+    """
+    order = coefficient_text(pf.order)
+    notes = [(f"the exponents repeat with period {pf.period} ({pf.repetitions} full "
+              f"periods below q^{order})", "") if pf.period else
+             ("no period in the exponents below the order; the product is finite", "")]
     if pf.factors:
-        lines.append(f"  in fewer factors: {pf.factors}")
+        notes.append(("in fewer factors: ", pf.factors))
     if pf.eta:
-        lines.append(f"  as an eta quotient: {pf.eta}")
-    return lines
+        notes.append(("as an eta quotient: ", pf.eta))
+    return notes
 
 
 def no_product_line(reason: str) -> str:
