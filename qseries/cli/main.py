@@ -15,7 +15,7 @@ import time
 from enum import StrEnum
 from fractions import Fraction
 from pathlib import Path
-from typing import Annotated, Any
+from typing import Annotated, Any, NoReturn
 
 import typer
 from typer.core import TyperGroup
@@ -226,6 +226,17 @@ def _fail(message: str, err: QSeriesError | None = None) -> None:
         raise typer.Exit(2)
     typer.echo(f"qseries: error: {message}", err=True)
     raise typer.Exit(2)
+
+
+def _emit(as_json: bool, result: Any, shape: Any, lines: Any, found: bool) -> NoReturn:
+    """Print ``shape(result)`` as JSON or ``lines(result)`` as text, then exit 0 when
+    something was found (a relation, a combination, divisibility) and 1 when not."""
+    if as_json:
+        typer.echo(json.dumps(shape(result)))
+    else:
+        for line in lines(result):
+            typer.echo(line)
+    raise typer.Exit(0 if found else 1)
 
 
 def _guarded(fn: Any, *args: Any) -> Any:
@@ -610,12 +621,7 @@ def congruences_cmd(
         if r is None:
             _fail(f"--residue {residue!r}: write a whole number or a fraction such as 95/24")
     result = _guarded(lambda: divisible(node, modulus, order, m=step, r=r))
-    if as_json:
-        typer.echo(json.dumps(divisibility_json(result)))
-    else:
-        for line in divisibility_lines(result):
-            typer.echo(line)
-    raise typer.Exit(0 if result.holds else 1)
+    _emit(as_json, result, divisibility_json, divisibility_lines, bool(result.holds))
 
 
 @app.command(name="relations")
@@ -641,12 +647,7 @@ def relations_cmd(
 
     nodes = _parsed(exprs, define)
     found = _guarded(lambda: relations(nodes, order, degree=degree, labels=exprs))
-    if as_json:
-        typer.echo(json.dumps(relations_json(found)))
-    else:
-        for line in relation_lines(found):
-            typer.echo(line)
-    raise typer.Exit(0 if found.relations else 1)
+    _emit(as_json, found, relations_json, relation_lines, bool(found.relations))
 
 
 @app.command(name="express")
@@ -671,12 +672,7 @@ def express_cmd(
 
     nodes = _parsed([target, *basis], define)
     found = _guarded(lambda: express(nodes[0], nodes[1:], order, labels=[target, *basis]))
-    if as_json:
-        typer.echo(json.dumps(combination_json(found)))
-    else:
-        for line in combination_lines(found):
-            typer.echo(line)
-    raise typer.Exit(0 if found.coefficients is not None else 1)
+    _emit(as_json, found, combination_json, combination_lines, found.coefficients is not None)
 
 
 @app.command()
