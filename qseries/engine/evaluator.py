@@ -44,7 +44,7 @@ from ..lang.parser import parse
 from ..products import FUNCTIONS, monomial_parts
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, ring_for
 from ..series.formatting import short_number_text
-from . import chains, chooser, prod_pochhammer, ranges, reorder, sums
+from . import chains, chooser, prod_pochhammer, ranges, reflect, reorder, sums
 from .termination import TermBounds
 from .terms import (
     MAX_INTEGER,
@@ -92,7 +92,7 @@ class Evaluator:
         self._cache: dict[tuple, Any] = {}
         self._free: dict[int, tuple[Node, frozenset[str]]] = {}
         self._hasq: dict[int, tuple[Node, bool]] = {}
-        self._reorders: dict[int, tuple[BigOp, BigOp]] = {}
+        self._reorders: dict[int, tuple[BigOp, Node]] = {}
         self.bounds = TermBounds(self)
         self._terms = 0
         #: nodes the engine builds (``prod_pochhammer``), kept alive with the evaluator
@@ -369,6 +369,14 @@ class Evaluator:
                 break
         if isinstance(node, Q):
             return c, Fraction(1)
+        if isinstance(node, BinOp) and node.op in "*/" and self.has_q(node.left):
+            # c q^a / (d q^b) and c q^a * d q^b, as (a;q)_(-n) = (-q/a)^n ... writes them
+            left, right = self._monomial_of(node.left, env), self._monomial_of(node.right, env)
+            if left is None or right is None or (node.op == "/" and right[0] == 0):
+                return None
+            if node.op == "*":
+                return c * left[0] * right[0], left[1] + right[1]
+            return c * left[0] / right[0], left[1] - right[1]
         if isinstance(node, BinOp) and node.op == "^" and isinstance(node.left, Q):
             e = self.scalar(node.right, env)
             if abs(e) <= MAX_INTEGER:
@@ -460,17 +468,23 @@ class Evaluator:
         second = chooser.pochhammer_value(-a.shift(t), 2 * t, odd, order, self.allowed)
         return (first * second).truncate(order)
 
-    def _reordered(self, node: BigOp) -> BigOp:
+    def _reordered(self, node: BigOp) -> Node:
         """``node``, or the same sum reordered when its inner sum's upper limit depends on
-        the outer variable (``reorder.dependent_upper``); kept alive with the original, as
-        the caches key nodes by id()."""
+        the outer variable (``reorder.dependent_upper``), or, for a sum from -inf whose
+        q-Pochhammer subscripts fall with the index, its two halves with the negative one
+        reflected (``reflect.negative_half``); kept alive with the original, as the caches
+        key nodes by id()."""
         hit = self._reorders.get(id(node))
         if hit is None or hit[0] is not node:
-            hit = self._reorders[id(node)] = (node, reorder.dependent_upper(node) or node)
+            new = reorder.dependent_upper(node) or reflect.negative_half(node) or node
+            hit = self._reorders[id(node)] = (node, new)
         return hit[1]
 
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
-        node = self._reordered(node)
+        new = self._reordered(node)
+        if not isinstance(new, BigOp):
+            return self.value(new, env, order)
+        node = new
         if not self.has_q(node.body):
             return ranges.numbers(self, node, env)
         ks, cut = ranges.term_range(self, node, env, order, deviation=False)
@@ -493,7 +507,10 @@ class Evaluator:
         key = ("parts", id(node), order)
         hit = self._cache.get(key) if closed else None
         if hit is None:
-            node = self._reordered(node)
+            new = self._reordered(node)
+            if not isinstance(new, BigOp):
+                return self.value(new, env, order), None
+            node = new
             ks, cut = ranges.term_range(self, node, env, order, deviation=False)
             got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
             hit = got if isinstance(got, tuple) else (got, None)

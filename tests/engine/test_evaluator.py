@@ -390,3 +390,11 @@ def test_one_evaluator_on_many_trees():
     for _ in range(20):
         for text in texts:
             assert ev.evaluate(parse(text), 30) == Evaluator(ZZ).evaluate(parse(text), 30)
+
+
+def test_a_parameter_written_as_a_quotient_of_monomials_is_a_monomial():
+    """-q/q^3 is -q^-2: its symbol (-q/q^3;q)_n has finitely many factors of negative
+    degree, as (-q^-2;q)_n has (before, only the second spelling was bounded)."""
+    a = evaluate("sum_{n>=1} (q^-2)^n q^(n(n-1)/2)/(-q/q^3;q)_n", 30)
+    b = evaluate("sum_{n>=1} (q^-2)^n q^(n(n-1)/2)/(-q^(-2);q)_n", 30)
+    assert a == b and a.precision is not None and a.precision >= 25
