@@ -21,10 +21,9 @@ the order of summation does not change the value.
 
 from __future__ import annotations
 
-import dataclasses
 from fractions import Fraction
 
-from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, Poch, Q, children
+from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, Poch, Q, replace_name
 
 Linear = tuple[Fraction, Fraction]
 
@@ -132,24 +131,6 @@ def _factors(node: Node, sign: int, out: list[tuple[Node, int]]) -> None:
         out.append((node, sign))
 
 
-def _substituted(node: Node, var: str) -> Node:
-    """``node`` with the bound name ``var`` replaced by -``var``."""
-    if isinstance(node, Name):
-        return Neg(node, node.pos) if node.name == var else node
-    if isinstance(node, BigOp) and node.var == var:
-        return node                       # an inner sum binding the same name
-    if not children(node):
-        return node
-    fields: dict[str, object] = {}
-    for f in dataclasses.fields(node):
-        v = getattr(node, f.name)
-        if isinstance(v, Node):
-            fields[f.name] = _substituted(v, var)
-        elif isinstance(v, tuple) and v and isinstance(v[0], Node):
-            fields[f.name] = tuple(_substituted(x, var) for x in v)
-    return dataclasses.replace(node, **fields)
-
-
 def _product(factors: list[Node], pos: int) -> Node:
     out = factors[0] if factors else Num(Fraction(1), pos)
     for f in factors[1:]:
@@ -175,7 +156,7 @@ def reflected_body(body: Node, var: str) -> tuple[Node, int | None] | None:
     4
     """
     factors: list[tuple[Node, int]] = []
-    _factors(_substituted(body, var), 1, factors)
+    _factors(replace_name(body, var, Neg(Name(var, body.pos), body.pos)), 1, factors)
     top: list[Node] = []
     bottom: list[Node] = []
     a2, a1, a0 = Fraction(0), Fraction(0), Fraction(0)     # the exponent of q, in var

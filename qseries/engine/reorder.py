@@ -23,7 +23,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..lang.ast import BigOp, BinOp, Name, Node, Num, free_names
+from ..lang.ast import BigOp, BinOp, Name, Node, Num, free_names, replace_name
 
 
 def _offset_from(upper: Node, var: str) -> Fraction | None:
@@ -40,13 +40,17 @@ def _offset_from(upper: Node, var: str) -> Fraction | None:
     return None
 
 
-def dependent_upper(node: BigOp) -> BigOp | None:
+def dependent_upper(node: BigOp) -> Node | None:
     """The reordered sum when ``node`` is ``sum_{a>=A} X sum_{b=B}^{a+c} T`` (X a factor
-    free of b, or absent; A, B and c integers with A <= B - c), else None.
+    free of b, or absent; A, B and c integers), else None.  When A > B - c the pairs are
+    those of two pieces: ``sum_{b=B}^{A+c} sum_{a>=A} XT + sum_{b>=A+c+1} sum_{a>=b-c} XT``.
 
     >>> from qseries.lang.parser import parse
+    >>> from qseries.lang.printer import show
     >>> dependent_upper(parse("sum_{n>=0} sum_{k=0}^{5} q^(n+k)")) is None   # not dependent
     True
+    >>> show(dependent_upper(parse("sum_{n>=1} sum_{k=0}^{n} q^(n+k)")))
+    'sum_{k=0}^{1} sum_{n>=1} q^(n + k) + sum_{k>=0} sum_{n>=k + 2} q^(n + (2 + k))'
     """
     if node.kind != "sum" or node.upper is not None or not isinstance(node.lower, Num):
         return None
@@ -66,13 +70,25 @@ def dependent_upper(node: BigOp) -> BigOp | None:
     if c is None or c.denominator != 1 or node.lower.value.denominator != 1 or \
             inner.lower.value.denominator != 1 or b == a:
         return None
-    if node.lower.value > inner.lower.value - c:
-        return None                      # a >= max(A, b - c): not one chain
     if outside is not None and b in free_names(outside):
         return None                      # moving X inside the sum over b would capture b
     new_body = inner.body if outside is None else BinOp("*", outside, inner.body, body.pos)
     low: Node = Name(b, inner.pos)
     if c:
         low = BinOp("-", low, Num(c, inner.pos), inner.pos)
-    return BigOp("sum", b, inner.lower, None,
-                 BigOp("sum", a, low, None, new_body, node.pos), inner.pos)
+    big_a = node.lower.value
+    if big_a <= inner.lower.value - c:
+        return BigOp("sum", b, inner.lower, None,
+                     BigOp("sum", a, low, None, new_body, node.pos), inner.pos)
+    # A > B - c: for b <= A + c every a >= A is allowed; beyond, a >= b - c, written with
+    # b = A + c + 1 + b' (b' >= 0, keeping the name b) so that the chain's limits are
+    # polynomials with non-negative coefficients in b', as the valuation analysis needs
+    p = inner.pos
+    head = BigOp("sum", b, inner.lower, Num(big_a + c, p),
+                 BigOp("sum", a, node.lower, None, new_body, node.pos), p)
+    start = Num(big_a + c + 1, p)
+    shifted = replace_name(new_body, b, BinOp("+", start, Name(b, p), p))
+    tail_low = BinOp("+", Name(b, p), Num(big_a + 1, p), p)          # b - c = b' + A + 1
+    tail = BigOp("sum", b, Num(Fraction(0), p), None,
+                 BigOp("sum", a, tail_low, None, shifted, node.pos), p)
+    return BinOp("+", head, tail, p)

@@ -21,13 +21,12 @@ rule applies, :class:`NoBound` says why and the caller refuses to truncate.
 
 from __future__ import annotations
 
-import dataclasses
 from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any
 
 from ..errors import DomainError, QSeriesError
-from ..lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q
+from ..lang.ast import BigO, BigOp, BinOp, Call, Name, Neg, Node, Num, Poch, Q, replace_name
 from ..products import FUNCTIONS, monomial_parts
 from . import symbolic as sym
 
@@ -41,18 +40,7 @@ def _shift_name(node: Node, name: str, by: Node) -> Node:
     >>> show(_shift_name(parse("(q;q)_(n - m)", bound={"n", "m"}), "n", parse("m", bound={"m"})))
     '(q;q)_{m + n - m}'
     """
-    if isinstance(node, Name):
-        return BinOp("+", by, node, node.pos) if node.name == name else node
-    if isinstance(node, BigOp) and node.var == name:
-        return node
-    changes: dict[str, object] = {}
-    for f in dataclasses.fields(node):
-        v = getattr(node, f.name)
-        if isinstance(v, Node):
-            changes[f.name] = _shift_name(v, name, by)
-        elif isinstance(v, tuple) and v and isinstance(v[0], Node):
-            changes[f.name] = tuple(_shift_name(x, name, by) for x in v)
-    return dataclasses.replace(node, **changes) if changes else node
+    return replace_name(node, name, BinOp("+", by, Name(name, node.pos), node.pos))
 
 
 class NoBound(Exception):

@@ -9,6 +9,7 @@ True
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass, field
 from fractions import Fraction
 
@@ -224,3 +225,28 @@ def extra_variables(node: Node) -> frozenset[str]:
             out.add(c.name)
         stack.extend([c.body] if isinstance(c, BigOp) else children(c))
     return frozenset(out)
+
+
+def replace_name(node: Node, name: str, by: Node) -> Node:
+    """``node`` with every free occurrence of the bound variable ``name`` replaced by the
+    tree ``by`` (sums and products that rebind ``name`` are left alone; ``by`` may mention
+    ``name`` itself, as in k -> k + 3 or k -> -k).
+
+    >>> from qseries.lang.parser import parse
+    >>> from qseries.lang.printer import show
+    >>> k = parse("k", bound={"k"})
+    >>> show(replace_name(parse("q^k (q;q)_(2k)", bound={"k"}), "k", Neg(k)))
+    'q^-k * (q;q)_{2 * -k}'
+    """
+    if isinstance(node, Name):
+        return by if node.name == name else node
+    if isinstance(node, BigOp) and node.var == name:
+        return node
+    changes: dict[str, object] = {}
+    for f in dataclasses.fields(node):
+        v = getattr(node, f.name)
+        if isinstance(v, Node):
+            changes[f.name] = replace_name(v, name, by)
+        elif isinstance(v, tuple) and v and isinstance(v[0], Node):
+            changes[f.name] = tuple(replace_name(x, name, by) for x in v)
+    return dataclasses.replace(node, **changes) if changes else node
