@@ -71,6 +71,7 @@ from ..report import (
 from ..report.distribution import counts_csv
 from ..report.latex import check_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
+from . import streams
 from .demo import DEMO_CASES
 from .progress import run_with_bar
 
@@ -739,14 +740,12 @@ def verify(
     """
     import time
 
-    from rich.console import Console
-
     from ..catalogue import VerifyInterrupted
     from .progress import verify_with_bar
 
     entries = _load(paths, only or [])
     t0 = time.perf_counter()
-    console = Console()
+    console = streams.stdout_console()
     interrupted = streamed = False
     labels = {e.ident: e.label for e in entries}
     expects = {e.ident: e.expect for e in entries}
@@ -797,10 +796,8 @@ def list_cmd(
     if sources:
         typer.echo("\n".join(sources_lines(listing_rows(entries))))
         return
-    from rich.console import Console
-
     rows = listing_rows(entries)
-    console = Console()
+    console = streams.stdout_console()
     console.print(listing_table(rows))
     console.print(listing_summary(rows))
 
@@ -818,3 +815,9 @@ def run() -> None:
     except KeyboardInterrupt:
         typer.echo("qseries: interrupted", err=True)
         sys.exit(130)
+    except SystemExit as done:
+        # typer (its copy of click) ends a write to a closed pipe with exit code 1 after
+        # wrapping the streams in a PacifyFlushWrapper; 1 means "differs" here
+        if done.code == 1 and type(sys.stdout).__name__ == "PacifyFlushWrapper":
+            sys.exit(streams.EXIT_PIPE_CLOSED)
+        raise

@@ -84,9 +84,9 @@ def verify_with_bar(entries: list, order: int | None, jobs: int | None, show: bo
 
     console = None
     if show:
-        from rich.console import Console
+        from .streams import stdout_console
 
-        console = Console()
+        console = stdout_console()
         console = console if console.is_terminal else None
     if console is None:
         return verify_entries(entries, order, jobs), False
