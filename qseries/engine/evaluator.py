@@ -44,7 +44,7 @@ from ..lang.parser import parse
 from ..products import FUNCTIONS, monomial_parts
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, ring_for
 from ..series.formatting import short_number_text
-from . import chains, chooser, prod_pochhammer, ranges, reflect, reorder, sums
+from . import chains, chooser, prod_pochhammer, ranges, reflect, reorder, sums, triple_pairs
 from .termination import TermBounds
 from .terms import (
     MAX_INTEGER,
@@ -263,8 +263,14 @@ class Evaluator:
                 return acc
             if node.op in "*/":
                 return chains.chain(self, factors_of(node), env, order)
+            if self._paired(node.left, env):
+                powers = factors_of(node)
+                if powers[0][0] is node.left:   # (a, b;q^m)_inf^p, p an integer: a pair
+                    return chains.chain(self, powers, env, order)   # takes the triple product
             return self._power(node, env, order)
         if isinstance(node, Poch):
+            if self._paired(node, env):
+                return chains.chain(self, [(node, 1)], env, order)
             return self._poch(node, env, order)
         if isinstance(node, BigOp):
             if node.kind == "sum":
@@ -467,6 +473,15 @@ class Evaluator:
         first = chooser.pochhammer_value(a, 2 * t, even, order, self.allowed)
         second = chooser.pochhammer_value(-a.shift(t), 2 * t, odd, order, self.allowed)
         return (first * second).truncate(order)
+
+    def _paired(self, node: Node, env: dict[str, int]) -> bool:
+        """True for (q^a_1, ..., q^a_r;q^m)_inf, r >= 2, when the strategy ``triple-pairs``
+        may take it (as a factor of a product it would): the product evaluates it, and all
+        of its parameters, paired or not, are taken there, so this does not recurse."""
+        if not isinstance(node, Poch) or node.length is not None or len(node.params) < 2 \
+                or "triple-pairs" not in self.allowed:
+            return False
+        return triple_pairs.poch_atoms(self, node, env) is not None
 
     def _reordered(self, node: BigOp) -> Node:
         """``node``, or the same sum reordered when its inner sum's upper limit depends on

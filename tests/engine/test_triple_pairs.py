@@ -6,18 +6,13 @@ from qseries.engine import triple_pairs
 
 from .strategy_helpers import RINGS, both
 
-LONE = pytest.mark.xfail(strict=True, reason="found by this test: a lone multi-parameter "
-                         "symbol (q^a, q^(m-a);q^m)_inf does not take the triple-pairs path "
-                         "(as a factor of a product it does); a missed fast path, the value "
-                         "is right")
-
 TEXTS = [
     "1/((q;q^5)_inf (q^4;q^5)_inf)",
     "(q^2;q^7)_inf^3 (q^5;q^7)_inf^3 (q;q)_inf",
     "(q;q^8)_inf^-2 (q^7;q^8)_inf^-2",
     "2 (q,q^3;q^4)_inf",
-    pytest.param("(q,q^3;q^4)_inf", marks=LONE),
-    pytest.param("(q, q^4;q^5)_inf^-1", marks=LONE),      # as `qseries product` prints it
+    "(q,q^3;q^4)_inf",          # a lone symbol with a pair (was a missed fast path)
+    "(q, q^4;q^5)_inf^-1",      # as `qseries product` prints it
 ]
 
 
@@ -47,3 +42,16 @@ def test_the_pairs_are_computed_by_the_strategy(text, monkeypatch):
     calls = _counting(monkeypatch)
     both(text, 200, "triple-pairs")
     assert calls, "the strategy was not used"
+
+
+def test_other_powers_of_a_lone_pair_still_take_the_general_path():
+    """Regression: routing (a, b;q^m)_inf^p to the product must not loop on a power that is
+    not an integer or that depends on a sum's index."""
+    from qseries import evaluate
+    from qseries.errors import QSeriesError
+
+    with pytest.raises(QSeriesError, match="integer powers"):
+        evaluate("(q,q^4;q^5)_inf^(1/2)", 8)
+    by_index = evaluate("sum_{k=0}^{2} (q,q^4;q^5)_inf^(-k)", 40)
+    g = evaluate("1/((q;q^5)_inf (q^4;q^5)_inf)", 40)          # Rogers-Ramanujan's G
+    assert by_index == (1 + g + g * g).truncate(40)
