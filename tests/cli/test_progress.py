@@ -146,12 +146,13 @@ def test_the_stages_check_reports_are_steps_of_the_bar():
 
 def test_primes_in_worker_processes_are_steps_too():
     # from order 50000 (chooser.PARALLEL_ORDER) the other primes run in worker processes;
-    # each is reported as it is waited for. Euler's pentagonal number theorem.
+    # each is reported as it is waited for; the first prime, in this process, also per
+    # side (one part each). Euler's pentagonal number theorem.
     said = []
     r = check("(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)", order=50_000,
               method="modular", primes=3, progress=said.append)
     assert r.holds
-    assert [stage_step(t) for t in said] == [(0, 3), (1, 3), (2, 3)]
+    assert [stage_step(t) for t in said] == [(0, 3), (0.5, 3), (1, 3), (1, 3), (2, 3)]
 
 
 @pytest.mark.parametrize("args", [
