@@ -88,7 +88,15 @@ class PartTracker:
 @contextmanager
 def tracking(ev: Evaluator, node: Node) -> Iterator[None]:
     """While evaluating ``node``, let ``ev`` report its parts to ``ev.progress`` (if any);
-    the parts left are reported at a normal end."""
+    the parts left are reported at a normal end.
+
+    >>> from qseries.engine import Evaluator
+    >>> from qseries.lang import parse
+    >>> ev = Evaluator(progress=print)
+    >>> with tracking(ev, parse("(q;q)_inf")):
+    ...     pass
+    (q;q)_inf 1 1
+    """
     if ev.progress is None:
         yield
         return
