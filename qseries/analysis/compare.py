@@ -38,6 +38,7 @@ from ..engine.chooser import (
     AUTO_PROBE_ORDER,
     PARALLEL_ORDER,
 )
+from ..engine.progress import PartProgress
 from ..errors import (
     ArgumentError,
     ArgumentTypeError,
@@ -377,7 +378,10 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     coefficients exactly at a mismatch; ``"auto"`` may use it above order 3000 (above 400
     with extra variables): see :func:`auto_method`.  ``ring`` is ZZ, QQ or GF(p); the
     modular method and extra variables need ZZ or QQ.  ``progress`` (if given) is called
-    with a short text at each stage.
+    with a short text at each stage: each side, each prime, and each top-level sum or
+    product of a side as it is evaluated ("left side: evaluated part 1 of 2, (q;q)_inf";
+    with the modular method prefixed by "prime 1 of 3, "; primes in worker processes
+    report only as a whole).
 
     Extra variables (z, a, ...) make the coefficients Laurent polynomials in them; the
     modular method then also sets them to random residues (Schwartz-Zippel).  ``weights``
@@ -407,7 +411,7 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     if weights is None and names:
         tries.append({v: 1 for v in names})
     t0 = time.perf_counter()
-    say = progress or (lambda _text: None)
+    say = progress or _silent
     if method == "modular" and weights is None and names and _weights_needed(lnode, rnode, ring,
                                                                             names):
         # modulo p the variables are numbers, and a sum such as sum z^k (a;q)_k/(q;q)_k that
@@ -520,9 +524,11 @@ def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
                  ) -> CheckResult:
     ring = ring_for(names, ring)
     say("evaluating the left side")
-    left = evaluate(lnode, order, ring, _own(weights, lnode))
+    left = evaluate(lnode, order, ring, _own(weights, lnode),
+                    progress=_part_stages(say, "left side"))
     say("evaluating the right side")
-    right = evaluate(rnode, order, ring, _own(weights, rnode))
+    right = evaluate(rnode, order, ring, _own(weights, rnode),
+                     progress=_part_stages(say, "right side"))
     verified, mismatch = compare_series(left, right, order)
     holds = None if mismatch is None and _nothing_compared(verified, left, right) else \
         mismatch is None
@@ -535,16 +541,31 @@ def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
 
 
 
+def _silent(_text: str) -> None:
+    """The stages of a check nobody follows."""
+
+
+def _part_stages(say: Callable[[str], None], side: str) -> PartProgress | None:
+    """The engine's progress over the parts of one side (``engine.progress``) as stages of
+    :func:`check`: "left side: evaluated part 1 of 2, (q;q)_inf"; None when nobody follows."""
+    if say is _silent:
+        return None
+    return lambda text, done, total: say(f"{side}: evaluated part {done} of {total}, {text}")
+
+
 def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[str, ...] = (),
-                   weights: dict[str, int] | None = None) -> tuple[Parts, Parts]:
+                   weights: dict[str, int] | None = None,
+                   say: Callable[[str], None] = _silent) -> tuple[Parts, Parts]:
     # the extra variables get random nonzero residues, drawn from the prime itself (so the
     # draw is reproducible and differs between primes)
     rng = random.Random(p)
     values = {v: rng.randrange(1, p) for v in names}
     ring = GF(p)
     try:
-        ev_l = Evaluator(ring, values=values, weights=weights)
-        ev_r = Evaluator(ring, values=values, weights=weights)
+        ev_l = Evaluator(ring, values=values, weights=weights,
+                         progress=_part_stages(say, "left side"))
+        ev_r = Evaluator(ring, values=values, weights=weights,
+                         progress=_part_stages(say, "right side"))
         left, right = ev_l.evaluate_parts(lnode, order), ev_r.evaluate_parts(rnode, order)
         # a side of negative valuation times the other side's denominator (known modulo
         # q^order) would be known to less than the order: that side is divided out instead
@@ -596,14 +617,21 @@ Outcome = tuple[Exponent, Exponent | None, bool, tuple[Exponent, Exponent]]
 
 
 def _modular_compare(lnode: Node, rnode: Node, order: int, p: int,
-                     names: tuple[str, ...] = (), weights: dict[str, int] | None = None
-                     ) -> Outcome:
-    sides = _modular_sides(lnode, rnode, order, p, names, weights)
+                     names: tuple[str, ...] = (), weights: dict[str, int] | None = None,
+                     say: Callable[[str], None] = _silent) -> Outcome:
+    sides = _modular_sides(lnode, rnode, order, p, names, weights, say)
     left, right = _cross(*sides)
     verified, mismatch = compare_series(left, right, order)
     known = tuple(min(_known_to(x, order) for x in side if x is not None) for side in sides)
     return (verified, None if mismatch is None else mismatch.exponent,
             _nothing_compared(verified, left, right), known)   # type: ignore[return-value]
+
+
+def _in_prime(say: Callable[[str], None], i: int, k: int) -> Callable[[str], None]:
+    """The stages of the i-th of k primes, so named."""
+    if say is _silent:
+        return _silent
+    return lambda text: say(f"prime {i} of {k}, {text}")
 
 
 def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | None,
@@ -625,7 +653,8 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
         futures = [pool.submit(_modular_compare, lnode, rnode, order, p, names, weights)
                    for p in ps[1:]] if pool else []
         say(f"comparing modulo {len(ps)} primes" + (" in parallel" if pool else ""))
-        outcomes = [_modular_compare(lnode, rnode, order, ps[0], names, weights)]
+        outcomes = [_modular_compare(lnode, rnode, order, ps[0], names, weights,
+                                     _in_prime(say, 1, len(ps)))]
         if pool:
             for i, future in enumerate(futures, start=2):
                 say(f"comparing modulo prime {i} of {len(ps)} (in a worker process)")
@@ -633,7 +662,8 @@ def _check_modular(lnode: Node, rnode: Node, order: int, k: int, seed: int | Non
         else:
             for i, p in enumerate(ps[1:], start=2):
                 say(f"comparing modulo prime {i} of {len(ps)}")
-                outcomes.append(_modular_compare(lnode, rnode, order, p, names, weights))
+                outcomes.append(_modular_compare(lnode, rnode, order, p, names, weights,
+                                                 _in_prime(say, i, len(ps))))
     finally:
         if pool:
             pool.shutdown(cancel_futures=True)

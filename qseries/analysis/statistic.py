@@ -14,6 +14,7 @@ distribution: 0, 1, 0, 3, 0, 15, 0, 105, ...  (see the contributor guide's metho
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from dataclasses import dataclass, field
 from fractions import Fraction
 
@@ -107,15 +108,22 @@ def normal_moment(r: int) -> int:
     return out
 
 
-def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribution]:
+def distributions(expr: str | Node, var: str, sizes: list[int],
+                  progress: Callable[[int, int, int], None] | None = None
+                  ) -> list[Distribution]:
     """The distribution of the statistic marked by ``var`` at each size n in ``sizes``.
 
     The coefficient of q^n must be a Laurent polynomial in ``var`` with non-negative integer
     coefficients (they count objects); other extra variables are refused.  ``sizes`` is a
-    list (or tuple, or range) of integers in 0 .. 100000.
+    list (or tuple, or range) of integers in 0 .. 100000.  The series is evaluated once,
+    to O(q^(max(sizes) + 1)); then ``progress(n, done, total)`` (if given) is called as the
+    distribution at each size is read, in the order of ``sizes``.
 
     >>> [d.total for d in distributions("1/(z*q;q)_inf", "z", [5, 6])]   # p(5), p(6)
     [7, 11]
+    >>> _ = distributions("1/(z*q;q)_inf", "z", [5, 6], progress=print)
+    5 1 2
+    6 2 2
     """
     typed_argument("expr", expr, (str, Node), "an expression (a string, or a syntax tree "
                                               "from qseries.parse)")
@@ -125,6 +133,9 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
                                 f"{type(sizes).__name__}")
     if not sizes:
         raise ArgumentError("sizes is empty: give at least one size n")
+    if progress is not None and not callable(progress):
+        raise ArgumentTypeError(f"progress must be a function of (n, done, total), not "
+                                f"{type(progress).__name__}")
     for i, n in enumerate(sizes):
         if isinstance(n, bool) or not isinstance(n, int):
             raise ArgumentTypeError(f"sizes must be integers, but sizes[{i}] is {n!r} "
@@ -176,4 +187,6 @@ def distributions(expr: str | Node, var: str, sizes: list[int]) -> list[Distribu
             raise DomainError(f"there are no objects of size {n} (the coefficient of q^{n} "
                               f"is 0)")
         out.append(Distribution(n, dict(sorted(counts.items())), var))
+        if progress is not None:
+            progress(n, len(out), len(sizes))
     return out

@@ -73,7 +73,7 @@ from ..report.latex import check_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
 from . import streams
 from .demo import DEMO_CASES
-from .progress import run_with_bar
+from .progress import counted_with_bar, run_with_bar
 
 
 class _Commands(TyperGroup):
@@ -515,8 +515,13 @@ def distribution(
     _refuse_long(allow_long, [node], max(sizes + trend) + 1,
                  smaller="smaller sizes (--at, --trend-upto)")
     top = max(sizes + trend)
-    dists = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{top + 1}) for n up to {top}",
-                     top, distributions, node, var, sorted(set(sizes + trend)))
+
+    def read(step: Any) -> Any:     # one step of the bar per n, after the evaluation
+        return distributions(node, var, sorted(set(sizes + trend)), progress=lambda n, i, k:
+                             step(f"reading the distribution at n = {n}", i, k))
+
+    dists = _guarded(counted_with_bar, read, not (quiet or as_json) and top >= STATUS_ORDER,
+                     f"evaluating to O(q^{top + 1}) for n up to {top}")
     by_n = {d.n: d for d in dists}
     if fit is not None and (plot is None or sizes):
         _fail("--fit goes with --plot of the --trend-upto table (and no --at)")

@@ -1,5 +1,7 @@
 """Progress on a terminal for the long commands: a bar per prime (or per side) for
-``check``, a bar per entry for ``verify`` with each entry's line printed as it finishes.
+``check`` that also advances as each sum or product of a side is evaluated, a bar per n
+for ``distribution --trend-upto``, a bar per entry for ``verify`` with each entry's line
+printed as it finishes.
 Nothing is shown on a non-terminal, under ``--json`` or with ``--quiet``; rich is imported
 only when a bar is shown.
 """
@@ -9,6 +11,7 @@ from __future__ import annotations
 import re
 import sys
 from collections.abc import Callable, Mapping
+from fractions import Fraction
 from typing import Any
 
 #: "comparing modulo prime 2 of 3", "evaluating the right side": the stages ``check``
@@ -16,6 +19,10 @@ from typing import Any
 _PRIME = re.compile(r"prime (\d+) of (\d+)")
 _PRIMES = re.compile(r"modulo (\d+) primes")
 _SIDES = {"evaluating the left side": (0, 2), "evaluating the right side": (1, 2)}
+#: "left side: evaluated part 1 of 2, (q;q)_inf", maybe after "prime 2 of 3, "
+_PART = re.compile(r"(left|right) side: evaluated part (\d+) of (\d+)")
+#: the longest stage text shown beside a bar
+WIDTH = 70
 
 
 def _console() -> Any | None:
@@ -28,17 +35,30 @@ def _console() -> Any | None:
     return console if console.is_terminal else None
 
 
-def stage_step(text: str) -> tuple[int, int] | None:
+def stage_step(text: str) -> tuple[int | float, int] | None:
     """(steps done, steps in all) that a stage reported by ``check`` stands for, or None
-    for a stage that is not a step.
+    for a stage that is not a step.  The steps are the sides (or the primes); an evaluated
+    part of a side is its share of the side's step.
 
     >>> stage_step("comparing modulo prime 2 of 3"), stage_step("evaluating the right side")
     ((1, 3), (1, 2))
     >>> stage_step("comparing modulo 3 primes in parallel")
     (0, 3)
+    >>> stage_step("right side: evaluated part 1 of 2, (q;q)_inf")
+    (1.5, 2)
+    >>> stage_step("prime 2 of 3, left side: evaluated part 1 of 1, (q;q)_inf")
+    (1.5, 3)
     >>> stage_step("recomputing the first mismatch exactly") is None
     True
     """
+    part = _PART.search(text)
+    if part:
+        side = Fraction(part.group(1) == "right") + Fraction(int(part.group(2)),
+                                                              int(part.group(3)))
+        m = _PRIME.search(text)
+        done, total = (side, 2) if m is None else (int(m.group(1)) - 1 + side / 2,
+                                                   int(m.group(2)))
+        return (int(done) if done.denominator == 1 else float(done)), total
     m = _PRIME.search(text)
     if m:
         return int(m.group(1)) - 1, int(m.group(2))
@@ -46,6 +66,15 @@ def stage_step(text: str) -> tuple[int, int] | None:
     if m:
         return 0, int(m.group(1))
     return _SIDES.get(text)
+
+
+def shortened(text: str, width: int = WIDTH) -> str:
+    """``text`` cut to ``width`` characters (an ellipsis at the end when cut).
+
+    >>> shortened("left side: evaluated part 1 of 1, sum_{n>=0} q^(n^2) / (q;q)_n", 40)
+    'left side: evaluated part 1 of 1, sum...'
+    """
+    return text if len(text) <= width else text[:width - 3] + "..."
 
 
 def run_with_bar(run: Callable[[Callable[[str], None]], Any], show: bool,
@@ -65,12 +94,35 @@ def run_with_bar(run: Callable[[Callable[[str], None]], Any], show: bool,
 
         def say(text: str) -> None:
             step = stage_step(text)
+            text = shortened(text)
             if step is None:
                 bar.update(task, description=text)
             else:
                 bar.update(task, description=text, completed=step[0], total=step[1])
 
         return run(say)
+
+
+def counted_with_bar(run: Callable[[Callable[[str, int, int], None]], Any], show: bool,
+                     description: str) -> Any:
+    """``run(step)`` with, on a terminal and when ``show``, a transient bar: a moving one
+    named ``description`` until the first ``step(text, done, total)``, then ``done`` of
+    ``total`` with ``text`` beside it (``distribution --trend-upto``: one step per n);
+    elsewhere ``step`` does nothing."""
+    console = _console() if show else None
+    if console is None:
+        return run(lambda _text, _done, _total: None)
+    from rich.progress import BarColumn, Progress, TextColumn, TimeElapsedColumn
+
+    with Progress(TextColumn("{task.description}"), BarColumn(), TimeElapsedColumn(),
+                  console=console, transient=True) as bar:
+        task = bar.add_task(description, total=None)
+
+        def step(text: str, done: int, total: int) -> None:
+            bar.update(task, description=shortened(f"{text} ({done} of {total})"),
+                       completed=done, total=total)
+
+        return run(step)
 
 
 def verify_with_bar(entries: list, order: int | None, jobs: int | None, show: bool,

@@ -45,6 +45,7 @@ from ..products import FUNCTIONS, monomial_parts
 from ..series import MAX_LENGTH, ZZ, LaurentPoly, Ring, Series, ring_for
 from ..series.formatting import short_number_text
 from . import chains, chooser, prod_pochhammer, ranges, reflect, reorder, sums, triple_pairs
+from .progress import PartProgress, PartTracker, tracking
 from .termination import TermBounds
 from .terms import (
     MAX_INTEGER,
@@ -71,7 +72,9 @@ MAX_TOTAL_TERMS = 1_000_000
 class Evaluator:
     """Evaluates syntax trees over one coefficient ring; caches subtrees free of bound
     variables, per order.  ``strategies`` names the evaluation strategies it may use (see
-    ``engine.chooser``; default all, the references always).
+    ``engine.chooser``; default all, the references always).  ``progress(text, done,
+    total)``, if given, is called as each top-level sum or product of an evaluated
+    expression is evaluated (see ``engine.progress``).
 
     >>> ev = Evaluator(ZZ)
     >>> ev.evaluate(parse("(q;q)_inf"), 6)
@@ -80,7 +83,8 @@ class Evaluator:
 
     def __init__(self, ring: Ring = ZZ, values: dict[str, Any] | None = None,
                  weights: dict[str, int] | None = None,
-                 strategies: Iterable[str] | None = None) -> None:
+                 strategies: Iterable[str] | None = None,
+                 progress: PartProgress | None = None) -> None:
         self.ring = ring
         #: the value of each extra variable (default: the ring's generator of that name)
         #: and its weight w: the variable z stands for z*q^w, so that with w >= 1 a
@@ -98,6 +102,9 @@ class Evaluator:
         #: nodes the engine builds (``prod_pochhammer``), kept alive with the evaluator
         #: because the caches above are keyed by the identity of nodes
         self._synthetic: dict[tuple, Node] = {}
+        #: the progress callback, and the parts of the expression being evaluated
+        self.progress = progress
+        self.parts: PartTracker | None = None
 
     def evaluate(self, node: Node, order: int, retries: int = 3) -> Series:
         """The value of ``node`` modulo q^order.  Where negative powers cost precision the
@@ -105,7 +112,7 @@ class Evaluator:
         result's ``precision`` says what is really known."""
         if order > MAX_LENGTH:
             raise UnableError(f"order {order} exceeds the limit {MAX_LENGTH}")
-        with laurent_budget():
+        with laurent_budget(), tracking(self, node):
             return self._evaluate(node, order, retries)
 
     def evaluate_parts(self, node: Node, order: int) -> Parts:
@@ -124,7 +131,7 @@ class Evaluator:
         """
         if order > MAX_LENGTH:
             raise UnableError(f"order {order} exceeds the limit {MAX_LENGTH}")
-        with laurent_budget():
+        with laurent_budget(), tracking(self, node):
             self._cache.clear()
             self._terms = 0
             got = self._top_parts(node, order)
@@ -189,6 +196,8 @@ class Evaluator:
             if hit is None:
                 hit = self._value(node, env, order)
                 self._cache[key] = hit
+                if self.parts is not None:
+                    self.parts.finished(node)
             return hit
         return self._value(node, env, order)
 
@@ -531,6 +540,8 @@ class Evaluator:
             hit = got if isinstance(got, tuple) else (got, None)
             if closed:
                 self._cache[key] = hit
+                if self.parts is not None:
+                    self.parts.finished(node)
         return hit
 
     def product_forms(self, node: BigOp, env: dict[str, int]) -> list[tuple[Node, int]] | None:
@@ -574,12 +585,14 @@ def _ceil_fraction(x: Fraction) -> int:
 # -- entry points --------------------------------------------------------------------------
 def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
              weights: dict[str, int] | None = None,
-             definitions: Mapping[str, Definition] | Iterable[str] | None = None) -> Series:
+             definitions: Mapping[str, Definition] | Iterable[str] | None = None,
+             progress: PartProgress | None = None) -> Series:
     """Parse (if needed) and evaluate an expression modulo q^order over ``ring`` (default:
     ZZ, or Laurent polynomials in the extra variables when there are any).  ``weights``
     maps extra variables z to w >= 0: z stands for z*q^w (see :class:`Evaluator`).
     ``definitions`` are functions defined in the notation (texts ``"NAME(q) = ..."``) that
-    ``expr`` may call.
+    ``expr`` may call.  ``progress(text, done, total)`` is called as each top-level sum or
+    product is evaluated (``engine.progress``).
 
     >>> evaluate("(q;q)_inf^3", 11)
     1 - 3q + 5q^3 - 7q^6 + 9q^10 + O(q^11)
@@ -589,19 +602,29 @@ def evaluate(expr: str | Node, order: int, ring: Ring | None = None,
     1 - z*q - z*q^2 + (z^2 - z)*q^3 + O(q^4)
     >>> evaluate("F(-q)", 5, definitions=["F(q) = 1/(q;q)_inf"])
     1 - q + 2q^2 - 3q^3 + 5q^4 + O(q^5)
+    >>> _ = evaluate("sum_{n>=0} q^n/(q;q)_n - 1/(q;q)_inf", 9, progress=print)
+    sum_{n>=0} q^n / (q;q)_n 1 2
+    (q;q)_inf 2 2
     """
-    from ..errors import integer_argument, typed_argument  # checks at the public surface
+    from ..errors import (  # checks at the public surface
+        ArgumentTypeError,
+        integer_argument,
+        typed_argument,
+    )
 
     typed_argument("expr", expr, (str, Node), "a string or a syntax tree from qseries.parse")
     integer_argument("order", order, 0)
     if ring is not None:
         typed_argument("ring", ring, Ring, "a coefficient ring such as qseries.ZZ or GF(p)")
+    if progress is not None and not callable(progress):
+        raise ArgumentTypeError(f"progress must be a function of (text, done, total), not "
+                                f"{type(progress).__name__}")
     node = parse(expr, definitions=definitions) if isinstance(expr, str) else expr
     names = extra_variables(node)
     check_weights(weights, names)
     if ring is None:
         ring = ring_for(sorted(names))
-    return Evaluator(ring, weights=weights).evaluate(node, order)
+    return Evaluator(ring, weights=weights, progress=progress).evaluate(node, order)
 
 
 def check_weights(weights: dict[str, int] | None, names: frozenset[str] | set[str]) -> None:

@@ -165,3 +165,46 @@ def test_a_failed_weighted_retry_reports_both_reasons(monkeypatch):
         compare.check("z q", "z q", 10, method="exact")
     assert "first reason" in str(info.value) and "second reason" in str(info.value)
     assert len(calls) == 2
+
+
+def test_check_reports_each_evaluated_part_of_each_side_in_order():
+    # Rogers-Ramanujan (Andrews, The Theory of Partitions, Cor. 7.9): one sum on the left,
+    # two products on the right
+    said = []
+    assert check(RR1_SUM, RR1_PRODUCT, order=100, method="exact", progress=said.append).holds
+    assert said[0] == "evaluating the left side"
+    assert said[1].startswith("left side: evaluated part 1 of 1, sum_{k>=0}")
+    assert said[2] == "evaluating the right side"
+    assert said[3:] == ["right side: evaluated part 1 of 2, (q;q^5)_inf",
+                        "right side: evaluated part 2 of 2, (q^4;q^5)_inf"]
+
+
+def test_the_modular_method_reports_the_parts_per_prime():
+    said = []
+    assert check(RR1_SUM, RR1_PRODUCT, order=100, method="modular", primes=2, seed=3,
+                 progress=said.append).holds
+    parts = [t.split(",")[0:2] for t in said if "evaluated part" in t]
+    assert parts == [["prime 1 of 2", " left side: evaluated part 1 of 1"],
+                     ["prime 1 of 2", " right side: evaluated part 1 of 2"],
+                     ["prime 1 of 2", " right side: evaluated part 2 of 2"],
+                     ["prime 2 of 2", " left side: evaluated part 1 of 1"],
+                     ["prime 2 of 2", " right side: evaluated part 1 of 2"],
+                     ["prime 2 of 2", " right side: evaluated part 2 of 2"]]
+    assert said.index("comparing modulo prime 2 of 2") == 4      # between the primes
+
+
+def test_no_progress_no_part_texts(monkeypatch):
+    # without a progress callback the engine is given none (no texts are made)
+    from qseries.engine import evaluator
+
+    made = []
+    real = evaluator.Evaluator.__init__
+
+    def spy(self, *args, **kwargs):
+        made.append(kwargs.get("progress"))
+        real(self, *args, **kwargs)
+
+    monkeypatch.setattr(evaluator.Evaluator, "__init__", spy)
+    assert check(RR1_SUM, RR1_PRODUCT, order=50, method="exact").holds
+    assert check(RR1_SUM, RR1_PRODUCT, order=50, method="modular", primes=1).holds
+    assert made and all(p is None for p in made)

@@ -104,3 +104,24 @@ def test_power_series_in_the_marker_is_refused_without_weight_advice():
 def test_fractional_exponents_are_refused():
     with pytest.raises(QSeriesError, match="fractional exponents"):
         distributions("sum_{n>=0} z^n q^(n/2)/(q;q)_n", "z", [4])
+
+
+def test_progress_is_called_per_size_in_the_order_given():
+    said = []
+    got = distributions(DURFEE, "z", [30, 4, 17],
+                        progress=lambda n, done, total: said.append((n, done, total)))
+    assert said == [(30, 1, 3), (4, 2, 3), (17, 3, 3)]
+    # p(n) by FLINT (Hardy-Ramanujan-Rademacher): the progress changes nothing
+    assert [d.total for d in got] == [partitions_p(n) for n in (30, 4, 17)]
+
+
+def test_progress_stops_at_a_size_without_objects():
+    said = []
+    with pytest.raises(QSeriesError, match="no objects of size 1"):
+        distributions("1 + z q^2", "z", [0, 1, 2], progress=lambda *a: said.append(a))
+    assert said == [(0, 1, 3)]
+
+
+def test_progress_must_be_callable():
+    with pytest.raises(QSeriesError, match="progress must be a function"):
+        distributions(DURFEE, "z", [3], progress="yes")

@@ -146,12 +146,13 @@ def test_the_stages_check_reports_are_steps_of_the_bar():
 
 def test_primes_in_worker_processes_are_steps_too():
     # from order 50000 (chooser.PARALLEL_ORDER) the other primes run in worker processes;
-    # each is reported as it is waited for. Euler's pentagonal number theorem.
+    # each is reported as it is waited for; the first prime, in this process, also per
+    # side (one part each). Euler's pentagonal number theorem.
     said = []
     r = check("(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)", order=50_000,
               method="modular", primes=3, progress=said.append)
     assert r.holds
-    assert [stage_step(t) for t in said] == [(0, 3), (1, 3), (2, 3)]
+    assert [stage_step(t) for t in said] == [(0, 3), (0.5, 3), (1, 3), (1, 3), (2, 3)]
 
 
 @pytest.mark.parametrize("args", [
@@ -168,3 +169,46 @@ def test_long_evaluations_show_a_moving_bar(tmp_path, args):
     assert code == 0 and "evaluating to" not in out
     code, out = run(args, terminal=False)
     assert code == 0 and "evaluating to" not in out
+
+
+def test_the_parts_of_each_side_are_steps_of_the_bar():
+    # Rogers-Ramanujan (Andrews, The Theory of Partitions, Cor. 7.9), modular, 2 primes:
+    # the steps never go back, and each side's parts fill its share of a prime
+    said = []
+    check("sum_{k>=0} q^(k^2)/(q;q)_k", "1/((q;q^5)_inf (q^4;q^5)_inf)", order=200,
+          method="modular", primes=2, progress=said.append)
+    steps = [s for s in map(stage_step, said) if s is not None]
+    assert steps == [(0, 2), (0.5, 2), (0.75, 2), (1, 2), (1, 2), (1.5, 2), (1.75, 2), (2, 2)]
+    said.clear()
+    check("sum_{k>=0} q^(k^2)/(q;q)_k", "1/((q;q^5)_inf (q^4;q^5)_inf)", order=200,
+          method="exact", progress=said.append)
+    assert [stage_step(t) for t in said] == [(0, 2), (1, 2), (1, 2), (1.5, 2), (2, 2)]
+
+
+PARTS = ["check", "sum_{k>=0} q^(k^2)/(q;q)_k", "1/((q;q^5)_inf (q^4;q^5)_inf)", "-n", "4000",
+         "--method", "exact"]
+
+
+def test_check_names_each_evaluated_part_on_a_terminal_only():
+    code, out = run(PARTS)
+    assert code == 0 and "right side: evaluated part 2 of 2, (q^4;q^5)_inf" in out
+    for how in (["--quiet"], ["--json"]):
+        code, out = run(PARTS + how)
+        assert code == 0 and "evaluated part" not in out
+    code, out = run(PARTS, terminal=False)
+    assert code == 0 and "evaluated part" not in out and "AGREES" in out
+
+
+TREND = ["distribution", "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "--trend-upto", "2500"]
+
+
+def test_distribution_trend_advances_per_n_on_a_terminal_only(tmp_path):
+    out_file = str(tmp_path / "t.csv")
+    code, out = run(TREND + ["--out", out_file])
+    assert code == 0 and "reading the distribution at n = 2500 (2500 of 2500)" in out
+    code, out = run(TREND + ["--out", out_file, "--quiet"])
+    assert code == 0 and "reading the distribution" not in out
+    code, out = run(TREND + ["--format", "json", "--out", out_file, "--json"])
+    assert code == 0 and "reading the distribution" not in out
+    code, out = run(TREND, terminal=False)
+    assert code == 0 and "reading the distribution" not in out and out.startswith("n,total")
