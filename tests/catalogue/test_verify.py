@@ -1,9 +1,9 @@
 """The shipped catalogue verifies entry by entry; an altered side is caught; a recorded
 misprint counts as ok only when it fails exactly where recorded."""
 
-import pytest
-
 from dataclasses import replace
+
+import pytest
 
 from qseries.catalogue import (
     SHIPPED,
