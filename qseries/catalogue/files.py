@@ -506,12 +506,37 @@ def _same_as(value: object, where: str, own_key: str) -> SameAs | None:
     return SameAs(key, " ".join(substitution.split()), swap, value["source"], where)
 
 
-def _partners(entries: list[Entry]) -> list[Entry]:
+def _siblings(entries: list[Entry], budget: Budget) -> list[Entry]:
+    """The entries of the other identity files beside the files of ``entries`` whose
+    ``same_as`` names a key that none of ``entries`` has (a file verified alone may pair
+    with an entry of its catalogue folder); a sibling file that cannot be read is skipped
+    (the pair then stays unresolved, an error)."""
+    keys = {e.key for e in entries}
+    wanted = [e for e in entries if e.same_as is not None
+              and e.same_as.key.split("[", 1)[0] not in keys]
+    loaded = {str(Path(e.path)) for e in entries}
+    folders = sorted({str(Path(e.path).parent) for e in wanted})
+    out: list[Entry] = []
+    for folder in folders:
+        for f in sorted(Path(folder).glob("*.toml")):
+            if str(f) in loaded or not f.is_file():
+                continue
+            loaded.add(str(f))
+            try:
+                out.extend(load_file(f, budget))
+            except IdentityFileError:
+                continue
+    return out
+
+
+def _partners(entries: list[Entry], others: list[Entry] = ()) -> list[Entry]:
     """The entries with each ``same_as`` resolved to its partner's id, sides and
-    definitions; a family member pairs with the member of the same values when the key
-    names a family with the same parameter names."""
-    by_ident = {e.ident: e for e in entries}
-    families = {e.key: tuple(n for n, _ in e.params) for e in entries if e.params}
+    definitions (the partner is one of ``entries`` or else of ``others``); a family member
+    pairs with the member of the same values when the key names a family with the same
+    parameter names."""
+    pool = [*others, *entries]
+    by_ident = {e.ident: e for e in pool}
+    families = {e.key: tuple(n for n, _ in e.params) for e in pool if e.params}
     out: list[Entry] = []
     for e in entries:
         s = e.same_as
@@ -563,7 +588,9 @@ def identity_files(paths: list[Path]) -> list[Path]:
 
 def load_entries(paths: list[Path] | list[str]) -> list[Entry]:
     """All entries of the given files and folders; keys must be unique across them.  The
-    template work of all of them together is at most ``MAX_LOAD_STEPS`` steps."""
+    template work of all of them together is at most ``MAX_LOAD_STEPS`` steps.  A
+    ``same_as`` naming a key that is in none of them is looked up in the other identity
+    files of the same folder (so one file of a catalogue can be verified alone)."""
     entries: list[Entry] = []
     seen: dict[str, str] = {}
     budget = Budget(MAX_LOAD_STEPS, what="expanding the templates of all the files")
@@ -579,7 +606,7 @@ def load_entries(paths: list[Path] | list[str]) -> list[Entry]:
         if e.corrects and e.corrects not in keys:
             raise IdentityFileError(f"{e.path}:{e.line}: corrects {e.corrects!r}, which is not "
                                     f"an entry")
-    return _partners(entries)
+    return _partners(entries, _siblings(entries, budget))
 
 
 def select(entries: list[Entry], wanted: list[str]) -> list[Entry]:

@@ -386,3 +386,11 @@ def test_same_as_may_name_an_entry_of_another_file(tmp_path):
     write(tmp_path, first, "a.toml")
     write(tmp_path, '[[identity]]\nkey = "theta3"' + second, "b.toml")
     assert {e.key: e.same_as for e in load_entries([tmp_path])}["theta3"].partner == "theta4"
+    # b.toml alone: the partner is found in a file beside it, which is not listed itself
+    alone = load_entries([tmp_path / "b.toml"])
+    assert [e.key for e in alone] == ["theta3", "fam", "fam"]
+    assert alone[0].same_as.left == "sum_{n=-inf}^{inf} (-1)^n q^(n^2)"
+    # a sibling that cannot be read is skipped: the pair is then unresolved, an error
+    write(tmp_path, first.replace("order = 60", "order = 0", 1), "a.toml")
+    with pytest.raises(IdentityFileError, match="same_as names 'theta4', which is not an"):
+        load_entries([tmp_path / "b.toml"])
