@@ -247,3 +247,14 @@ def test_verify_and_list_report_a_same_as_pair(tmp_path):
         assert r.exit_code == 2
         assert r.stderr.startswith(f"qseries: error: {path}:16: same_as names 'theta5'"), \
             r.stderr
+
+
+def test_list_json_of_the_shipped_catalogue_shows_corrections_and_pairs():
+    rows = {row["id"]: row for row in json.loads(runner.invoke(app, ["list", "--json"]).stdout)
+            ["identities"]}
+    # Somos' correction of Berndt IV, ch. 25, Entry 27 (27.1), recorded beside the misprint
+    assert rows["berndt-iv-25-27-1"]["corrects"] == "berndt-iv-25-27-1-printed"
+    assert "corrects" not in rows["berndt-iv-25-27-1-printed"]
+    # theta_3(q) = theta_4(-q) (DLMF 20.2.3, 20.2.4)
+    assert rows["triple-product-theta-3"]["same_as"]["substitution"] == "q -> -q"
+    assert "same_as" not in rows["euler-pentagonal"]
