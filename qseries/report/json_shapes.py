@@ -343,7 +343,8 @@ def trend_json(dists: Iterable[Distribution]) -> list[dict[str, Any]]:
 
 
 def entry_json(r: EntryOutcome) -> dict[str, Any]:
-    """One verified catalogue entry in ``qseries verify --json``.
+    """One verified catalogue entry in ``qseries verify --json``; the result of a ``same_as``
+    pair also has ``pair`` (``of``, ``same_as``, ``substitution``, ``swap``, ``differs``).
 
     >>> from types import SimpleNamespace as Outcome
     >>> entry_json(Outcome(ident="euler", holds=None, ok=False, order=-5, first_mismatch=None,
