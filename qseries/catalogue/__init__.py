@@ -12,8 +12,16 @@ repository; a wheel carries the same files as ``qseries/catalogue/identities/`` 
 from pathlib import Path
 
 from ..errors import IdentityFileError, TemplateError
-from .files import Entry, load_entries, select
-from .verify import EntryResult, VerifyInterrupted, verify_entries, verify_entry
+from .files import Entry, SameAs, load_entries, select
+from .verify import (
+    EntryResult,
+    VerifyInterrupted,
+    job_count,
+    pair_ident,
+    verify_entries,
+    verify_entry,
+    verify_pair,
+)
 
 
 def _shipped() -> Path:
@@ -25,5 +33,6 @@ def _shipped() -> Path:
 #: the catalogue shipped with qseries
 SHIPPED = _shipped()
 
-__all__ = ["SHIPPED", "Entry", "EntryResult", "IdentityFileError", "TemplateError",
-           "VerifyInterrupted", "load_entries", "select", "verify_entries", "verify_entry"]
+__all__ = ["SHIPPED", "Entry", "EntryResult", "IdentityFileError", "SameAs", "TemplateError",
+           "VerifyInterrupted", "job_count", "load_entries", "pair_ident", "select",
+           "verify_entries", "verify_entry", "verify_pair"]

@@ -18,7 +18,20 @@ note        free text (what the misprint is, who corrected it)
 corrects    the key of the misprinted entry that this entry corrects
 weights     weights of extra variables, ``{c = 2, z = 1}``: z stands for z*q^w (see
             ``qseries check --weight``); by default 0, or 1 for all when 0 fails
+same_as     the same identity as another entry in another form: ``{key = "other",
+            substitution = "q -> -q", source = "..."}`` (see below)
 =========== ==========================================================================
+
+``same_as`` records that this entry is another entry (``key``: its key, or a family
+member's id such as ``"euler-exponential[c=1]"``) written in another form; ``source`` (required)
+names where that equivalence is stated.  Optional: ``substitution``, ``"q -> E"`` with E
+one of ``q``, ``-q``, ``q^m``, ``-q^m`` (m a positive integer), read by the notation's
+grammar: this entry's sides are the other entry's sides with q replaced by E; and
+``swap = true`` when this entry's left side corresponds to the other's right side.
+``verify`` checks both pairs of corresponding sides as series at the verify order and
+reports the pair as one more line, ``this ~ other``.  In a family every member is paired
+with the member of the same parameter values when ``key`` names a family with the same
+parameter names.
 
 Functions used by the entries of a file may be defined once in a top-level table
 ``[definitions]``, one line per function, ``"NAME(params)" = "body"`` in the notation::
@@ -64,19 +77,20 @@ import os
 import re
 import stat
 import tomllib
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from fractions import Fraction
 from pathlib import Path
 
 from ..errors import IdentityFileError, ParseError, QSeriesError, TemplateError
 from ..lang import parse
-from ..lang.ast import extra_variables
+from ..lang.ast import BinOp, Neg, Node, Num, Q, extra_variables
 from ..lang.definitions import Definition, parse_definitions
 from ..lang.parser import is_extra_variable
 from .templates import Budget, expand_template, integer_expression
 
 REQUIRED = ("key", "title", "left", "right", "order", "source")
-OPTIONAL = ("tags", "params", "expect", "fails_at", "note", "corrects", "weights")
+OPTIONAL = ("tags", "params", "expect", "fails_at", "note", "corrects", "weights", "same_as")
+SAME_AS_FIELDS = ("key", "substitution", "swap", "source")
 MAX_MEMBERS = 500
 MAX_ORDER = 100_000
 MAX_FILE_BYTES = 1_000_000
@@ -84,11 +98,71 @@ MAX_LOAD_STEPS = 20_000_000
 #: steps charged per character of a family member's side, for parsing it
 PARSE_STEPS = 2
 _KEY = re.compile(r"^[a-z0-9][a-z0-9-]*$")
+_MEMBER = re.compile(r"^[a-z0-9][a-z0-9-]*(\[[A-Za-z]+=-?[0-9]+(,[A-Za-z]+=-?[0-9]+)*\])?$")
 _EXPONENT = re.compile(r"^-?[0-9]{1,18}(/[0-9]{1,18})?$")
 _ASSIGNS_IDENTITY = re.compile(r"^\s*identity\s*=")
 
 __all__ = ["MAX_FILE_BYTES", "MAX_LOAD_STEPS", "MAX_MEMBERS", "MAX_ORDER", "Entry",
-           "IdentityFileError", "identity_files", "load_entries", "load_file", "select"]
+           "IdentityFileError", "SameAs", "identity_files", "load_entries", "load_file",
+           "select", "substitution_node"]
+
+
+@dataclass(frozen=True)
+class SameAs:
+    """An entry's ``same_as`` field: the other entry (``key`` as written), the substitution
+    text (``""`` for none), whether the sides are swapped, the source of the equivalence and
+    the field's ``file:line``.  Once the files are loaded, ``partner`` is the other entry's
+    id and ``left``, ``right``, ``definitions`` are its sides and definition texts.
+
+    >>> SameAs("x", "q -> -q", False, "from memory", "f.toml:3").partner
+    ''
+    """
+
+    key: str
+    substitution: str
+    swap: bool
+    source: str
+    where: str
+    partner: str = ""
+    left: str = ""
+    right: str = ""
+    definitions: tuple[str, ...] = ()
+
+
+def substitution_node(text: str) -> Node | None:
+    """The tree of E in a substitution ``"q -> E"`` (None for ``""``, no substitution); E is
+    parsed by the notation's grammar and must be q, -q, q^m or -q^m with m a positive
+    integer.  A ValueError explains anything else.
+
+    >>> substitution_node("q -> -q")
+    Neg(operand=Q(pos=6), pos=5)
+    >>> substitution_node("") is None
+    True
+    >>> substitution_node("q -> 1 - q")   # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    ValueError: the substitution must read "q -> E" with E one of q, -q, q^m, -q^m ...
+    """
+    wrong = ValueError(f"the substitution must read \"q -> E\" with E one of q, -q, q^m, "
+                       f"-q^m (m a positive integer), not {text!r}")
+    if not text.strip():
+        return None
+    head, arrow, body = text.partition("->")
+    if not arrow or head.strip() != "q":
+        raise wrong
+    offset = len(head) + len(arrow)
+    try:
+        node = parse(" " * offset + body)
+    except ParseError:
+        raise wrong from None
+    inner = node.operand if isinstance(node, Neg) else node
+    if isinstance(inner, Q):
+        return node
+    if (isinstance(inner, BinOp) and inner.op == "^" and isinstance(inner.left, Q)
+            and isinstance(inner.right, Num) and inner.right.value.denominator == 1
+            and inner.right.value >= 1):
+        return node
+    raise wrong
 
 
 @dataclass(frozen=True)
@@ -113,6 +187,7 @@ class Entry:
     weights: tuple[tuple[str, int], ...] | None = None
     definitions: tuple[str, ...] = ()
     ranges: tuple[tuple[str, str], ...] = ()
+    same_as: SameAs | None = None
 
     @property
     def weight_map(self) -> dict[str, int] | None:
@@ -357,6 +432,7 @@ def load_file(path: Path, budget: Budget | None = None) -> list[Entry]:
             if not isinstance(table.get(name, ""), str):
                 raise IdentityFileError(f"{at(name)}: {name} must be a string")
         weights = _weights(table.get("weights"), at("weights"))
+        same_as = _same_as(table.get("same_as"), at("same_as"), table["key"])
         params = table.get("params")
         if params is not None and not isinstance(params, dict):
             raise IdentityFileError(f"{at('params')}: params must be a table of ranges")
@@ -384,7 +460,8 @@ def load_file(path: Path, budget: Budget | None = None) -> list[Entry]:
                 fails_at=fails_at, note=table.get("note", ""),
                 corrects=table.get("corrects", ""), family=table["key"] if params else "",
                 weights=weights, definitions=definition_texts,
-                ranges=tuple((n, str(r)) for n, r in params.items()) if params else ()))
+                ranges=tuple((n, str(r)) for n, r in params.items()) if params else (),
+                same_as=same_as))
             if weights is not None:
                 names = extra_variables(trees[0]) | extra_variables(trees[1])
                 stray = sorted(dict(weights).keys() - names)
@@ -392,6 +469,96 @@ def load_file(path: Path, budget: Budget | None = None) -> list[Entry]:
                     raise IdentityFileError(f"{at('weights')}: {stray[0]!r} is not an extra "
                                             f"variable of either side")
     return entries
+
+
+def _same_as(value: object, where: str, own_key: str) -> SameAs | None:
+    """The ``same_as`` table of an entry, checked (its partner is found later)."""
+    if value is None:
+        return None
+    if not isinstance(value, dict):
+        raise IdentityFileError(f"{where}: same_as must be a table such as {{key = \"other\", "
+                                f"substitution = \"q -> -q\", source = \"...\"}}")
+    for name in value:
+        if name not in SAME_AS_FIELDS:
+            raise IdentityFileError(f"{where}: unknown field {name!r} in same_as (known: "
+                                    f"{', '.join(SAME_AS_FIELDS)})")
+    for name in ("key", "source"):
+        if not isinstance(value.get(name), str) or not value[name].strip():
+            raise IdentityFileError(f"{where}: same_as needs {name}, a non-empty string")
+    key = value["key"].strip()
+    if not _MEMBER.match(key):
+        raise IdentityFileError(f"{where}: same_as key {key!r} must be an entry's key or a "
+                                f"family member's id such as \"fam[c=1]\"")
+    if key == own_key:
+        raise IdentityFileError(f"{where}: same_as names the entry itself ({key!r}); it "
+                                f"must name another entry")
+    substitution = value.get("substitution", "")
+    if not isinstance(substitution, str):
+        raise IdentityFileError(f"{where}: same_as substitution must be a string such as "
+                                f"\"q -> -q\"")
+    try:
+        substitution_node(substitution)
+    except ValueError as err:
+        raise IdentityFileError(f"{where}: {err}") from None
+    swap = value.get("swap", False)
+    if not isinstance(swap, bool):
+        raise IdentityFileError(f"{where}: same_as swap must be true or false")
+    return SameAs(key, " ".join(substitution.split()), swap, value["source"], where)
+
+
+def _siblings(entries: list[Entry], budget: Budget) -> list[Entry]:
+    """The entries of the other identity files beside the files of ``entries`` whose
+    ``same_as`` names a key that none of ``entries`` has (a file verified alone may pair
+    with an entry of its catalogue folder); a sibling file that cannot be read is skipped
+    (the pair then stays unresolved, an error)."""
+    keys = {e.key for e in entries}
+    wanted = [e for e in entries if e.same_as is not None
+              and e.same_as.key.split("[", 1)[0] not in keys]
+    loaded = {str(Path(e.path)) for e in entries}
+    folders = sorted({str(Path(e.path).parent) for e in wanted})
+    out: list[Entry] = []
+    for folder in folders:
+        for f in sorted(Path(folder).glob("*.toml")):
+            if str(f) in loaded or not f.is_file():
+                continue
+            loaded.add(str(f))
+            try:
+                out.extend(load_file(f, budget))
+            except IdentityFileError:
+                continue
+    return out
+
+
+def _partners(entries: list[Entry], others: list[Entry] = ()) -> list[Entry]:
+    """The entries with each ``same_as`` resolved to its partner's id, sides and
+    definitions (the partner is one of ``entries`` or else of ``others``); a family member
+    pairs with the member of the same values when the key names a family with the same
+    parameter names."""
+    pool = [*others, *entries]
+    by_ident = {e.ident: e for e in pool}
+    families = {e.key: tuple(n for n, _ in e.params) for e in pool if e.params}
+    out: list[Entry] = []
+    for e in entries:
+        s = e.same_as
+        if s is None:
+            out.append(e)
+            continue
+        target = s.key
+        if e.params and families.get(target) == tuple(n for n, _ in e.params):
+            target = Entry(target, "", "", "", 1, "", "", 0, params=e.params).ident
+        partner = by_ident.get(target)
+        if partner is None:
+            hint = (f"; {s.key!r} is a family: name a member such as {s.key}[...]"
+                    if s.key in families else "")
+            raise IdentityFileError(f"{s.where}: same_as names {target!r}, which is not an "
+                                    f"entry{hint}")
+        if partner.ident == e.ident:
+            raise IdentityFileError(f"{s.where}: same_as names the entry itself "
+                                    f"({e.ident!r}); it must name another entry")
+        out.append(replace(e, same_as=replace(
+            s, partner=partner.ident, left=partner.left, right=partner.right,
+            definitions=partner.definitions)))
+    return out
 
 
 def _weights(value: object, where: str) -> tuple[tuple[str, int], ...] | None:
@@ -421,7 +588,9 @@ def identity_files(paths: list[Path]) -> list[Path]:
 
 def load_entries(paths: list[Path] | list[str]) -> list[Entry]:
     """All entries of the given files and folders; keys must be unique across them.  The
-    template work of all of them together is at most ``MAX_LOAD_STEPS`` steps."""
+    template work of all of them together is at most ``MAX_LOAD_STEPS`` steps.  A
+    ``same_as`` naming a key that is in none of them is looked up in the other identity
+    files of the same folder (so one file of a catalogue can be verified alone)."""
     entries: list[Entry] = []
     seen: dict[str, str] = {}
     budget = Budget(MAX_LOAD_STEPS, what="expanding the templates of all the files")
@@ -437,7 +606,7 @@ def load_entries(paths: list[Path] | list[str]) -> list[Entry]:
         if e.corrects and e.corrects not in keys:
             raise IdentityFileError(f"{e.path}:{e.line}: corrects {e.corrects!r}, which is not "
                                     f"an entry")
-    return entries
+    return _partners(entries, _siblings(entries, budget))
 
 
 def select(entries: list[Entry], wanted: list[str]) -> list[Entry]:

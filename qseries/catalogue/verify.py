@@ -10,6 +10,10 @@ form recorded as wrong) it fails exactly at the recorded exponent.  An inconclus
 >>> r.ok, r.holds, r.order
 (True, True, 60)
 
+An entry with ``same_as`` gives one more result, the pair (:func:`verify_pair`): its id is
+``this ~ other`` (:func:`pair_ident`), and it is ok when both pairs of corresponding sides
+agree as series to the order (the other entry's sides under the recorded substitution).
+
 Entries run in at most as many worker processes as there are entries and cores.  On Ctrl-C
 the queued entries are cancelled, the workers are ended (they ignore the interrupt
 themselves), and :class:`VerifyInterrupted` carries the results that had come back.
@@ -31,8 +35,11 @@ if TYPE_CHECKING:
 
 from ..analysis import check
 from ..errors import QSeriesError
+from ..lang import parse
+from ..lang.ast import Node
+from ..lang.definitions import Definition, substitute
 from ..report import mismatch_json
-from .files import Entry
+from .files import Entry, substitution_node
 
 
 @dataclass(frozen=True)
@@ -48,6 +55,7 @@ class EntryResult:
     first_mismatch: dict | None
     seconds: float
     error: str = ""
+    pair: dict | None = None
 
 
 def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
@@ -90,8 +98,99 @@ def verify_entry(entry: Entry, order: int | None = None) -> EntryResult:
                        time.perf_counter() - t0)
 
 
-def _work(args: tuple[Entry, int | None]) -> EntryResult:
-    return verify_entry(*args)
+def pair_ident(entry: Entry) -> str:
+    """The id of the result that checks an entry's ``same_as``: ``this ~ other``, with the
+    substitution when there is one.
+
+    >>> from qseries.catalogue.files import Entry, SameAs
+    >>> s = SameAs("b", "q -> -q", False, "from memory", "f:1", partner="b")
+    >>> pair_ident(Entry("a", "t", "1", "1", 5, "s", "-", 1, same_as=s))
+    'a ~ b (q -> -q)'
+    """
+    s = entry.same_as
+    if s is None:
+        raise ValueError(f"{entry.ident} has no same_as")
+    return f"{entry.ident} ~ {s.partner or s.key}" + (f" ({s.substitution})"
+                                                     if s.substitution else "")
+
+
+def _moved(text: str, definitions: tuple[str, ...], substitution: str) -> Node:
+    """The other entry's side, parsed with its own definitions, q replaced as recorded."""
+    node = parse(text, definitions=definitions or None)
+    by = substitution_node(substitution)
+    if by is None:
+        return node
+    return substitute(Definition("same_as", ("q",), node, text), (by,), 0)
+
+
+def verify_pair(entry: Entry, order: int | None = None) -> EntryResult:
+    """Check an entry's ``same_as``: each side of the entry against the corresponding side
+    of the other entry (swapped when recorded) with q replaced as recorded, to the entry's
+    order (or ``order``).  ok when both agree to that order; ``first_mismatch`` is that of
+    the first side that differs, and ``pair`` says which side it is.
+
+    >>> from qseries.catalogue.files import Entry, SameAs
+    >>> s = SameAs("b", "q -> -q", False, "from memory", "f:1", partner="b",
+    ...            left="sum_{n=-inf}^{inf} q^(n^2)", right="(q^2;q^2)_inf (-q;q^2)_inf^2")
+    >>> a = Entry("a", "t", "sum_{n=-inf}^{inf} (-1)^n q^(n^2)", "(q;q)_inf/(-q;q)_inf",
+    ...           100, "s", "-", 1, same_as=s)
+    >>> r = verify_pair(a)
+    >>> r.ident, r.ok, r.pair["differs"]
+    ('a ~ b (q -> -q)', True, None)
+    """
+    s = entry.same_as
+    if s is None:
+        raise ValueError(f"{entry.ident} has no same_as")
+    n = order or entry.order
+    t0 = time.perf_counter()
+    ident = pair_ident(entry)
+    info: dict = {"of": entry.ident, "same_as": s.partner or s.key,
+                  "substitution": s.substitution or None, "swap": s.swap, "differs": None}
+    others = (s.right, s.left) if s.swap else (s.left, s.right)
+    holds: bool | None = True
+    reached: int | Fraction = n
+    for side, mine, other in (("left", entry.left, others[0]),
+                              ("right", entry.right, others[1])):
+        try:
+            r = check(mine, _moved(other, s.definitions, s.substitution), order=n,
+                      method="auto", weights=entry.weight_map,
+                      definitions=entry.definitions or None)
+        except QSeriesError as err:
+            return EntryResult(ident, False, False, 0, None, time.perf_counter() - t0,
+                               f"{side} side: {err}", info)
+        reached = min(reached, r.order_verified)
+        if r.holds is not True:
+            holds = r.holds if holds is True else holds
+            if r.holds is False:
+                info["differs"] = side
+                return EntryResult(ident, False, False, r.order_verified, mismatch_json(r),
+                                   time.perf_counter() - t0, "", info)
+    ok = holds is True and reached == n
+    return EntryResult(ident, holds, ok, reached, None, time.perf_counter() - t0, "", info)
+
+
+def job_count(entries: list[Entry]) -> int:
+    """The number of results :func:`verify_entries` gives: one per entry and one per
+    ``same_as``.
+
+    >>> job_count([])
+    0
+    """
+    return len(entries) + sum(e.same_as is not None for e in entries)
+
+
+def _jobs(entries: list[Entry]) -> list[tuple[Entry, bool]]:
+    out: list[tuple[Entry, bool]] = []
+    for e in entries:
+        out.append((e, False))
+        if e.same_as is not None:
+            out.append((e, True))
+    return out
+
+
+def _work(args: tuple[Entry, bool, int | None]) -> EntryResult:
+    entry, pair, order = args
+    return verify_pair(entry, order) if pair else verify_entry(entry, order)
 
 
 class VerifyInterrupted(KeyboardInterrupt):
@@ -138,7 +237,8 @@ def verify_entries(entries: list[Entry], order: int | None = None, jobs: int | N
                    progress: Callable[[EntryResult], None] | None = None
                    ) -> list[EntryResult]:
     """Verify entries with ``jobs`` worker processes (default: all cores; never more than
-    the entries or the cores); results come back in the entries' order.  A
+    the entries or the cores); results come back in the entries' order, each entry with a
+    ``same_as`` followed by its pair's result (:func:`verify_pair`).  A
     KeyboardInterrupt (Ctrl-C, or raised by ``progress``) stops the workers and raises
     :class:`VerifyInterrupted` with the results that came back before it.
 
@@ -146,18 +246,19 @@ def verify_entries(entries: list[Entry], order: int | None = None, jobs: int | N
     True
     """
     results: dict[int, EntryResult] = {}
-    workers = worker_count(jobs, len(entries))
+    work = _jobs(entries)
+    workers = worker_count(jobs, len(work))
     try:
         if workers <= 1:
-            for i, e in enumerate(entries):
-                results[i] = verify_entry(e, order)
+            for i, (e, pair) in enumerate(work):
+                results[i] = _work((e, pair, order))
                 if progress:
                     progress(results[i])
         else:
-            _run(entries, order, workers, results, progress)
+            _run(work, order, workers, results, progress)
     except KeyboardInterrupt:
-        raise VerifyInterrupted([results[i] for i in sorted(results)], len(entries)) from None
-    return [results[i] for i in range(len(entries))]
+        raise VerifyInterrupted([results[i] for i in sorted(results)], len(work)) from None
+    return [results[i] for i in range(len(work))]
 
 
 @contextmanager
@@ -210,7 +311,7 @@ def _stop_pool(pool: ProcessPoolExecutor) -> None:
                 p.join(timeout=5)
 
 
-def _run(entries: list[Entry], order: int | None, workers: int,
+def _run(work: list[tuple[Entry, bool]], order: int | None, workers: int,
          results: dict[int, EntryResult],
          progress: Callable[[EntryResult], None] | None) -> None:
     """Fill ``results`` from a pool of worker processes; on any exception (Ctrl-C
@@ -221,13 +322,16 @@ def _run(entries: list[Entry], order: int | None, workers: int,
     pool = _start_pool(workers)
     try:
         with _interrupts_held():         # the workers start with Ctrl-C ignored
-            futures = {pool.submit(_work, (e, order)): i for i, e in enumerate(entries)}
+            futures = {pool.submit(_work, (e, pair, order)): i
+                       for i, (e, pair) in enumerate(work)}
         for fut in as_completed(futures):
             i = futures[fut]
             try:
                 results[i] = fut.result()
             except BrokenProcessPool:
-                results[i] = EntryResult(entries[i].ident, False, False, 0, None, 0.0,
+                e, pair = work[i]
+                results[i] = EntryResult(pair_ident(e) if pair else e.ident, False, False, 0,
+                                         None, 0.0,
                                          "a worker process ended abruptly (out of memory?)")
             if progress:
                 progress(results[i])

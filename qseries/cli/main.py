@@ -745,7 +745,7 @@ def verify(
     """
     import time
 
-    from ..catalogue import VerifyInterrupted
+    from ..catalogue import VerifyInterrupted, job_count, pair_ident
     from .progress import verify_with_bar
 
     entries = _load(paths, only or [])
@@ -754,6 +754,9 @@ def verify(
     interrupted = streamed = False
     labels = {e.ident: e.label for e in entries}
     expects = {e.ident: e.expect for e in entries}
+    pairs = [pair_ident(e) for e in entries if e.same_as is not None]
+    labels.update((p, p) for p in pairs)       # a same_as pair holds (its sides agree)
+    expects.update((p, "holds") for p in pairs)
     try:
         results, streamed = verify_with_bar(entries, order, jobs, not (as_json or quiet),
                                             expects, labels)
@@ -767,7 +770,7 @@ def verify(
     n_ok = sum(r.ok for r in results)
     if as_json:
         typer.echo(json.dumps(verify_json(results, elapsed,
-                                          len(entries) if interrupted else None)))
+                                          job_count(entries) if interrupted else None)))
     else:
         if results and not streamed:      # on a terminal each line came as it finished
             console.print(verify_table(results, expects, labels))
@@ -775,8 +778,8 @@ def verify(
         if len(results) > 1:
             console.print(slowest_line(results, 5, labels), markup=False)
     if interrupted:
-        typer.echo(f"qseries: interrupted: {len(results)} of {len(entries)} entries finished",
-                   err=True)
+        typer.echo(f"qseries: interrupted: {len(results)} of {job_count(entries)} entries "
+                   f"finished", err=True)
         raise typer.Exit(130)
     raise typer.Exit(0 if n_ok == len(results) else 1)
 

@@ -131,7 +131,7 @@ def verify_with_bar(entries: list, order: int | None, jobs: int | None, show: bo
     each entry's line printed above it as it finishes.  Returns (results, streamed):
     whether the lines were printed.  :class:`~qseries.catalogue.VerifyInterrupted` passes
     through."""
-    from ..catalogue import verify_entries
+    from ..catalogue import job_count, verify_entries
     from ..report.tables import verify_line
 
     console = None
@@ -152,7 +152,7 @@ def verify_with_bar(entries: list, order: int | None, jobs: int | None, show: bo
 
     with Progress(TextColumn("verifying"), BarColumn(), MofNCompleteColumn(),
                   TimeElapsedColumn(), console=console, transient=True) as bar:
-        task = bar.add_task("verifying", total=len(entries))
+        task = bar.add_task("verifying", total=job_count(entries))
 
         def finished(r: Any) -> None:
             bar.console.print(verify_line(r, expects.get(r.ident, "holds"),

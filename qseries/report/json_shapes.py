@@ -343,7 +343,8 @@ def trend_json(dists: Iterable[Distribution]) -> list[dict[str, Any]]:
 
 
 def entry_json(r: EntryOutcome) -> dict[str, Any]:
-    """One verified catalogue entry in ``qseries verify --json``.
+    """One verified catalogue entry in ``qseries verify --json``; the result of a ``same_as``
+    pair also has ``pair`` (``of``, ``same_as``, ``substitution``, ``swap``, ``differs``).
 
     >>> from types import SimpleNamespace as Outcome
     >>> entry_json(Outcome(ident="euler", holds=None, ok=False, order=-5, first_mismatch=None,
@@ -357,6 +358,9 @@ def entry_json(r: EntryOutcome) -> dict[str, Any]:
                            "seconds": round(r.seconds, 6)}
     if r.error:
         out["error"] = r.error
+    pair = getattr(r, "pair", None)
+    if pair:
+        out["pair"] = pair
     return out
 
 
@@ -384,8 +388,10 @@ def verify_json(results: Sequence[EntryOutcome], seconds: float,
 def listing_rows(entries: Iterable[ListedEntry]) -> list[dict[str, Any]]:
     """One row per identity key (the members of a family counted together): id, members,
     title, source, tags, expect and the file:line where it is written; a family also has
-    ``params``, its parameter ranges (``{"k": "2..5", "i": "1..k"}``), and an entry with a
-    note its ``note``.
+    ``params``, its parameter ranges (``{"k": "2..5", "i": "1..k"}``), an entry with a
+    note its ``note``, one that corrects a misprint ``corrects``, and one recorded as the
+    same identity as another entry ``same_as`` (``{"id", "substitution", "swap",
+    "source"}``).
 
     >>> from types import SimpleNamespace as Entry
     >>> e = Entry(key="euler", title="Euler", source="from memory", tags=("classic",),
@@ -404,6 +410,12 @@ def listing_rows(entries: Iterable[ListedEntry]) -> list[dict[str, Any]]:
             row["params"] = dict(ranges)
         if getattr(e, "note", ""):
             row["note"] = e.note
+        if getattr(e, "corrects", ""):
+            row["corrects"] = e.corrects
+        same = getattr(e, "same_as", None)
+        if same is not None:
+            row["same_as"] = {"id": same.key, "substitution": same.substitution or None,
+                              "swap": same.swap, "source": same.source}
     return list(rows.values())
 
 

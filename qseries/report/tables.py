@@ -123,10 +123,14 @@ def listing_table(rows: Sequence[Mapping[str, Any]]) -> Table:
 
 def sources_lines(rows: Sequence[Mapping[str, Any]]) -> list[str]:
     """The text of ``qseries list --sources``: each identifier (a family with its parameter
-    ranges) and, indented under it, its citation and its note if it has one.
+    ranges) and, indented under it, its citation, its note if it has one, and the entry it
+    is the same identity as (with the substitution and the source of that equivalence).
 
     >>> sources_lines([{"id": "euler", "source": "L. Euler (1748)", "note": ""}])
     ['euler', '    L. Euler (1748)']
+    >>> sources_lines([{"id": "a", "source": "s", "same_as": {"id": "b", "swap": False,
+    ...                 "substitution": "q -> -q", "source": "DLMF 20.2"}}])[2]
+    '    same as b under q -> -q: DLMF 20.2'
     """
     out: list[str] = []
     for row in rows:
@@ -134,6 +138,12 @@ def sources_lines(rows: Sequence[Mapping[str, Any]]) -> list[str]:
         out.append(f"    {row['source']}")
         if row.get("note"):
             out.append(f"    note: {row['note']}")
+        same = row.get("same_as")
+        if same:
+            how = [f"under {same['substitution']}"] if same.get("substitution") else []
+            how += ["with the sides swapped"] if same.get("swap") else []
+            out.append(f"    same as {same['id']}{' ' + ', '.join(how) if how else ''}: "
+                       f"{same['source']}")
     return out
 
 

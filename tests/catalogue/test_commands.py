@@ -210,3 +210,51 @@ def test_list_sources_prints_every_citation():
         assert e.source in r.stdout, e.key
     assert "andrews-gordon k=2..5 i=1..k\n    G. E. Andrews" in r.stdout
     assert "Somos" in r.stdout and "p. 170" in r.stdout
+
+
+def test_verify_and_list_report_a_same_as_pair(tmp_path):
+    # theta_4(0,q) = theta_3(0,-q) (DLMF 20.2.3, 20.2.4) with products DLMF 20.5.3, 20.5.4
+    same = ('same_as = { key = "theta4", substitution = "q -> -q", '
+            'source = "DLMF 20.2.3 and 20.2.4" }')
+    path = tmp_path / "pair.toml"
+    path.write_text(entry("theta4", "sum_{n=-inf}^{inf} (-1)^n q^(n^2)", "(q;q)_inf/(-q;q)_inf")
+                    + entry("theta3", "sum_{n=-inf}^{inf} q^(n^2)",
+                            "(q^2;q^2)_inf (-q;q^2)_inf^2", extra=same))
+    r = runner.invoke(app, ["verify", str(path), "-j", "1", "--json"])
+    assert r.exit_code == 0, r.output
+    results = json.loads(r.stdout)["results"]
+    assert [x["id"] for x in results] == ["theta4", "theta3", "theta3 ~ theta4 (q -> -q)"]
+    assert results[2]["pair"] == {"of": "theta3", "same_as": "theta4",
+                                  "substitution": "q -> -q", "swap": False, "differs": None}
+    r = runner.invoke(app, ["verify", str(path), "-j", "1"])
+    assert r.exit_code == 0 and "3 of 3 entries behave as recorded" in r.stdout
+    rows = json.loads(runner.invoke(app, ["list", str(path), "--json"]).stdout)["identities"]
+    assert rows[1]["same_as"] == {"id": "theta4", "substitution": "q -> -q", "swap": False,
+                                  "source": "DLMF 20.2.3 and 20.2.4"}
+    r = runner.invoke(app, ["list", str(path), "--sources"])
+    assert "    same as theta4 under q -> -q: DLMF 20.2.3 and 20.2.4" in r.stdout
+    # without the substitution the pair differs at q^1 (2 against -2): exit 1
+    path.write_text(path.read_text().replace('substitution = "q -> -q", ', ""))
+    r = runner.invoke(app, ["verify", str(path), "-j", "1", "--json"])
+    assert r.exit_code == 1
+    pair = json.loads(r.stdout)["results"][2]
+    assert pair["ok"] is False and pair["pair"]["differs"] == "left"
+    assert pair["first_mismatch"] == {"index": 1, "lhs": "2", "rhs": "-2"}
+    # an unknown key: exit 2 with the file and the line of the field
+    path.write_text(path.read_text().replace('key = "theta4", ', 'key = "theta5", '))
+    for command in (["verify"], ["list"]):
+        r = runner.invoke(app, [*command, str(path)])
+        assert r.exit_code == 2
+        assert r.stderr.startswith(f"qseries: error: {path}:16: same_as names 'theta5'"), \
+            r.stderr
+
+
+def test_list_json_of_the_shipped_catalogue_shows_corrections_and_pairs():
+    rows = {row["id"]: row for row in json.loads(runner.invoke(app, ["list", "--json"]).stdout)
+            ["identities"]}
+    # Somos' correction of Berndt IV, ch. 25, Entry 27 (27.1), recorded beside the misprint
+    assert rows["berndt-iv-25-27-1"]["corrects"] == "berndt-iv-25-27-1-printed"
+    assert "corrects" not in rows["berndt-iv-25-27-1-printed"]
+    # theta_3(q) = theta_4(-q) (DLMF 20.2.3, 20.2.4)
+    assert rows["triple-product-theta-3"]["same_as"]["substitution"] == "q -> -q"
+    assert "same_as" not in rows["euler-pentagonal"]

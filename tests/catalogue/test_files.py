@@ -308,3 +308,89 @@ def test_a_field_after_the_definitions_table_is_not_an_entry_field(tmp_path):
         '\n[definitions]\n"F(q)" = "(q;q)_inf"\n'
     entries = load_entries([write(tmp_path, text)])
     assert entries[-1].definitions == ("F(q) = (q;q)_inf",)
+
+
+# ---- same_as: an entry recorded as the same identity as another entry in another form ----
+
+PAIR = '''
+[[identity]]
+key = "theta4"
+title = "theta_4 as a product (Gauss)"
+left = "sum_{n=-inf}^{inf} (-1)^n q^(n^2)"
+right = "(q;q)_inf/(-q;q)_inf"
+order = 60
+source = "DLMF 20.2.4 and 20.5.4 at z = 0"
+
+[[identity]]
+key = "theta3"
+title = "theta_3 as a product"
+left = "sum_{n=-inf}^{inf} q^(n^2)"
+right = "(q^2;q^2)_inf (-q;q^2)_inf^2"
+order = 60
+source = "DLMF 20.2.3 and 20.5.3 at z = 0"
+same_as = { key = "theta4", substitution = "q -> -q", source = "theta_4(0,q) = theta_3(0,-q)" }
+
+[[identity]]
+key = "fam"
+title = "A family"
+left = "sum_{n>=0} q^($c n)/(q;q)_n"
+right = "1/(q^$c;q)_inf"
+params = { c = "1..2" }
+order = 40
+source = "from memory"
+'''
+
+
+def test_same_as_is_resolved_to_the_other_entry(tmp_path):
+    entries = load_entries([write(tmp_path, PAIR)])
+    s = {e.ident: e for e in entries}["theta3"].same_as
+    assert (s.partner, s.substitution, s.swap) == ("theta4", "q -> -q", False)
+    assert s.left == "sum_{n=-inf}^{inf} (-1)^n q^(n^2)"     # the other entry's sides
+    assert s.where == f"{tmp_path / 'f.toml'}:17"
+    # a family member by its id, and a family paired member by member with a family
+    member = PAIR.replace('key = "theta4", substitution = "q -> -q"', 'key = "fam[c=2]"')
+    assert load_entries([write(tmp_path, member)])[1].same_as.partner == "fam[c=2]"
+    both = PAIR + "[[identity]]" + PAIR.split("[[identity]]")[3].replace('"fam"', '"fam2"').replace(
+        'source = "from memory"', 'source = "x"\nsame_as = { key = "fam", source = "y" }')
+    twins = [e for e in load_entries([write(tmp_path, both)]) if e.key == "fam2"]
+    assert [e.same_as.partner for e in twins] == ["fam[c=1]", "fam[c=2]"]
+
+
+@pytest.mark.parametrize("old, new, message", [
+    ('key = "theta4", substitution', 'key = "nothing", substitution',
+     "same_as names 'nothing', which is not an entry"),
+    ('key = "theta4", substitution', 'key = "theta3", substitution', "names the entry itself"),
+    ('key = "theta4", substitution', 'key = "fam", substitution',
+     "'fam' is a family: name a member"),
+    ('"q -> -q"', '"q -> 1 - q"', 'the substitution must read "q -> E"'),
+    ('"q -> -q"', '"q -> q^(1/2)"', 'the substitution must read "q -> E"'),
+    ('"q -> -q"', '"z -> -z"', 'the substitution must read "q -> E"'),
+    ('"q -> -q"', '"q -> -q^"', 'the substitution must read "q -> E"'),
+    ('substitution = "q -> -q", ', 'colour = "red", ', "unknown field 'colour' in same_as"),
+    (', source = "theta_4(0,q) = theta_3(0,-q)"', "", "same_as needs source"),
+    ('same_as = { key = "theta4", substitution = "q -> -q", source = "theta_4(0,q) = '
+     'theta_3(0,-q)" }', 'same_as = "theta4"', "same_as must be a table"),
+    ('substitution = "q -> -q"', 'swap = "yes"', "swap must be true or false"),
+])
+def test_same_as_errors_name_file_and_line(tmp_path, old, new, message):
+    assert old in PAIR
+    path = write(tmp_path, PAIR.replace(old, new, 1))
+    with pytest.raises(IdentityFileError) as info:
+        load_entries([path])
+    assert str(info.value).startswith(f"{path}:17:"), str(info.value)
+    assert message in str(info.value)
+
+
+def test_same_as_may_name_an_entry_of_another_file(tmp_path):
+    first, second = PAIR.split('[[identity]]\nkey = "theta3"')
+    write(tmp_path, first, "a.toml")
+    write(tmp_path, '[[identity]]\nkey = "theta3"' + second, "b.toml")
+    assert {e.key: e.same_as for e in load_entries([tmp_path])}["theta3"].partner == "theta4"
+    # b.toml alone: the partner is found in a file beside it, which is not listed itself
+    alone = load_entries([tmp_path / "b.toml"])
+    assert [e.key for e in alone] == ["theta3", "fam", "fam"]
+    assert alone[0].same_as.left == "sum_{n=-inf}^{inf} (-1)^n q^(n^2)"
+    # a sibling that cannot be read is skipped: the pair is then unresolved, an error
+    write(tmp_path, first.replace("order = 60", "order = 0", 1), "a.toml")
+    with pytest.raises(IdentityFileError, match="same_as names 'theta4', which is not an"):
+        load_entries([tmp_path / "b.toml"])

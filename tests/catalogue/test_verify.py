@@ -1,9 +1,18 @@
 """The shipped catalogue verifies entry by entry; an altered side is caught; a recorded
 misprint counts as ok only when it fails exactly where recorded."""
 
+from dataclasses import replace
+
 import pytest
 
-from qseries.catalogue import SHIPPED, load_entries, verify_entries, verify_entry
+from qseries.catalogue import (
+    SHIPPED,
+    load_entries,
+    pair_ident,
+    verify_entries,
+    verify_entry,
+    verify_pair,
+)
 from qseries.catalogue.files import Entry
 
 from .limits import deadline
@@ -90,7 +99,8 @@ def test_an_interrupt_stops_the_workers_and_keeps_what_finished():
     import time
 
     from qseries.catalogue import VerifyInterrupted
-    fast = next(x for x in ENTRIES if x.key == "rogers-ramanujan-1")
+    fast = next(x for x in ENTRIES if x.key == "goellnitz-gordon-1")
+    assert fast.same_as is None                 # one result, not an entry and its pair
     entries = [fast] + [_slow(f"slow-{i}") for i in range(6)]
     seen = []
 
@@ -104,8 +114,8 @@ def test_an_interrupt_stops_the_workers_and_keeps_what_finished():
         verify_entries(entries, jobs=2, progress=progress)
     assert isinstance(info.value, VerifyInterrupted)
     assert time.monotonic() - t0 < 30          # six slow entries would take minutes
-    assert seen == ["rogers-ramanujan-1"]
-    assert [r.ident for r in info.value.results] == ["rogers-ramanujan-1"]
+    assert seen == ["goellnitz-gordon-1"]
+    assert [r.ident for r in info.value.results] == ["goellnitz-gordon-1"]
     assert info.value.total == len(entries)
     assert {p.pid for p in multiprocessing.active_children()} <= before   # workers ended
 
@@ -149,3 +159,79 @@ def test_forty_identities_use_the_files_definitions():
     forty = [e for e in ENTRIES if "forty-identities" in e.tags]
     assert {"forty-1-3", "forty-1-4"} <= {e.key for e in forty}
     assert all(any(d.startswith("G(q) = ") for d in e.definitions) for e in forty)
+
+
+# ---- same_as pairs: the two entries' corresponding sides agree as series ----
+
+PAIRED = [e for e in ENTRIES if e.same_as is not None]
+
+
+@pytest.mark.parametrize("entry", PAIRED, ids=[e.ident for e in PAIRED])
+def test_catalogue_pair_agrees(entry):
+    # each pair is recorded from a named source (DLMF 20.2/20.5, Andrews 1976, ...)
+    r = verify_pair(entry)
+    assert r.ok and r.holds and r.order == entry.order, (r.error, r.first_mismatch)
+    assert r.ident == pair_ident(entry) and r.pair["of"] == entry.ident
+
+
+def test_the_shipped_catalogue_records_pairs_under_q_to_minus_q():
+    # theta_3(q) (DLMF 20.2.3, 20.5.3) is theta_4(-q) = triple-product[m=2,a=1] at -q
+    e = next(x for x in ENTRIES if x.key == "triple-product-theta-3")
+    assert (e.same_as.partner, e.same_as.substitution) == ("triple-product[m=2,a=1]",
+                                                           "q -> -q")
+    assert len(PAIRED) >= 5
+
+
+def test_a_pair_without_its_substitution_fails_on_the_left_side():
+    e = next(x for x in ENTRIES if x.key == "triple-product-theta-3")
+    plain = replace(e, same_as=replace(e.same_as, substitution=""))
+    r = verify_pair(plain)
+    # theta_3(q) = 1 + 2q + ... against theta_4(q) = 1 - 2q + ...: q^1, 2 against -2
+    assert not r.ok and r.holds is False and r.pair["differs"] == "left"
+    assert r.first_mismatch == {"index": 1, "lhs": "2", "rhs": "-2"}
+    assert pair_ident(plain) == "triple-product-theta-3 ~ triple-product[m=2,a=1]"
+
+
+def test_a_pair_checks_the_right_sides_too():
+    e = next(x for x in ENTRIES if x.key == "gauss-theta4")
+    # (q;q)_inf/(-q;q)_inf against (q,q,q^2;q^2)_inf altered to (q,q^2;q^2)_inf: the
+    # left sides still agree, the right sides differ first at q^1 (-2 against -1)
+    altered = replace(e, same_as=replace(e.same_as, right="(q,q^2;q^2)_inf"))
+    r = verify_pair(altered)
+    assert not r.ok and r.pair["differs"] == "right"
+    assert r.first_mismatch == {"index": 1, "lhs": "-2", "rhs": "-1"}
+
+
+def test_a_swapped_pair_compares_left_with_right():
+    from qseries.catalogue.files import SameAs
+    # two forms of one wrong statement (sides equal as series tell nothing about a swap)
+    b = Entry("b", "t", "1/(1-q) + q^7", "1/(1-q)", 30, "s", "-", 1, expect="fails",
+              fails_at=7)
+    a = Entry("a", "t", "1/(1-q)", "1/(1-q) + q^7", 30, "s", "-", 2, expect="fails",
+              fails_at=7, same_as=SameAs("b", "", True, "s", "f:2", partner="b",
+                                         left=b.left, right=b.right))
+    assert verify_pair(a).ok
+    r = verify_pair(replace(a, same_as=replace(a.same_as, swap=False)))
+    assert not r.ok and r.first_mismatch == {"index": 7, "lhs": "1", "rhs": "2"}
+    e = next(x for x in ENTRIES if x.key == "euler-partition-sum")
+    assert e.same_as.swap and verify_pair(e).ok
+
+
+def test_q_to_q_squared_substitution():
+    # Euler's odd-parts identity at q^2 against the entry at q (Andrews 1976, ch. 1)
+    base = Entry("odd", "t", "(-q;q)_inf", "1/(q;q^2)_inf", 50, "s", "-", 1)
+    from qseries.catalogue.files import SameAs
+    moved = Entry("odd2", "t", "(-q^2;q^2)_inf", "1/(q^2;q^4)_inf", 50, "s", "-", 2,
+                  same_as=SameAs("odd", "q -> q^2", False, "s", "f:2", partner="odd",
+                                 left=base.left, right=base.right))
+    assert verify_pair(moved).ok
+    wrong = replace(moved, same_as=replace(moved.same_as, substitution="q -> -q^2"))
+    r = verify_pair(wrong)
+    assert not r.ok and r.first_mismatch["index"] == 2
+
+
+def test_verify_entries_gives_each_pair_after_its_entry():
+    chosen = [e for e in ENTRIES if e.key in ("gauss-theta4", "euler-pentagonal")]
+    ids = [r.ident for r in verify_entries(chosen, jobs=1)]
+    assert ids == ["euler-pentagonal", "gauss-theta4",
+                   "gauss-theta4 ~ triple-product[m=2,a=1]"]
