@@ -23,7 +23,8 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..lang.ast import BigOp, BinOp, Name, Node, Num, free_names, replace_name
+from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, free_names, replace_name
+from .reflect import linear_in
 
 
 def _offset_from(upper: Node, var: str) -> Fraction | None:
@@ -38,6 +39,52 @@ def _offset_from(upper: Node, var: str) -> Fraction | None:
                 isinstance(left, Num):
             return left.value
     return None
+
+
+def _inner_of(body: Node) -> tuple[BigOp | None, Node | None]:
+    """(S, X) when ``body`` is a sum S or X S (either order), else (None, None)."""
+    if isinstance(body, BigOp) and body.kind == "sum":
+        return body, None
+    if isinstance(body, BinOp) and body.op == "*":
+        for one, other in ((body.left, body.right), (body.right, body.left)):
+            if isinstance(one, BigOp) and one.kind == "sum":
+                return one, other
+    return None, None
+
+
+def symmetric_range(node: BigOp) -> Node | None:
+    """``sum_{a>=A} X sum_{b=-a+l}^{a+c} T(b)`` (l <= A, so that the range reaches 0 for
+    every a; X free of b or absent) split at b = 0 into two sums with dependent upper limits:
+    ``sum_{a>=A} X sum_{b=0}^{a+c} T(b) + sum_{a>=A} X sum_{b=1}^{a-l} T(-b)``, which
+    :func:`dependent_upper` then orders as chains; else None.  Papers write such ranges
+    ``sum_{j=-n}^{n}`` (Bailey pairs, Bressoud's identities).
+
+    >>> from qseries.lang.parser import parse
+    >>> from qseries.lang.printer import show
+    >>> show(symmetric_range(parse("sum_{n>=0} q^n sum_{j=-n}^{n} q^(j^2)")))
+    'sum_{n>=0} q^n * sum_{j=0}^{n} q^(j^2) + sum_{n>=0} q^n * sum_{j=1}^{n} q^((-j)^2)'
+    """
+    if node.kind != "sum" or node.upper is not None or not isinstance(node.lower, Num):
+        return None
+    a = node.var
+    inner, outside = _inner_of(node.body)
+    if inner is None or inner.lower is None or inner.upper is None or inner.var == a:
+        return None
+    low, high = linear_in(inner.lower, a), linear_in(inner.upper, a)
+    if low is None or high is None or low[0] != -1 or high[0] != 1 or \
+            low[1].denominator != 1 or high[1].denominator != 1 or \
+            low[1] > node.lower.value or (outside is not None and inner.var in
+                                          free_names(outside)):
+        return None
+    b, p = inner.var, inner.pos
+    negated = replace_name(inner.body, b, Neg(Name(b, p), p))
+    top = BinOp("-", Name(a, p), Num(low[1], p), p) if low[1] else Name(a, p)
+    halves = [BigOp("sum", b, Num(Fraction(0), p), inner.upper, inner.body, p),
+              BigOp("sum", b, Num(Fraction(1), p), top, negated, p)]
+    sums = [BigOp("sum", a, node.lower, None,
+                  h if outside is None else BinOp("*", outside, h, node.body.pos), node.pos)
+            for h in halves]
+    return BinOp("+", sums[0], sums[1], node.pos)
 
 
 def dependent_upper(node: BigOp) -> Node | None:
@@ -55,15 +102,8 @@ def dependent_upper(node: BigOp) -> Node | None:
     if node.kind != "sum" or node.upper is not None or not isinstance(node.lower, Num):
         return None
     a, body = node.var, node.body
-    outside: Node | None = None
-    inner = body
-    if isinstance(body, BinOp) and body.op == "*":
-        for one, other in ((body.left, body.right), (body.right, body.left)):
-            if isinstance(one, BigOp):
-                inner, outside = one, other
-                break
-    if not isinstance(inner, BigOp) or inner.kind != "sum" or inner.upper is None or \
-            not isinstance(inner.lower, Num):
+    inner, outside = _inner_of(body)
+    if inner is None or inner.upper is None or not isinstance(inner.lower, Num):
         return None
     b = inner.var
     c = _offset_from(inner.upper, a)

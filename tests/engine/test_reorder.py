@@ -4,7 +4,7 @@ is summed as the chain it is, checked against published identities and a brute-f
 import pytest
 
 from qseries import check, evaluate
-from qseries.engine.reorder import dependent_upper
+from qseries.engine.reorder import dependent_upper, symmetric_range
 from qseries.lang import parse
 
 
@@ -48,3 +48,35 @@ def test_andrews_gordon_k3_without_its_first_term():
 ])
 def test_sums_that_are_not_reordered(text):
     assert dependent_upper(parse(text)) is None
+
+
+@pytest.mark.parametrize(("big_a", "low", "c"), [(0, 0, 0), (1, 0, 2), (2, -1, -1), (3, 2, 0)])
+def test_a_range_from_minus_n_holds_the_terms_of_the_pairs(big_a, low, c):
+    text = f"sum_{{n>={big_a}}} q^n sum_{{j=-n{low:+d}}}^{{n{c:+d}}} q^(2n + j)"
+    want = [0] * 60           # brute force over the pairs A <= n, -n + l <= j <= n + c
+    for n in range(big_a, 60):
+        for j in range(-n + low, n + c + 1):
+            if 3 * n + j < 60:
+                want[3 * n + j] += 1
+    assert symmetric_range(parse(text)) is not None
+    assert evaluate(text, 60).coefficient_list(60) == want
+
+
+def test_rogers_bailey_pair_summed_from_minus_n():
+    """sum_{j=-n}^{n} (-1)^j q^(j(3j-1)/2)/((q;q)_(n-j) (q;q)_(n+j)) = 1/(q;q)_n, the Bailey
+    pair relative to 1 behind the first Rogers-Ramanujan identity (alpha_j = (-1)^j
+    q^(j(3j-1)/2) (1 + q^j), beta_n = 1/(q;q)_n; G. E. Andrews, q-Series: Their Development
+    and Application, CBMS 66, 1986, ch. 3; from memory), checked for every n at once with z^n
+    marking n, and summed against q^(n^2) as the Rogers-Ramanujan sum side."""
+    body = "(-1)^j q^(j(3j-1)/2)/((q;q)_(n-j) (q;q)_(n+j))"
+    r = check(f"sum_{{n>=0}} z^n sum_{{j=-n}}^{{n}} {body}", "sum_{n>=0} z^n/(q;q)_n",
+              order=30, weights={"z": 1})
+    assert r.holds is True
+    r = check(f"sum_{{n>=0}} q^(n^2) sum_{{j=-n}}^{{n}} {body}",
+              "1/((q;q^5)_inf (q^4;q^5)_inf)", order=300)
+    assert r.holds is True
+
+
+def test_a_range_that_does_not_reach_zero_is_not_split():
+    # j from -n + 2: for n = 0, 1 the range lies above 0, so splitting at 0 would add terms
+    assert symmetric_range(parse("sum_{n>=0} sum_{j=-n+2}^{n} q^(n+j)")) is None
