@@ -501,7 +501,7 @@ class Evaluator:
         hit = self._reorders.get(id(node))
         if hit is None or hit[0] is not node:
             new = reorder.dependent_upper(node) or reorder.symmetric_range(node) or \
-                reflect.negative_half(node) or node
+                reflect.bounded_by_denominators(node) or reflect.negative_half(node) or node
             hit = self._reorders[id(node)] = (node, new)
         return hit[1]
 

@@ -23,7 +23,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, Poch, Q, replace_name
+from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, Poch, Q, free_names, replace_name
 
 Linear = tuple[Fraction, Fraction]
 
@@ -280,3 +280,57 @@ def negative_half(node: BigOp) -> Node | None:
     upper = None if top is None else Num(top, p)
     return BinOp("+", BigOp("sum", node.var, Num(Fraction(0), p), upper, node.body, p),
                  negative, p)
+
+
+def _index_plus(node: Node, var: str) -> tuple[int, Node | None] | None:
+    """(s, R) when ``node`` is s*var + R with s = +-1 and R free of ``var`` (None for 0),
+    written var, -var, R + var, var + R, R - var or var - R."""
+    if isinstance(node, Name) and node.name == var:
+        return 1, None
+    if isinstance(node, Neg) and isinstance(node.operand, Name) and node.operand.name == var:
+        return -1, None
+    if not isinstance(node, BinOp) or node.op not in "+-":
+        return None
+    left, right = node.left, node.right
+    is_var = [isinstance(x, Name) and x.name == var for x in (left, right)]
+    if is_var[1] and var not in free_names(left):
+        return (1 if node.op == "+" else -1), left
+    if is_var[0] and var not in free_names(right):
+        return 1, (right if node.op == "+" else Neg(right, node.pos))
+    return None
+
+
+def bounded_by_denominators(node: BigOp) -> BigOp | None:
+    """A sum over every integer j whose term has denominators (q^t;q^t)_(R + j) and
+    (q^t;q^t)_(R' - j) as the same sum from -R to R': 1/(q^t;q^t)_L is 0 for L < 0 (then
+    (q^t;q^t)_L = 1/(q^(t(1+L));q^t)_(-L) has the factor 1 - q^0), so no other term counts;
+    else None.  Bailey pairs are written so: sum_j alpha_j/((q;q)_(n-j) (q;q)_(n+j)).
+
+    >>> from qseries.lang.parser import parse
+    >>> from qseries.lang.printer import show
+    >>> show(bounded_by_denominators(parse("sum_{j=-inf}^{inf} q^(j^2)/((q;q)_(5-j) (q;q)_(5+j))")))
+    'sum_{j=-5}^{5} q^(j^2) / ((q;q)_{5 - j} * (q;q)_{5 + j})'
+    """
+    if node.kind != "sum" or node.lower is not None or node.upper is not None:
+        return None
+    var, p = node.var, node.pos
+    factors: list[tuple[Node, int]] = []
+    _factors(node.body, 1, factors)
+    low: Node | None = None
+    high: Node | None = None
+    for f, s in factors:
+        if s > 0 or not isinstance(f, Poch) or f.length is None or len(f.params) != 1 or \
+                f.params[0] != f.base or _base_exponent(f.base) is None:
+            continue
+        got = _index_plus(f.length, var)
+        if got is None:
+            continue
+        sign, rest = got
+        zero: Node = Num(Fraction(0), p)
+        if sign > 0 and low is None:           # R + j >= 0: j >= -R
+            low = zero if rest is None else Neg(rest, p)
+        elif sign < 0 and high is None:        # R - j >= 0: j <= R
+            high = zero if rest is None else rest
+    if low is None or high is None:
+        return None
+    return BigOp("sum", var, low, high, node.body, p)

@@ -24,7 +24,7 @@ from __future__ import annotations
 from fractions import Fraction
 
 from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, free_names, replace_name
-from .reflect import linear_in
+from .reflect import bounded_by_denominators, linear_in
 
 
 def _offset_from(upper: Node, var: str) -> Fraction | None:
@@ -57,7 +57,9 @@ def symmetric_range(node: BigOp) -> Node | None:
     every a; X free of b or absent) split at b = 0 into two sums with dependent upper limits:
     ``sum_{a>=A} X sum_{b=0}^{a+c} T(b) + sum_{a>=A} X sum_{b=1}^{a-l} T(-b)``, which
     :func:`dependent_upper` then orders as chains; else None.  Papers write such ranges
-    ``sum_{j=-n}^{n}`` (Bailey pairs, Bressoud's identities).
+    ``sum_{j=-n}^{n}`` (Bailey pairs, Bressoud's identities); an inner sum over every
+    integer whose denominators (q;q)_(a-j) (q;q)_(a+j) bound it is read as such a range
+    (``reflect.bounded_by_denominators``).
 
     >>> from qseries.lang.parser import parse
     >>> from qseries.lang.printer import show
@@ -68,6 +70,8 @@ def symmetric_range(node: BigOp) -> Node | None:
         return None
     a = node.var
     inner, outside = _inner_of(node.body)
+    if inner is not None and inner.lower is None and inner.upper is None:
+        inner = bounded_by_denominators(inner)   # sum_{j=-inf}^{inf} .../((q;q)_(a-j) ...)
     if inner is None or inner.lower is None or inner.upper is None or inner.var == a:
         return None
     low, high = linear_in(inner.lower, a), linear_in(inner.upper, a)

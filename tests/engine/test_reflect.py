@@ -9,7 +9,13 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from qseries import check, evaluate
-from qseries.engine.reflect import linear_in, monomial, negative_half, reflected_body
+from qseries.engine.reflect import (
+    bounded_by_denominators,
+    linear_in,
+    monomial,
+    negative_half,
+    reflected_body,
+)
 from qseries.errors import QSeriesError
 from qseries.lang import parse
 from qseries.lang.printer import show
@@ -122,3 +128,22 @@ def test_linear_and_monomial_readers():
     assert linear_in(parse("n k", bound={"n", "k"}), "n") is None
     assert monomial(parse("2 q^2 / (4 q^-1)")) == (Fraction(1, 2), 3)
     assert monomial(parse("q^n", bound={"n"})) is None
+
+
+def test_a_sum_over_every_integer_bounded_by_its_denominators():
+    """1/(q;q)_L = 0 for L < 0, so sum_{j=-inf}^{inf} T/((q;q)_(5-j) (q;q)_(5+j)) is the sum
+    over -5 <= j <= 5; compared with that sum written out."""
+    bilateral = evaluate("sum_{j=-inf}^{inf} q^(j^2)/((q;q)_(5-j) (q;q)_(5+j))", 40)
+    finite = evaluate("sum_{j=-5}^{5} q^(j^2)/((q;q)_(5-j) (q;q)_(5+j))", 40)
+    assert bilateral == finite
+    node = bounded_by_denominators(parse("sum_{j=-inf}^{inf} 1/((q^2;q^2)_(3+j) (q^2;q^2)_(4-j))"))
+    assert show(node.lower) == "-3" and show(node.upper) == "4"
+
+
+@pytest.mark.parametrize("text", [
+    "sum_{j=-inf}^{inf} q^(j^2)/(q;q)_(5-j)",              # bounded on one side only
+    "sum_{j=-inf}^{inf} q^(j^2)/((q;q^2)_(5-j) (q;q)_(5+j))",  # (q;q^2)_L is not 0 for L < 0
+    "sum_{j=-inf}^{inf} q^(j^2) (q;q)_(5-j) (q;q)_(5+j)",    # numerators
+])
+def test_sums_not_bounded_by_their_denominators(text):
+    assert bounded_by_denominators(parse(text)) is None

@@ -80,3 +80,11 @@ def test_rogers_bailey_pair_summed_from_minus_n():
 def test_a_range_that_does_not_reach_zero_is_not_split():
     # j from -n + 2: for n = 0, 1 the range lies above 0, so splitting at 0 would add terms
     assert symmetric_range(parse("sum_{n>=0} sum_{j=-n+2}^{n} q^(n+j)")) is None
+
+
+def test_rogers_bailey_pair_summed_over_every_integer():
+    """The same Bailey pair written with j over every integer, as sum_j alpha_j/((q;q)_(n-j)
+    (q;q)_(n+j)) is often printed: the denominators vanish outside -n <= j <= n."""
+    r = check("sum_{n>=0} q^(n^2) sum_{j=-inf}^{inf} (-1)^j q^(j(3j-1)/2)"
+              "/((q;q)_(n-j) (q;q)_(n+j))", "1/((q;q^5)_inf (q^4;q^5)_inf)", order=300)
+    assert r.holds is True
