@@ -473,6 +473,9 @@ class Evaluator:
         node = self._reordered(node)
         if not self.has_q(node.body):
             return ranges.numbers(self, node, env)
+        nested = sums.nest_value(self, node, env, order)
+        if nested is not None:
+            return nested
         ks, cut = ranges.term_range(self, node, env, order, deviation=False)
         return sums.sum_value(self, node, ks, env, order, cut=cut)
 
@@ -494,9 +497,13 @@ class Evaluator:
         hit = self._cache.get(key) if closed else None
         if hit is None:
             node = self._reordered(node)
-            ks, cut = ranges.term_range(self, node, env, order, deviation=False)
-            got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
-            hit = got if isinstance(got, tuple) else (got, None)
+            nested = sums.nest_value(self, node, env, order)
+            if nested is not None:
+                hit = (nested, None)
+            else:
+                ks, cut = ranges.term_range(self, node, env, order, deviation=False)
+                got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
+                hit = got if isinstance(got, tuple) else (got, None)
             if closed:
                 self._cache[key] = hit
         return hit

@@ -29,10 +29,11 @@ from fractions import Fraction
 from typing import TYPE_CHECKING
 
 from ..errors import DomainError, QSeriesError
-from ..lang.ast import BigOp, Node, Poch, Q
+from ..lang.ast import BigOp, BinOp, Neg, Node, Poch, Q
 from ..series import Series
 from . import chains, chooser
 from . import symbolic as sym
+from .sum_chain import nest_levels, sum_chain
 from .sum_direct import sum_direct
 from .sum_lambert import sum_lambert
 from .sum_monomials import sum_monomials
@@ -149,6 +150,18 @@ def _shifts(ev: Evaluator, monos: list[tuple[Node, int]], ks: list[int], var: st
             e += p * (Fraction(1) if isinstance(f, Q) else ev.scalar(f.right, env_k))  # type: ignore[attr-defined]
         shifts.append(e)
     return shifts
+
+
+def nest_value(ev: Evaluator, node: BigOp, env: dict[str, int], order: int) -> Series | None:
+    """A nest of sums as a whole by the ``chain`` strategy (``sum_chain``) when the chooser
+    takes it and the nest has its shape; else None (the outermost sum is then summed term
+    by term)."""
+    if "chain" not in ev.allowed or not isinstance(node.body, (BigOp, BinOp, Neg)):
+        return None
+    got = nest_levels(ev, node)
+    if got is None or not chooser.use_chain(ev.allowed, len(got[0])):
+        return None
+    return sum_chain(ev, node, env, order)
 
 
 def sum_value(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], order: int,
