@@ -492,18 +492,16 @@ class Evaluator:
             return None
         if order > MAX_LENGTH:
             return None     # value() gives the error
+        if sums.chain_shaped(self, node):
+            return self.value(node, env, order), None     # a nest: ``chain``, no parts
         closed = not (self.free(node) & env.keys())
         key = ("parts", id(node), order)
         hit = self._cache.get(key) if closed else None
         if hit is None:
             node = self._reordered(node)
-            nested = sums.nest_value(self, node, env, order)
-            if nested is not None:
-                hit = (nested, None)
-            else:
-                ks, cut = ranges.term_range(self, node, env, order, deviation=False)
-                got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
-                hit = got if isinstance(got, tuple) else (got, None)
+            ks, cut = ranges.term_range(self, node, env, order, deviation=False)
+            got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
+            hit = got if isinstance(got, tuple) else (got, None)
             if closed:
                 self._cache[key] = hit
         return hit

@@ -90,7 +90,7 @@ def nest_levels(ev: Evaluator, node: BigOp) -> tuple[list[BigOp], list[tuple[Nod
     cur = node
     while True:
         cur = ev._reordered(cur)
-        if cur.kind != "sum" or len(levels) >= MAX_DEPTH:
+        if not isinstance(cur, BigOp) or cur.kind != "sum" or len(levels) >= MAX_DEPTH:
             return None
         levels.append(cur)
         s, fs = signed_factors(cur.body)

@@ -152,16 +152,20 @@ def _shifts(ev: Evaluator, monos: list[tuple[Node, int]], ks: list[int], var: st
     return shifts
 
 
+def chain_shaped(ev: Evaluator, node: BigOp) -> bool:
+    """Whether ``node`` is a nest of sums that the chooser gives to the ``chain`` strategy
+    first (it may still decline on a closer look)."""
+    if "chain" not in ev.allowed or not isinstance(node.body, (BigOp, BinOp, Neg)):
+        return False
+    got = nest_levels(ev, node)
+    return got is not None and chooser.use_chain(ev.allowed, len(got[0]))
+
+
 def nest_value(ev: Evaluator, node: BigOp, env: dict[str, int], order: int) -> Series | None:
     """A nest of sums as a whole by the ``chain`` strategy (``sum_chain``) when the chooser
     takes it and the nest has its shape; else None (the outermost sum is then summed term
     by term)."""
-    if "chain" not in ev.allowed or not isinstance(node.body, (BigOp, BinOp, Neg)):
-        return None
-    got = nest_levels(ev, node)
-    if got is None or not chooser.use_chain(ev.allowed, len(got[0])):
-        return None
-    return sum_chain(ev, node, env, order)
+    return sum_chain(ev, node, env, order) if chain_shaped(ev, node) else None
 
 
 def sum_value(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], order: int,
