@@ -3,7 +3,7 @@ against the direct reference in every ring, across its threshold (chooser.CHAIN_
 in each change of indices, and on published multi-sum identities against their products."""
 
 import pytest
-from hypothesis import given, settings
+from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
 from qseries.engine import Evaluator, chooser
@@ -204,5 +204,10 @@ def nests(draw):
 @given(nests(), st.integers(0, 30))
 @settings(max_examples=25, deadline=None)
 def test_random_chains_match_the_reference(text, order):
-    fast, slow = both(text, order, "chain")
+    try:
+        slow = Evaluator(ZZ, strategies=["direct"]).evaluate(parse(text), order)
+    except QSeriesError:
+        # the reference's valuation analysis cannot bound some inner sums (q^(b^2 - b))
+        assume(False)
+    fast = Evaluator(ZZ, strategies=["chain"]).evaluate(parse(text), order)
     assert fast == slow, text
