@@ -106,7 +106,13 @@ def nest_levels(ev: Evaluator, node: BigOp) -> tuple[list[BigOp], list[tuple[Nod
 
 def nest_depth(ev: Evaluator, node: BigOp) -> int:
     """How many sums are nested in ``node`` as the chain strategy reads it (1: a single
-    sum, or a shape it does not take)."""
+    sum, or a shape it does not take).
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> nest_depth(Evaluator(), parse("sum_{a>=b>=c>=0} q^(a^2+b^2+c^2)"))
+    3
+    """
     got = nest_levels(ev, node)
     return 1 if got is None else len(got[0])
 
@@ -137,7 +143,14 @@ class _Scalar:
 
 def sum_chain(ev: Evaluator, node: BigOp, env: dict[str, int], order: int) -> Series | None:
     """The nest ``node`` modulo q^order by dynamic programming over its chain of indices;
-    None when it does not have the shape (see the module docstring)."""
+    None when it does not have the shape (see the module docstring).
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> sum_chain(Evaluator(), parse("sum_{i>=0} sum_{j>=0} q^(i^2+j^2)"), {}, 6)
+    1 + 2q + q^2 + 2q^4 + 2q^5 + O(q^6)
+    >>> sum_chain(Evaluator(), parse("sum_{i>=0} sum_{j>=0} q^(i^2+j^2) (q^i;q)_j"), {}, 6)
+    """
     try:
         return _sum_chain(ev, node, env, order)
     except (_Decline, NoBound):

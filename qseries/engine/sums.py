@@ -154,7 +154,15 @@ def _shifts(ev: Evaluator, monos: list[tuple[Node, int]], ks: list[int], var: st
 
 def chain_shaped(ev: Evaluator, node: BigOp) -> bool:
     """Whether ``node`` is a nest of sums that the chooser gives to the ``chain`` strategy
-    first (it may still decline on a closer look)."""
+    first (it may still decline on a closer look).
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> chain_shaped(Evaluator(), parse("sum_{i>=0} sum_{j>=0} q^(i^2+j^2)"))
+    True
+    >>> chain_shaped(Evaluator(strategies=["direct"]), parse("sum_{i>=0} sum_{j>=0} q^(i+j)"))
+    False
+    """
     if "chain" not in ev.allowed or not isinstance(node.body, (BigOp, BinOp, Neg)):
         return False
     got = nest_levels(ev, node)
@@ -164,7 +172,13 @@ def chain_shaped(ev: Evaluator, node: BigOp) -> bool:
 def nest_value(ev: Evaluator, node: BigOp, env: dict[str, int], order: int) -> Series | None:
     """A nest of sums as a whole by the ``chain`` strategy (``sum_chain``) when the chooser
     takes it and the nest has its shape; else None (the outermost sum is then summed term
-    by term)."""
+    by term).
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> nest_value(Evaluator(), parse("sum_{i>=0} sum_{j>=i} q^(i+j)"), {}, 5)
+    1 + q + 2q^2 + 2q^3 + 3q^4 + O(q^5)
+    """
     return sum_chain(ev, node, env, order) if chain_shaped(ev, node) else None
 
 
