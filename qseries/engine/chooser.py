@@ -36,7 +36,10 @@ SUM_STRATEGIES = ("monomials", "splitting", "nested", "lambert", "stepping", "di
 #: infinite q-Pochhammer symbol Euler's product, the exponential of the logarithm, and the
 #: reference factor by factor
 PRODUCT_STRATEGIES = ("pochhammer-form", "triple-pairs", "euler", "exp-log", "factors")
-STRATEGIES = SUM_STRATEGIES + PRODUCT_STRATEGIES
+#: strategies for a nest of sums taken as a whole (``sum_chain``), tried before the
+#: outermost sum is summed term by term with the strategies above
+NEST_STRATEGIES = ("chain",)
+STRATEGIES = SUM_STRATEGIES + PRODUCT_STRATEGIES + NEST_STRATEGIES
 #: the references, always allowed
 REFERENCES = frozenset({"direct", "factors"})
 
@@ -45,6 +48,9 @@ REFERENCES = frozenset({"direct", "factors"})
 SPLIT_RANGE = 256
 #: a finite range the analysis cannot cut is evaluated in full only up to this length
 FALLBACK_RANGE = 20_000
+#: the ``chain`` strategy takes nests of at least this many sums (a single sum has the
+#: single-sum strategies)
+CHAIN_MIN_DEPTH = 2
 #: binary splitting needs at least this many terms
 SPLIT_MIN_TERMS = 8
 #: binary splitting is used while the binomials' exponents add up to at most this many times
@@ -118,6 +124,15 @@ def sum_strategies(allowed: frozenset[str], *, monomials: bool, steppable_only: 
         "direct": True,
     }
     return [name for name in SUM_STRATEGIES if name in allowed and shape[name]]
+
+
+def use_chain(allowed: frozenset[str], depth: int) -> bool:
+    """Whether a nest of ``depth`` sums is tried with the ``chain`` strategy first.
+
+    >>> use_chain(frozenset(STRATEGIES), 3), use_chain(frozenset(STRATEGIES), 1)
+    (True, False)
+    """
+    return "chain" in allowed and depth >= CHAIN_MIN_DEPTH
 
 
 def pochhammer_value(a: Series, t: int, n: int | None, order: int,

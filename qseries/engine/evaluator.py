@@ -512,6 +512,9 @@ class Evaluator:
         node = new
         if not self.has_q(node.body):
             return ranges.numbers(self, node, env)
+        nested = sums.nest_value(self, node, env, order)
+        if nested is not None:
+            return nested
         ks, cut = ranges.term_range(self, node, env, order, deviation=False)
         return sums.sum_value(self, node, ks, env, order, cut=cut)
 
@@ -528,6 +531,8 @@ class Evaluator:
             return None
         if order > MAX_LENGTH:
             return None     # value() gives the error
+        if sums.chain_shaped(self, node):
+            return self.value(node, env, order), None     # a nest: ``chain``, no parts
         closed = not (self.free(node) & env.keys())
         key = ("parts", id(node), order)
         hit = self._cache.get(key) if closed else None

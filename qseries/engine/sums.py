@@ -29,10 +29,11 @@ from fractions import Fraction
 from typing import TYPE_CHECKING
 
 from ..errors import DomainError, QSeriesError
-from ..lang.ast import BigOp, Node, Poch, Q
+from ..lang.ast import BigOp, BinOp, Neg, Node, Poch, Q
 from ..series import Series
 from . import chains, chooser
 from . import symbolic as sym
+from .sum_chain import nest_levels, sum_chain
 from .sum_direct import sum_direct
 from .sum_lambert import sum_lambert
 from .sum_monomials import sum_monomials
@@ -149,6 +150,36 @@ def _shifts(ev: Evaluator, monos: list[tuple[Node, int]], ks: list[int], var: st
             e += p * (Fraction(1) if isinstance(f, Q) else ev.scalar(f.right, env_k))  # type: ignore[attr-defined]
         shifts.append(e)
     return shifts
+
+
+def chain_shaped(ev: Evaluator, node: BigOp) -> bool:
+    """Whether ``node`` is a nest of sums that the chooser gives to the ``chain`` strategy
+    first (it may still decline on a closer look).
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> chain_shaped(Evaluator(), parse("sum_{i>=0} sum_{j>=0} q^(i^2+j^2)"))
+    True
+    >>> chain_shaped(Evaluator(strategies=["direct"]), parse("sum_{i>=0} sum_{j>=0} q^(i+j)"))
+    False
+    """
+    if "chain" not in ev.allowed or not isinstance(node.body, (BigOp, BinOp, Neg)):
+        return False
+    got = nest_levels(ev, node)
+    return got is not None and chooser.use_chain(ev.allowed, len(got[0]))
+
+
+def nest_value(ev: Evaluator, node: BigOp, env: dict[str, int], order: int) -> Series | None:
+    """A nest of sums as a whole by the ``chain`` strategy (``sum_chain``) when the chooser
+    takes it and the nest has its shape; else None (the outermost sum is then summed term
+    by term).
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> nest_value(Evaluator(), parse("sum_{i>=0} sum_{j>=i} q^(i+j)"), {}, 5)
+    1 + q + 2q^2 + 2q^3 + 3q^4 + O(q^5)
+    """
+    return sum_chain(ev, node, env, order) if chain_shaped(ev, node) else None
 
 
 def sum_value(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], order: int,
