@@ -97,6 +97,8 @@ app = typer.Typer(
     no_args_is_help=True,
     add_completion=False,
     pretty_exceptions_enable=False,
+    rich_markup_mode=None,     # help texts are literal: "[q^(5n+4)] F" is notation, not markup
+    context_settings={"max_content_width": 200},   # wrap at the terminal width, as rich did
 )
 
 
