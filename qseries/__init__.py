@@ -44,6 +44,7 @@ from .errors import (
                        UnableError,
 )
 from .lang import parse, show
+from .modularity import prove
 from .report import notebook as _notebook  # noqa: F401  (registers the notebook displays)
 from .series import Series
 
@@ -54,5 +55,5 @@ __all__ = [
     "DomainError", "GF", "IncompatibleRingError", "Mismatch", "ParseError", "PrecisionError",
     "ProductForm", "QQ", "QSeriesError", "Series", "UnableError", "ZZ", "check", "diagnose",
     "dissect", "dissection", "distributions", "divisible", "evaluate", "express",
-    "find_congruences", "laurent_ring", "parse", "product_form", "relations", "show",
+    "find_congruences", "laurent_ring", "parse", "product_form", "prove", "relations", "show",
 ]

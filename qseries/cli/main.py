@@ -743,7 +743,7 @@ def verify(
     malformed files.  Ctrl-C stops the workers, prints the entries that finished and exits
     with 130.
 
-    Example: qseries verify identities --only rogers-ramanujan -n 1000
+    Example: qseries verify --only rogers-ramanujan-1 -n 1000
     """
     import time
 
@@ -797,7 +797,7 @@ def list_cmd(
     """List the identities of the given files (identifier, members, title, source) without
     running them; a family's identifier shows its parameter ranges.
 
-    Example: qseries list identities --sources
+    Example: qseries list --sources
     """
     entries = _load(paths, [])
     if as_json:

@@ -30,11 +30,12 @@ def test_differs_exit_1():
     assert r.exit_code == 1 and r.stdout.startswith("DIFFERS")
 
 
-def test_not_proved_exit_3_whatever_the_evidence():
+def test_not_proved_exit_3_unless_the_evidence_differs():
     r = run("prove", *RR1, "-n", "50")
     assert r.exit_code == 3 and r.stdout.startswith("NOT PROVED") and "AGREES" in r.stdout
+    # not provable, and the ordinary check finds a mismatch: a disproof, exit 1
     r = run("prove", "sum_{n>=1} q^n/(1-q^n)", "q", "-n", "10", "--json")
-    assert r.exit_code == 3
+    assert r.exit_code == 1
     data = json.loads(r.stdout)
     assert data["holds"] is False and data["reason"] and data["certificate"] is None
 
