@@ -64,7 +64,7 @@ from ..series import (
     laurent_text,
     ring_for,
 )
-from ..series.formatting import coefficient_text
+from ..series.formatting import coefficient_text, power_text
 from .display import Displayed
 
 Exponent = int | Fraction
@@ -276,10 +276,7 @@ def _text(x: Exponent | Number | LaurentPoly) -> str:
     return coefficient_text(x)
 
 
-def _power(e: Exponent) -> str:
-    """q^e as text, a fractional exponent in parentheses: q^2, q^(7/4)."""
-    e = Fraction(e)
-    return f"q^{e}" if e.denominator == 1 else f"q^({e})"
+_power = power_text
 
 
 def _known_to(s: Series, order: int) -> Exponent:

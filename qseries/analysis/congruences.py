@@ -44,7 +44,7 @@ from ..lang import Node
 from ..lang.ast import extra_variables
 from ..lang.definitions import Definition
 from ..lang.parser import parse
-from ..series import GF, MAX_LENGTH, Series
+from ..series import GF, MAX_LENGTH, Series, power_text
 
 Exponent = int | Fraction
 Definitions = Mapping[str, Definition] | Iterable[str] | None
@@ -287,8 +287,9 @@ def find_congruences(f: str | Node | Series, order: int, *, max_m: int = 30,
     for s in series.values():
         s.one_class("a congruence search")
         if s.offset != 0 and not s.is_zero():
-            raise DomainError(f"the exponents of this series are q^{s.offset} times integer "
-                              f"powers of q: multiply by q^(-{s.offset}) (or the power papers "
+            raise DomainError(f"the exponents of this series are {power_text(s.offset)} times "
+                              f"integer powers of q: multiply by {power_text(-s.offset)} (or the "
+                              f"power papers "
                               f"use) to search its congruences")
         p = s.precision
         known = min(known, order if p is None else _ceil(Fraction(p)))

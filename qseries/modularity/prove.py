@@ -41,6 +41,7 @@ from ..analysis import CheckResult, check
 from ..errors import integer_argument
 from ..lang import Node, parse
 from ..lang.ast import Dissect
+from ..series import power_text
 from .eta import EtaQuotient, least_level
 from .gamma0 import MAX_LEVEL, cusps_gamma0, index_gamma0, sturm_bound
 from .recognise import RecognisedTerm, Recognition, recognise
@@ -306,8 +307,8 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
     if len(shifts) > 1:
         return _refused(lnode, rnode, order,
                         f"the terms carry different powers of q besides their eta quotients "
-                        f"(q^{shifts[0]} and q^{shifts[1]}); a power of q is not modular, so "
-                        f"no Sturm or valence bound applies")
+                        f"({power_text(shifts[0])} and {power_text(shifts[1])}); a power of q "
+                        f"is not modular, so no Sturm or valence bound applies")
     weights = sorted({t.eta.weight for t in terms})
     if len(weights) > 1:
         return _refused(lnode, rnode, order,

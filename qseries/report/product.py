@@ -10,7 +10,7 @@
 from __future__ import annotations
 
 from ..analysis import ProductForm
-from ..series.formatting import coefficient_text
+from ..series.formatting import power_text
 
 
 def product_lines(pf: ProductForm) -> list[str]:
@@ -31,8 +31,7 @@ def product_lines(pf: ProductForm) -> list[str]:
     """
     if pf.expression is None:
         return [f"no product form of this kind to this order: {pf.reason}"]
-    order = coefficient_text(pf.order)
-    return [pf.expression + f" + O(q^{order})"] + \
+    return [pf.expression + f" + O({power_text(pf.order)})"] + \
         [f"  {label}{value}" for label, value in product_notes(pf)]
 
 
@@ -44,9 +43,8 @@ def product_notes(pf: ProductForm) -> list[tuple[str, str]]:
     >>> product_notes(product_form("(q;q)_inf", 12))[1]
     ('as an eta quotient: ', 'eta(q) q^(-1/24)')
     """
-    order = coefficient_text(pf.order)
     notes = [(f"the exponents repeat with period {pf.period} ({pf.repetitions} full "
-              f"periods below q^{order})", "") if pf.period else
+              f"periods below {power_text(pf.order)})", "") if pf.period else
              ("no period in the exponents below the order; the product is finite", "")]
     if pf.factors:
         notes.append(("in fewer factors: ", pf.factors))

@@ -18,7 +18,7 @@ from typing import TYPE_CHECKING
 
 from ..analysis import CheckResult, Hint
 from ..errors import typed_argument
-from ..series.formatting import coefficient_text
+from ..series.formatting import coefficient_text, power_text
 from .hints import hint_line
 from .neighbours import neighbour_table
 
@@ -76,8 +76,8 @@ def mismatch_report(r: CheckResult, radius: int = 2) -> str:
     typed_argument("r", r, CheckResult, "a CheckResult from qseries.check")
     lines = [r.verdict] + neighbour_table(r, radius)
     if r.order_verified != r.order_requested:
-        lines.append(f"  (only the coefficients below q^{r.order_verified} were compared, not "
-                     f"q^{r.order_requested})")
+        lines.append(f"  (only the coefficients below {power_text(r.order_verified)} were "
+                     f"compared, not {power_text(r.order_requested)})")
     return "\n".join(lines)
 
 

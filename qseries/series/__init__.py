@@ -17,8 +17,8 @@ from ..backend import (
     ring_for,
 )
 from .core import MAX_LENGTH, Series
-from .formatting import format_exponent, format_series
+from .formatting import format_exponent, format_series, power_text
 
 __all__ = ["Series", "Ring", "ZZ", "QQ", "GF", "LaurentPoly", "laurent_ring", "laurent_text",
            "is_prime", "ring_for", "MAX_LENGTH", "format_series",
-           "format_exponent"]
+           "format_exponent", "power_text"]

@@ -73,7 +73,7 @@ from ..errors import (
     UnableError,
     weight_may_help,
 )
-from .formatting import format_exponent
+from .formatting import power_text
 
 Number = int | Fraction
 Exponent = int | Fraction
@@ -119,12 +119,10 @@ def _ceil(x: Exponent) -> int:
     return -((-x.numerator) // x.denominator)
 
 
-def _power_text(e: Exponent) -> str:
-    return "q^0" if e == 0 else format_exponent(e)
 
 
 def _big_o(p: Exponent) -> str:
-    return f"O({_power_text(p)})"
+    return f"O({power_text(p)})"
 
 
 def _min_prec(*ps: int | None) -> int | None:
@@ -355,12 +353,12 @@ class Series:
         e = _as_exponent(e)
         if self.den != 1:
             if self.prec is not None and e >= self.precision:   # type: ignore[operator]
-                raise PrecisionError(f"the coefficient of {_power_text(e)} lies beyond the "
+                raise PrecisionError(f"the coefficient of {power_text(e)} lies beyond the "
                                      f"precision {_big_o(self.precision)}: it is not known")
             return self._base().coefficient(e * self.den)
         n, f = _split_exponent(e)
         if self.prec is not None and e >= self.prec + self.offset:
-            raise PrecisionError(f"the coefficient of {_power_text(e)} lies beyond the "
+            raise PrecisionError(f"the coefficient of {power_text(e)} lies beyond the "
                                  f"precision {_big_o(self.precision)}: it is not known")
         if f != self.offset:
             return 0
@@ -401,14 +399,14 @@ class Series:
             if hi is not None and self.prec is not None and \
                     hi > self.precision:  # type: ignore[operator]
                 shown = f"{'' if lo is None else lo}:{hi}"
-                raise PrecisionError(f"f[{shown}] reaches {_power_text(hi)}, beyond the "
+                raise PrecisionError(f"f[{shown}] reaches {power_text(hi)}, beyond the "
                                      f"precision {_big_o(self.precision)}")
             d = self.den
             return _over(self._base()._slice(slice(None if lo is None else lo * d,
                                                    None if hi is None else hi * d)), d)
         if hi is not None and self.prec is not None and hi > self.prec + self.offset:
             shown = f"{'' if lo is None else lo}:{hi}"
-            raise PrecisionError(f"f[{shown}] reaches {_power_text(hi)}, beyond the precision "
+            raise PrecisionError(f"f[{shown}] reaches {power_text(hi)}, beyond the precision "
                                  f"{_big_o(self.precision)}: coefficients from there on are "
                                  f"not known")
         R, poly, prec = self.ring, self.poly, self.prec
@@ -505,7 +503,7 @@ class Series:
             n = self._known_count(_as_exponent(start, "start"))
             if n > MAX_LENGTH:
                 raise UnableError(f"the series has {n} known coefficients from "
-                                  f"{_power_text(start)} on, beyond the limit {MAX_LENGTH}: "
+                                  f"{power_text(start)} on, beyond the limit {MAX_LENGTH}: "
                                   f"pass n (and start) for the part you need")
         if isinstance(n, bool) or not isinstance(n, numbers.Integral):
             raise ArgumentTypeError(f"n must be an integer, not {type(n).__name__}")
@@ -517,8 +515,8 @@ class Series:
         if self.den != 1:
             return self._ramified_list(n, s)
         if self.prec is not None and last >= self.prec + self.offset:
-            raise PrecisionError(f"the coefficients of {_power_text(s)} .. "
-                                 f"{_power_text(last)} are asked for, but the series is known "
+            raise PrecisionError(f"the coefficients of {power_text(s)} .. "
+                                 f"{power_text(last)} are asked for, but the series is known "
                                  f"only to {_big_o(self.precision)}")
         if self.is_zero():
             return [0] * n
@@ -526,7 +524,7 @@ class Series:
         assert v is not None
         if Fraction(v - s).denominator != 1 or v < s:
             where = "below" if v < s else "off the exponents listed from"
-            raise ArgumentError(f"the series has a term in {_power_text(v)}, {where} "
+            raise ArgumentError(f"the series has a term in {power_text(v)}, {where} "
                                 f"start={s}, that the list would not show: pass start={v} "
                                 f"(its valuation), or slice f[a:b] for a window")
         base = int(v - s)             # the position of the first term in the list
@@ -542,13 +540,13 @@ class Series:
         d = self.den
         base = self._base()
         if self.prec is not None and s + n - 1 >= self.precision:  # type: ignore[operator]
-            raise PrecisionError(f"the coefficients of {_power_text(s)} .. "
-                                 f"{_power_text(s + n - 1)} are asked for, but the series is "
+            raise PrecisionError(f"the coefficients of {power_text(s)} .. "
+                                 f"{power_text(s + n - 1)} are asked for, but the series is "
                                  f"known only to {_big_o(self.precision)}")
         for e, _ in self.terms():
             if e < s or Fraction(e - s).denominator != 1:
                 where = "below" if e < s else "off the exponents listed from"
-                raise ArgumentError(f"the series has a term in {_power_text(e)}, {where} "
+                raise ArgumentError(f"the series has a term in {power_text(e)}, {where} "
                                     f"start={s}, that the list would not show (its exponents "
                                     f"are multiples of q^(1/{d})): slice f[a:b] for a window")
             if e >= s + n:
@@ -1052,7 +1050,7 @@ class Series:
         if self.is_zero():
             return Series(R, R.zero(), 0, 0, prec)
         if s.denominator != 1:
-            raise DomainError(f"the exponents of this series are {_power_text(self.offset)} "
+            raise DomainError(f"the exponents of this series are {power_text(self.offset)} "
                               f"times integer powers of q, so none of them is m n + {r}: "
                               f"choose r in their class, or multiply by a power of q first")
         s_int = s.numerator

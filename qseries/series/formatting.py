@@ -70,6 +70,17 @@ def format_exponent(e: Exponent) -> str:
     return f"q^({e})"
 
 
+def power_text(e: Exponent) -> str:
+    """q^e for messages: ``q^0``, ``q^5``, ``q^-2``, ``q^(7/4)`` (a fraction in parentheses,
+    so that the text reads back as the same power).
+
+    >>> power_text(Fraction(2399, 24)), power_text(0), power_text(1)
+    ('q^(2399/24)', 'q^0', 'q^1')
+    """
+    e = Fraction(e)
+    return f"q^{e.numerator}" if e.denominator == 1 else f"q^({e})"
+
+
 def format_term(e: Exponent, c: int | Fraction, first: bool) -> str:
     """One signed term: ``+ 2q^3``, ``- q``, ``(1/2)q^2``.
 

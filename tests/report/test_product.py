@@ -12,8 +12,8 @@ def test_a_periodic_product():
 
 def test_a_fractional_order_and_an_eta_quotient():
     assert product_lines(product_form("(q;q)_inf^2 q^(1/12)", 60)) == [
-        "q^(1/12) (q;q)_inf^2 + O(q^719/12)",
-        "  the exponents repeat with period 1 (58 full periods below q^719/12)",
+        "q^(1/12) (q;q)_inf^2 + O(q^(719/12))",      # q^719/12 would read as q^719 / 12
+        "  the exponents repeat with period 1 (58 full periods below q^(719/12))",
         "  as an eta quotient: eta(q)^2"]
 
 
