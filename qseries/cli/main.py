@@ -628,6 +628,9 @@ def congruences_cmd(
             r = None
         if r is None:
             _fail(f"--residue {residue!r}: write a whole number or a fraction such as 95/24")
+        if step == 1 and r != 0 and r.denominator == 1:
+            _fail(f"--residue {residue} needs --step M with {residue} < M: the progression "
+                  f"is a(M n + R) (without --step, M = 1 and every coefficient is tested)")
     result = _guarded(lambda: divisible(node, modulus, order, m=step, r=r))
     _emit(as_json, result, divisibility_json, divisibility_lines, bool(result.holds))
 

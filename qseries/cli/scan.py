@@ -132,7 +132,7 @@ def scan(
         record_header,
         run_scan,
     )
-    from ..lang.parser import definitions_of
+    from ..lang.parser import definitions_of, parse
     from ..report import scan_json, scan_lines
 
     ranges = tuple(_guarded(parse_param, p) for p in param)
@@ -140,7 +140,16 @@ def scan(
     family = _guarded(lambda: Family(template, ranges, tuple(where or ()), right,
                                      tuple(define or ())))
     criteria = _guarded(lambda: Criteria(order, period, exponent, filter_order))
-    _guarded(lambda: next(iter(family.members()), None))   # ranges and constraints read
+    first = _guarded(lambda: next(iter(family.members()), None))   # ranges, constraints
+    if first is None:
+        _fail("the parameter ranges and --where constraints leave no member to scan")
+    # a template that does not read (an unknown $name, a syntax error) is bad input, not a
+    # scan whose every member fails: its first member must expand and parse
+    values, defs = dict(first), definitions_of(define or [])
+    for side in (family.expand, family.expand_right):
+        text = _guarded(lambda side=side: side(values))
+        if text is not None:
+            _guarded(lambda text=text: parse(text, definitions=defs))
     record = None
     if resume and out is None:
         _fail("--resume continues the scan recorded next to --out FILE: give --out")

@@ -66,8 +66,9 @@ def _split_comparison(text: str) -> tuple[str, str, str]:
     for op in _COMPARISONS:
         left, sep, right = text.partition(op)
         if sep:
-            if any(o in right for o in _COMPARISONS) or not left.strip() or not right.strip():
-                break
+            if any(ch in left + right for ch in "<>=!") or not left.strip() \
+                    or not right.strip():
+                break                # "b =< 2", "a <= b <= c": not one comparison
             return left.strip(), op, right.strip()
     raise ArgumentError(f"constraint {text!r}: write two integer expressions in the "
                         f"parameters joined by one of {' '.join(_COMPARISONS)}, such as "

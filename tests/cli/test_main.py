@@ -707,3 +707,9 @@ def test_help_texts_keep_the_notation_in_brackets():
     for command in ("express", "congruences"):
         r = runner.invoke(app, [command, "--help"])
         assert "[q^(" in r.stdout, command
+
+
+def test_a_residue_without_a_step_is_refused_with_the_reason():
+    # found by a trial: the message spoke of "0 <= r < m = 1" instead of the missing --step
+    r = run("congruences", "1/(q;q)_inf", "--modulus", "5", "--residue", "4")
+    assert r.exit_code == 2 and "needs --step" in r.stderr

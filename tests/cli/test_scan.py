@@ -178,3 +178,15 @@ def test_definitions_reach_the_members_and_the_out_file(tmp_path):
     assert '"G(q)" = "sum_{n>=0} q^(n^2)/(q;q)_n"' in out.read_text()
     v = runner.invoke(app, ["verify", str(out), "-n", "400", "-j", "1"])
     assert v.exit_code == 0, v.output
+
+
+@pytest.mark.parametrize(("template", "spec", "extra", "said"), [
+    ("sum_{n>=0} q^(n^2+$c n)/(q;q)_n", "b=0..3", [], "unknown template parameter $c"),
+    ("sum_{n>=0} q^(n^2+$b n)/(q;q_n", "b=0..3", [], "expected ')'"),
+    ("sum_{n>=0} q^(n^2+$b n)/(q;q)_n", "b=3..0", [], "no member"),
+    ("sum_{n>=0} q^(n^2+$b n)/(q;q)_n", "b=0..3", ["--where", "b =< 2"], "write two"),
+])
+def test_a_template_that_does_not_read_is_bad_input(template, spec, extra, said):
+    # found by a trial: these scanned every member, failed each, and exited 1 ("no hits")
+    r = run(template, "-p", spec, "-n", "30", *extra)
+    assert r.exit_code == 2 and said in r.stderr
