@@ -52,7 +52,11 @@ def sum_stepping(ev: Evaluator, plan: SumPlan) -> Series:
         need = max(target - ceil_int(shifts[i]), 1)
         keep = target - ceil_int(suffix_min[i])
         # advance the stepping products (ratio of consecutive terms: a few binomials)
-        if plan.steppable and state is None:
+        if plan.steppable and (state is None or (state.is_zero() and state.is_exact)):
+            # the first term, or after an exactly zero product (a factor 1 - 1, as in
+            # 1/(q;q)_n for n < 0): no division can step on from 0, so every stepping
+            # factor starts again from its value at k (restarting only the one whose turn
+            # it was dropped the others, a wrong value the regression tests pin)
             state = Series.constant(1, ev.ring)
             for f, p in plan.steppable:
                 first = step(ev, f, p, None, None, k, env, var, keep)
@@ -98,10 +102,10 @@ def step(ev: Evaluator, f: Poch, p: int, state: Series | None, prev_k: int | Non
     between n(prev_k) and n(k); computed directly the first time."""
     keep = max(keep, 1)     # modulo q^0 the first value could not be inverted
     n_k = ev.integer(f.length, {**env, var: k}, "a subscript")  # type: ignore[arg-type]
-    if state is None or prev_k is None or (state.is_zero() and state.is_exact):
-        # an exactly zero state (a factor 1 - 1 of 1/(q;q)_n, n < 0) cannot be stepped
-        # on by division: start again from the value at k
+    if state is None or prev_k is None:
         return ev._poch_power(f, p, {**env, var: k}, keep)
+    if state.is_zero() and state.is_exact:
+        return state       # 0 stays 0: the caller restarts every factor at the next term
     n_prev = ev.integer(f.length, {**env, var: prev_k}, "a subscript")  # type: ignore[arg-type]
     t = ev._base_step(f, env, keep)
     acc = state
