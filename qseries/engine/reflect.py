@@ -21,6 +21,7 @@ the order of summation does not change the value.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from fractions import Fraction
 
 from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, Poch, Q, free_names, replace_name
@@ -162,12 +163,14 @@ def reflected_body(body: Node, var: str) -> tuple[Node, int | None] | None:
     a2, a1, a0 = Fraction(0), Fraction(0), Fraction(0)     # the exponent of q, in var
     found = False
     stop: int | None = None
+    poles = False            # whether a denominator may vanish for some index
     for node, s in factors:
         lin = linear_in(node.length, var) if isinstance(node, Poch) and \
             node.length is not None else None
         t = _base_exponent(node.base) if isinstance(node, Poch) else None
         if lin is None or lin[0] >= 0 or t is None or not isinstance(node, Poch):
             (top if s > 0 else bottom).append(node)
+            poles = poles or (s < 0 and var in free_names(node))   # may vanish somewhere
             continue
         found = True
         p = node.pos
@@ -179,6 +182,8 @@ def reflected_body(body: Node, var: str) -> tuple[Node, int | None] | None:
             mono = monomial(a)
             if mono is not None:
                 c, v = mono
+                if s > 0 and c == 1 and t - v <= 0 and (t - v) % t == 0:
+                    poles = True     # 1/(q^(t-v);q^t)_K: the term is infinite from there
                 if s < 0 and c == 1 and t - v <= 0 and (t - v) % t == 0:
                     # the factor 1 - q^0 of (q^(t-v);q^t)_K once K > (v-t)/t: from there
                     # on the terms are 0 (the negative half is finite)
@@ -208,6 +213,8 @@ def reflected_body(body: Node, var: str) -> tuple[Node, int | None] | None:
     if exponent is not None:
         top.insert(0, BinOp("^", Q(pos), exponent, pos))
     num = _product(top, pos)
+    if poles:
+        stop = None          # 0 times an infinite factor is no term: never cut the range there
     return (num if not bottom else BinOp("/", num, _product(bottom, pos), pos)), stop
 
 
@@ -284,20 +291,30 @@ def negative_half(node: BigOp) -> Node | None:
 
 def _index_plus(node: Node, var: str) -> tuple[int, Node | None] | None:
     """(s, R) when ``node`` is s*var + R with s = +-1 and R free of ``var`` (None for 0),
-    written var, -var, R + var, var + R, R - var or var - R."""
-    if isinstance(node, Name) and node.name == var:
-        return 1, None
-    if isinstance(node, Neg) and isinstance(node.operand, Name) and node.operand.name == var:
-        return -1, None
-    if not isinstance(node, BinOp) or node.op not in "+-":
+    however the sum is written (j + n + 1, n + 1 - j, -j + 3, ...)."""
+    parts: list[tuple[int, Node]] = []          # the summands, with their signs
+
+    def walk(x: Node, sign: int) -> None:
+        if isinstance(x, BinOp) and x.op in "+-":
+            walk(x.left, sign)
+            walk(x.right, sign if x.op == "+" else -sign)
+        elif isinstance(x, Neg):
+            walk(x.operand, -sign)
+        else:
+            parts.append((sign, x))
+
+    walk(node, 1)
+    at_var = [sg for sg, x in parts if isinstance(x, Name) and x.name == var]
+    rest = [(sg, x) for sg, x in parts if not (isinstance(x, Name) and x.name == var)]
+    if len(at_var) != 1 or any(var in free_names(x) for _, x in rest):
         return None
-    left, right = node.left, node.right
-    is_var = [isinstance(x, Name) and x.name == var for x in (left, right)]
-    if is_var[1] and var not in free_names(left):
-        return (1 if node.op == "+" else -1), left
-    if is_var[0] and var not in free_names(right):
-        return 1, (right if node.op == "+" else Neg(right, node.pos))
-    return None
+    out: Node | None = None
+    for sg, x in rest:
+        if out is None:
+            out = x if sg > 0 else Neg(x, x.pos)
+        else:
+            out = BinOp("+" if sg > 0 else "-", out, x, x.pos)
+    return at_var[0], out
 
 
 def bounded_by_denominators(node: BigOp) -> BigOp | None:
@@ -316,10 +333,14 @@ def bounded_by_denominators(node: BigOp) -> BigOp | None:
     var, p = node.var, node.pos
     factors: list[tuple[Node, int]] = []
     _factors(node.body, 1, factors)
-    low: Node | None = None
-    high: Node | None = None
+    lows: list[Node] = []
+    highs: list[Node] = []
     for f, s in factors:
-        if s > 0 or not isinstance(f, Poch) or f.length is None or len(f.params) != 1 or \
+        if s > 0:
+            if isinstance(f, Poch) and f.length is not None and var in free_names(f.length):
+                return None     # it may be infinite outside the range: 0 times it is no term
+            continue
+        if not isinstance(f, Poch) or f.length is None or len(f.params) != 1 or \
                 f.params[0] != f.base or _base_exponent(f.base) is None:
             continue
         got = _index_plus(f.length, var)
@@ -327,10 +348,20 @@ def bounded_by_denominators(node: BigOp) -> BigOp | None:
             continue
         sign, rest = got
         zero: Node = Num(Fraction(0), p)
-        if sign > 0 and low is None:           # R + j >= 0: j >= -R
-            low = zero if rest is None else Neg(rest, p)
-        elif sign < 0 and high is None:        # R - j >= 0: j <= R
-            high = zero if rest is None else rest
-    if low is None or high is None:
+        if sign > 0:                           # R + j >= 0: j >= -R
+            lows.append(zero if rest is None else Neg(rest, p))
+        else:                                  # R - j >= 0: j <= R
+            highs.append(zero if rest is None else rest)
+    if not lows or not highs:
         return None
+    low, high = _tightest(lows, max), _tightest(highs, min)
     return BigOp("sum", var, low, high, node.body, p)
+
+
+def _tightest(bounds: list[Node], pick: Callable[..., Fraction]) -> Node:
+    """The tightest of several limits when they are all numbers, else the first (every one
+    of them is a valid limit: the terms beyond each are 0)."""
+    values = [linear_in(b, "") for b in bounds]
+    if all(v is not None for v in values):
+        return Num(pick(v[1] for v in values if v is not None), bounds[0].pos)
+    return bounds[0]

@@ -53,8 +53,9 @@ def _inner_of(body: Node) -> tuple[BigOp | None, Node | None]:
 
 
 def symmetric_range(node: BigOp) -> Node | None:
-    """``sum_{a>=A} X sum_{b=-a+l}^{a+c} T(b)`` (l <= A, so that the range reaches 0 for
-    every a; X free of b or absent) split at b = 0 into two sums with dependent upper limits:
+    """``sum_{a>=A} X sum_{b=-a+l}^{a+c} T(b)`` (l <= A and A + c >= -1, so that the range
+    runs from <= 0 to >= -1 for every a; X free of b or absent) split at b = 0 into two
+    sums with dependent upper limits:
     ``sum_{a>=A} X sum_{b=0}^{a+c} T(b) + sum_{a>=A} X sum_{b=1}^{a-l} T(-b)``, which
     :func:`dependent_upper` then orders as chains; else None.  Papers write such ranges
     ``sum_{j=-n}^{n}`` (Bailey pairs, Bressoud's identities); an inner sum over every
@@ -77,8 +78,10 @@ def symmetric_range(node: BigOp) -> Node | None:
     low, high = linear_in(inner.lower, a), linear_in(inner.upper, a)
     if low is None or high is None or low[0] != -1 or high[0] != 1 or \
             low[1].denominator != 1 or high[1].denominator != 1 or \
-            low[1] > node.lower.value or (outside is not None and inner.var in
-                                          free_names(outside)):
+            low[1] > node.lower.value or node.lower.value + high[1] < -1 or \
+            (outside is not None and inner.var in free_names(outside)):
+        # l <= A: the range reaches down to 0 for every a; A + c >= -1: it reaches up to -1
+        # (else for small a the range ends below -1 and the negative half would add terms)
         return None
     b, p = inner.var, inner.pos
     negated = replace_name(inner.body, b, Neg(Name(b, p), p))

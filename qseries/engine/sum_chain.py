@@ -201,6 +201,8 @@ def _sum_chain(ev: Evaluator, node: BigOp, env: dict[str, int], order: int) -> S
                 v = a.valuation
                 if v is not None and (a.den != 1 or v < 1):
                     raise _Decline         # a factor that is not a unit
+                if a.ring != ev.ring:
+                    raise _Decline         # q/2 over ZZ: the levels would mix rings
             sub = ev.bounds.poly_of(f.length, syms, env)
             _linear_check(sub)
             pochs.append((f, p, sub, t, params))

@@ -147,3 +147,25 @@ def test_a_sum_over_every_integer_bounded_by_its_denominators():
 ])
 def test_sums_not_bounded_by_their_denominators(text):
     assert bounded_by_denominators(parse(text)) is None
+
+
+def test_zero_times_infinity_is_no_term():
+    """Regressions (found by a fuzzing run): (q^2;q)_n/(q^2;q)_n for n <= -2 is 0/0 after
+    reflection (a pole of the numerator against the zero of the denominator); those terms
+    were dropped as if 0.  The same sum over a finite range is refused, so this one is too."""
+    with pytest.raises(QSeriesError):
+        evaluate("sum_{n=-inf}^{inf} (q^2;q)_n q^(n^2)/(q^2;q)_n", 10)
+    with pytest.raises(QSeriesError):
+        evaluate("sum_{n=-5}^{5} (q^2;q)_n q^(n^2)/(q^2;q)_n", 10)
+    # a numerator that may be infinite outside the range: not bounded by the denominators
+    assert bounded_by_denominators(parse(
+        "sum_{j=-inf}^{inf} q^(j^2) (q;q)_(j+2)/((q;q)_(j+2) (q;q)_(3-j))")) is None
+
+
+def test_the_tightest_denominator_bound_and_sums_written_any_way():
+    node = bounded_by_denominators(parse(
+        "sum_{j=-inf}^{inf} q^(j^2)/((q;q)_(j+2) (q;q)_(3-j) (q;q)_(-j))"))
+    assert show(node.lower) == "-2" and show(node.upper) == "0"
+    node = bounded_by_denominators(parse(
+        "sum_{j=-inf}^{inf} q^(j^2)/((q;q)_(j+n+1) (q;q)_(-j+3))", bound={"n"}))
+    assert node is not None and show(node.upper) == "3"

@@ -50,7 +50,8 @@ def test_sums_that_are_not_reordered(text):
     assert dependent_upper(parse(text)) is None
 
 
-@pytest.mark.parametrize(("big_a", "low", "c"), [(0, 0, 0), (1, 0, 2), (2, -1, -1), (3, 2, 0)])
+@pytest.mark.parametrize(("big_a", "low", "c"), [(0, 0, 0), (1, 0, 2), (2, -1, -1), (3, 2, 0),
+                                                  (2, 0, -3), (0, 0, -1)])
 def test_a_range_from_minus_n_holds_the_terms_of_the_pairs(big_a, low, c):
     text = f"sum_{{n>={big_a}}} q^n sum_{{j=-n{low:+d}}}^{{n{c:+d}}} q^(2n + j)"
     want = [0] * 60           # brute force over the pairs A <= n, -n + l <= j <= n + c
@@ -80,6 +81,10 @@ def test_rogers_bailey_pair_summed_from_minus_n():
 def test_a_range_that_does_not_reach_zero_is_not_split():
     # j from -n + 2: for n = 0, 1 the range lies above 0, so splitting at 0 would add terms
     assert symmetric_range(parse("sum_{n>=0} sum_{j=-n+2}^{n} q^(n+j)")) is None
+    # j up to n - 3 (regression, found by a fuzzing run): for n = 1 the range -1..-2 is
+    # empty, but the negative half added j = -1
+    assert symmetric_range(parse("sum_{n>=0} q^n sum_{j=-n}^{n-3} q^(j^2)")) is None
+    assert symmetric_range(parse("sum_{n>=2} q^n sum_{j=-n}^{n-3} q^(j^2)")) is not None
 
 
 def test_rogers_bailey_pair_summed_over_every_integer():

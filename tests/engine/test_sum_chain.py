@@ -142,6 +142,9 @@ DECLINED = [
     "sum_{i>=0} sum_{j>=0} q^(i^2+j^2-3j)",                   # E decreases along j at first
     "sum_{i>=0} sum_{j=0}^{5} q^(i^2+j)",                     # an upper limit
     "sum_{i>=0} sum_{j>=0} q^(i^2+j^2)/(q;q)_(j-i)",          # subscripts below 0
+    # a rational parameter in a ZZ evaluation (regression, found by a fuzzing run: the
+    # levels mixed fmpq and fmpz polynomials, a TypeError)
+    "sum_{k>=0} sum_{n>=k} q^(n+k) (q/2;q)_(n-k)",
 ]
 
 
