@@ -32,7 +32,7 @@ from ..engine.chooser import (
 from ..engine.cost import CostEstimate, estimate_cost
 from ..errors import ParseError, QSeriesError
 from ..lang import Node, parse
-from ..lang.parser import NOTATION_FORMS, definitions_of, is_extra_variable
+from ..lang.parser import NOTATION_FORMS, definitions_of, is_extra_variable, split_identity
 from ..products import FUNCTIONS
 from ..report import (
     check_json,
@@ -186,6 +186,16 @@ DefineOption = Annotated[list[str] | None, typer.Option(
          "G(-q)).  Repeatable; definitions may call each other, not in a cycle.")]
 
 
+RhsArgument = Annotated[str | None, typer.Argument(
+    metavar="RHS", help="The right side; or give one argument \"LHS = RHS\" (a display "
+                        "pasted whole, &= allowed).")]
+
+
+def _sides(lhs: str, rhs: str | None) -> list[str]:
+    """The two sides: as given, or split at the one '=' of a pasted identity."""
+    return [lhs, rhs] if rhs is not None else list(_guarded(split_identity, lhs))
+
+
 def _parsed(exprs: list[str], defines: list[str] | None) -> list[Node]:
     """The expressions' syntax trees, with the --define functions expanded (exit 2 with the
     position on an error)."""
@@ -274,7 +284,8 @@ def _draw(kind: str, what: Any, path: Path, *args: Any) -> None:
 
 @app.command()
 def expand(
-    expr: Annotated[str, typer.Argument(help="The expression, e.g. \"1/(q;q)_inf\".")],
+    expr: Annotated[str, typer.Argument(
+        metavar="EXPR", help="The expression, e.g. \"1/(q;q)_inf\".")],
     order: OrderOption = 100,
     weight: WeightOption = None,
     define: DefineOption = None,
@@ -348,8 +359,8 @@ STATUS_ORDER = 2_000
 
 @app.command(name="check")
 def check_cmd(
-    lhs: Annotated[str, typer.Argument(help="The left side.")],
-    rhs: Annotated[str, typer.Argument(help="The right side.")],
+    lhs: Annotated[str, typer.Argument(metavar="LHS", help="The left side.")],
+    rhs: RhsArgument = None,
     order: OrderOption = 100,
     method: Annotated[Method, typer.Option(
         "--method", "-m",
@@ -379,7 +390,7 @@ def check_cmd(
     """
     started = time.perf_counter()   # --json reports the whole command's time
     weights = _weights(weight)
-    lnode, rnode = _parsed([lhs, rhs], define)
+    lnode, rnode = _parsed(_sides(lhs, rhs), define)
     modular = method == Method.modular or (method == Method.auto and order >= AUTO_MODULAR_ORDER)
     _refuse_long(allow_long, [lnode, rnode], order, _probe_field() if modular else None, weights,
                  times=primes if modular else 1)
@@ -412,7 +423,7 @@ def _probe_field() -> Any:
 
 @app.command()
 def product(
-    expr: Annotated[str, typer.Argument(help="The series, e.g. a sum side.")],
+    expr: Annotated[str, typer.Argument(metavar="EXPR", help="The series, e.g. a sum side.")],
     order: OrderOption = 100,
     define: DefineOption = None,
     as_json: JsonOption = False,
@@ -470,7 +481,7 @@ class ExportFormat(StrEnum):
 
 @app.command()
 def distribution(
-    expr: Annotated[str, typer.Argument(
+    expr: Annotated[str, typer.Argument(metavar="EXPR",
         help="A generating function in q and one extra variable that marks a statistic, "
              "e.g. the Durfee square: \"sum_{k>=0} z^k q^(k^2)/(q;q)_k^2\".")],
     var: Annotated[str, typer.Option("--var", help="The variable that marks the statistic.")
@@ -563,7 +574,7 @@ def distribution(
 
 @app.command(name="congruences")
 def congruences_cmd(
-    expr: Annotated[str, typer.Argument(
+    expr: Annotated[str, typer.Argument(metavar="EXPR",
         help="The series, e.g. \"1/(q;q)_inf\" or a dissection \"[q^(5n+4)] 1/(q;q)_inf\".")],
     order: Annotated[int, typer.Option(
         "--order", "-n", min=1, max=MAX_LENGTH,
@@ -637,7 +648,7 @@ def congruences_cmd(
 
 @app.command(name="relations")
 def relations_cmd(
-    exprs: Annotated[list[str], typer.Argument(
+    exprs: Annotated[list[str], typer.Argument(metavar="EXPRS",
         help="The series, e.g. \"theta_3(q)^4\" \"theta_2(q)^4\" \"theta_4(q)^4\".")],
     order: OrderOption = 200,
     degree: Annotated[int, typer.Option(
@@ -663,9 +674,9 @@ def relations_cmd(
 
 @app.command(name="express")
 def express_cmd(
-    target: Annotated[str, typer.Argument(
+    target: Annotated[str, typer.Argument(metavar="TARGET",
         help="The series to express, e.g. \"[q^(5n+4)] 1/(q;q)_inf\".")],
-    basis: Annotated[list[str], typer.Argument(
+    basis: Annotated[list[str], typer.Argument(metavar="BASIS",
         help="The basis series, e.g. \"(q^5;q^5)_inf^5/(q;q)_inf^6\".")],
     order: OrderOption = 200,
     define: DefineOption = None,

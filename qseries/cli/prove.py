@@ -12,7 +12,7 @@ from typing import Annotated
 import typer
 
 from ..lang import Node
-from .main import DefineOption, JsonOption, OrderOption, _guarded, _parsed
+from .main import DefineOption, JsonOption, OrderOption, RhsArgument, _guarded, _parsed, _sides
 
 
 def mention_prove(lnode: Node, rnode: Node, holds: bool | None) -> None:
@@ -32,8 +32,8 @@ def mention_prove(lnode: Node, rnode: Node, holds: bool | None) -> None:
 
 
 def prove_cmd(
-    lhs: Annotated[str, typer.Argument(help="The left side.")],
-    rhs: Annotated[str, typer.Argument(help="The right side.")],
+    lhs: Annotated[str, typer.Argument(metavar="LHS", help="The left side.")],
+    rhs: RhsArgument = None,
     order: OrderOption = 100,
     define: DefineOption = None,
     as_json: JsonOption = False,
@@ -51,7 +51,7 @@ def prove_cmd(
     from ..modularity.prove import prove
     from ..report.proof import proof_json, proof_lines
 
-    lnode, rnode = _parsed([lhs, rhs], define)
+    lnode, rnode = _parsed(_sides(lhs, rhs), define)
     result = _guarded(prove, lnode, rnode, order)
     if as_json:
         typer.echo(json.dumps(proof_json(result)))

@@ -64,7 +64,7 @@ def _run_with_bar(run: Any, wanted: bool, *args: Any, **kwargs: Any) -> Any:
 
 @app.command(name="scan")
 def scan(
-    template: Annotated[str, typer.Argument(
+    template: Annotated[str, typer.Argument(metavar="TEMPLATE",
         help="A sum side with parameters in the catalogue's template syntax, e.g. "
              "\"sum_{n>=0} q^(n^2+$b n)/(q;q)_n\".")],
     param: Annotated[list[str], typer.Option(

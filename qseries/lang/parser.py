@@ -149,6 +149,9 @@ class _Parser:
             raise self.error("empty expression")
         node = self.expr()
         if self.tok.kind != "end":
+            if self.tok.text == "=":
+                raise self.error("unexpected '=': an identity's two sides are two arguments "
+                                 "(qseries check LHS RHS), not one text LHS = RHS")
             raise self.error(f"unexpected {self.tok.text!r}")
         return node
 
@@ -778,6 +781,29 @@ def parse_body(text: str, start: int, params: Iterable[str],
     while p.tok.kind != "end" and p.tok.pos < start:
         p.i += 1
     return p.parse()
+
+
+def split_identity(text: str) -> tuple[str, str]:
+    """The two sides of an identity pasted as one text ``LHS = RHS`` (plain or LaTeX, with
+    ``&=`` as displays align it): split at the one ``=`` outside every bracket (the ``=``
+    of ``sum_{n=0}`` lies inside braces).
+
+    >>> split_identity(r"\\sum_{n=0}^{\\infty} q^n &= \\frac{1}{1-q}")
+    ('\\\\sum_{n=0}^{\\\\infty} q^n &', ' \\\\frac{1}{1-q}')
+    """
+    depth, cuts = 0, []
+    for t in tokenize(text):
+        if t.kind == "sym" and t.text in ("(", "{", "["):
+            depth += 1
+        elif t.kind == "sym" and t.text in (")", "}", "]"):
+            depth -= 1
+        elif t.kind == "sym" and t.text == "=" and depth == 0:
+            cuts.append(t.pos)
+    if len(cuts) != 1:
+        raise ParseError("give the two sides as two arguments (LHS RHS), or one text with "
+                         "one '=' between them" + (f" (this one has {len(cuts)})" if cuts
+                                                   else ""), text, cuts[1] if cuts else 0)
+    return text[:cuts[0]], text[cuts[0] + 1:]
 
 
 def parse(text: str, bound: Iterable[str] = (),

@@ -57,6 +57,11 @@ LATEX_IGNORED = frozenset({
     "bigl", "bigr", "Bigl", "Bigr", "biggl", "biggr", "Biggl", "Biggr", "displaystyle",
     "textstyle", "limits", "nolimits",
 })
+#: the sizing commands of LATEX_IGNORED that may come before a bracket
+LATEX_SIZED = frozenset(x for x in LATEX_IGNORED if x in ("left", "right") or
+                        x.lower().startswith("big"))
+#: LaTeX commands dropped together with their argument in braces, or alone
+LATEX_SKIPPED_WITH_ARGUMENT = frozenset({"label", "tag", "nonumber", "notag"})
 #: the environments a Gaussian binomial is printed with
 MATRIX_ENVIRONMENTS = frozenset({"bmatrix", "matrix", "pmatrix"})
 
@@ -86,7 +91,22 @@ def _command(text: str, i: int) -> tuple[list[Token], int]:
     if name in LATEX_IGNORED:
         if name in ("left", "right") and j < n and text[j] == ".":
             j += 1                   # \left. and \right. are invisible delimiters
+        elif name in LATEX_SIZED and j < n and text[j] in "[]":
+            # \left[ ... \right] (and \bigl[ ...): resolved by ``tokenize``
+            return [Token("sized", text[j], j)], j + 1
         return [], j
+    if name in LATEX_SKIPPED_WITH_ARGUMENT:          # \label{eq:1}, \tag{2.3}
+        k = j
+        while k < n and text[k].isspace():
+            k += 1
+        if k < n and text[k] == "{":
+            close = text.find("}", k)
+            if close < 0:
+                raise ParseError(f"\\{name}{{ is not closed", text, i)
+            return [], close + 1
+        return [], j
+    if name in ("frac", "dfrac", "tfrac", "binom", "dbinom", "tbinom"):
+        return _unbraced_arguments(text, i, j, LATEX[name])
     if name in ("begin", "end"):
         k = j
         while k < n and text[k].isspace():
@@ -106,6 +126,49 @@ def _command(text: str, i: int) -> tuple[list[Token], int]:
     raise ParseError(f"unknown LaTeX command \\{name}", text, i)
 
 
+def _unbraced_arguments(text: str, i: int, j: int, token: tuple[str, str]
+                        ) -> tuple[list[Token], int]:
+    """\\frac and \\binom, whose arguments may be single characters as in TeX: \\frac12,
+    \\frac1{q}, \\binom n2.  Each argument written without braces is one character, given
+    braces here; the first braced argument ends this (the braces then tokenize as usual)."""
+    out = [Token(token[0], token[1], i)]
+    n = len(text)
+    for _ in range(2):
+        k = j
+        while k < n and text[k].isspace():
+            k += 1
+        if k >= n or text[k] == "{" or not (text[k].isascii() and text[k].isalnum()):
+            break
+        out += [Token("sym", "{", k), Token("num" if text[k].isdigit() else "name", text[k], k),
+                Token("sym", "}", k)]
+        j = k + 1
+    return out, j
+
+
+def _only_an_ending_after(text: str, i: int) -> bool:
+    """True when text[i:] is a display's closing punctuation: '.', ',' or a line break
+    \\\\, then blanks."""
+    rest = text[i:].strip()
+    while rest.endswith("\\\\") or rest.endswith(".") or rest.endswith(","):
+        rest = rest[:-2] if rest.endswith("\\\\") else rest[:-1]
+        rest = rest.rstrip()
+    return rest == ""
+
+
+def _sized_bracket(t: Token, text: str, stack: list[str]) -> Token:
+    """\\left[ ... \\right] as papers use it: the coefficient extractor when the bracket
+    holds q^(...) (``\\left[q^{5n+4}\\right] F``), else grouping, as parentheses do
+    (``\\left[\\frac{1}{(q;q)_\\infty}\\right]``)."""
+    if t.text == "[":
+        rest = text[t.pos + 1:].lstrip()
+        kind = "[" if rest.startswith("q^") or rest.startswith("q ^") else "("
+        stack.append(kind)
+        return Token("sym", kind, t.pos)
+    if not stack:
+        raise ParseError("\\right] without \\left[", text, t.pos)
+    return Token("sym", "]" if stack.pop() == "[" else ")", t.pos)
+
+
 def tokenize(text: str) -> list[Token]:
     """Split text into tokens (plain, Unicode or LaTeX; see the module docstring).
 
@@ -116,6 +179,7 @@ def tokenize(text: str) -> list[Token]:
         raise ParseError(f"the expression is longer than {MAX_TEXT} characters",
                          text[:200], 200)
     out: list[Token] = []
+    sized: list[str] = []                # the open \left[ brackets, as what they became
     i, n = 0, len(text)
     while i < n:
         ch = text[i]
@@ -141,9 +205,17 @@ def tokenize(text: str) -> list[Token]:
             out.append(Token("name", text[i:j], i))
             i = j
             continue
+        if ch in ".,\\" and _only_an_ending_after(text, i):
+            break                    # "... (q;q)_\\infty." as a display ends
+        if ch == "&":
+            i += 1                   # an alignment mark of a display: &=
+            continue
         if ch == "\\":
             toks, i = _command(text, i)
-            out.extend(toks)
+            for t in toks:
+                if t.kind == "sized":
+                    t = _sized_bracket(t, text, sized)
+                out.append(t)
             continue
         if ch in UNICODE:
             kind, plain = UNICODE[ch]

@@ -713,3 +713,11 @@ def test_a_residue_without_a_step_is_refused_with_the_reason():
     # found by a trial: the message spoke of "0 <= r < m = 1" instead of the missing --step
     r = run("congruences", "1/(q;q)_inf", "--modulus", "5", "--residue", "4")
     assert r.exit_code == 2 and "needs --step" in r.stderr
+
+
+def test_check_takes_an_identity_pasted_whole():
+    r = run("check", r"\sum_{k\ge0} \frac{q^{k^2}}{(q;q)_k} &= \frac{1}{(q,q^4;q^5)_\infty}.",
+            "-n", "100")
+    assert r.exit_code == 0 and r.stdout.startswith("AGREES")
+    r = run("check", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "100")          # no right side
+    assert r.exit_code == 2 and "two sides" in r.stderr

@@ -168,3 +168,15 @@ def test_extractor_listed_in_notation():
 
     forms = " ".join(f for f, _ in NOTATION_FORMS)
     assert "[q^(5n+4)]" in forms and "U_5(F)" in forms
+
+
+def test_an_identity_pasted_as_one_text_is_split_at_its_one_equals_sign():
+    from qseries.lang.parser import split_identity
+    assert split_identity("sum_{n=0}^{inf} q^n = 1/(1-q)") == ("sum_{n=0}^{inf} q^n ", " 1/(1-q)")
+    left, right = split_identity(r"\sum_{n\ge 0} \frac{q^{n^2}}{(q;q)_n} &= G(q).")
+    assert left.rstrip().endswith("&") and right.strip() == "G(q)."
+    for bad in ("sum_{n=0}^{inf} q^n", "a = b = c"):
+        with pytest.raises(ParseError, match="two sides"):
+            split_identity(bad)
+    with pytest.raises(ParseError, match="two arguments"):
+        parse("1 = 1")

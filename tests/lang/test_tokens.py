@@ -65,3 +65,23 @@ def test_latex_errors_point_into_the_latex_text(text, column, words):
         parse(text, bound=["n", "k"])
     assert f"column {column}" in str(info.value)
     assert words in str(info.value)
+
+
+@pytest.mark.parametrize(("latex", "plain"), [
+    # what displays pasted from papers carry (found by a trial as a new user)
+    (r"\left[\frac{1}{(q,q^4;q^5)_\infty}\right]", "1/((q;q^5)_inf (q^4;q^5)_inf)"),
+    (r"\Bigl[ 1 - q \Bigr]^2", "(1-q)^2"),
+    (r"\frac12 + \frac1{(q;q)_\infty}", "1/2 + 1/(q;q)_inf"),
+    (r"\binom42_q", "gaussian(4, 2)"),
+    (r"\frac{1}{(q;q)_\infty}.", "1/(q;q)_inf"),             # a display's full stop
+    (r"\frac{1}{(q;q)_\infty}, \\", "1/(q;q)_inf"),
+    (r"\label{eq:p} \frac{1}{(q;q)_\infty} \nonumber", "1/(q;q)_inf"),
+])
+def test_display_extras_read_as_papers_mean_them(latex, plain):
+    assert evaluate(latex, 30) == evaluate(plain, 30)
+
+
+def test_a_plain_bracket_is_still_a_coefficient_extractor():
+    assert evaluate("[q^(5n+4)] 1/(q;q)_inf", 5)[0] == 5      # p(4), from memory
+    with pytest.raises(ParseError):
+        tokenize(r"\label{eq:p")
