@@ -50,6 +50,12 @@ SPLIT_MIN_TERMS = 8
 #: binary splitting is used while the binomials' exponents add up to at most this many times
 #: the order (beyond, the tree's nodes are all dense and stepping term by term is cheaper)
 SPLIT_DEGREE = 8
+#: ``nested`` over ZZ bounds the size of the coefficients from this order on ...
+NESTED_CRT_ORDER = 256
+#: ... and runs modulo word-size primes (then the Chinese remainder theorem) when the bound
+#: exceeds this many bits: FLINT keeps integers up to 62 bits in a machine word, larger ones
+#: cost about a hundred times more per coefficient
+NESTED_WORD_BITS = 62
 #: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
 #: computed as the exponential of its logarithm instead of factor by factor
 EXP_FACTORS = 24
