@@ -5,10 +5,12 @@ measured here too), each at a few orders, the three methods side by side in one 
     python benchmarks/bench_auto.py [--orders 1000,5000,10000,50000] [--only long,lambert]
         [--tree .] [--timeout 120] [--json OUT]
 
-Prints wall seconds (a fresh process each, start-up included) per method, the method auto
-chose, and auto's time over the better of the other two (``auto/best``); a row where auto
-is more than 1.5x slower than the better method (and more than 0.2 s, the noise of a
-process start on a loaded machine) is marked ``!``.  A run over the timeout is ``>T``.
+Prints, per method, the ``seconds`` qseries reports (the check, auto's probe included; the
+process start, which is the same for every method and very noisy on a loaded machine, left
+out) and the wall time of the process, the method auto chose, and auto's seconds over the
+better of the other two (``auto/best``); a row where auto is more than 1.5x slower than the
+better method (and more than 0.2 s slower) is marked ``!``.  A run over the timeout is
+``>T``.
 Needs neither PARI/GP nor anything beyond qseries itself.
 """
 
@@ -66,24 +68,28 @@ def main() -> None:
     print(f"wall seconds; tree {args.tree}; load average {os.getloadavg()[0]:.2f}; "
           f"{time.strftime('%Y-%m-%d %H:%M UTC', time.gmtime())}")
     print(f"{'shape':<40} {'order':>7} {'auto':>8} {'exact':>8} {'modular':>8}  "
-          f"{'chose':<8} auto/best")
+          f"{'chose':<8} auto/best   wall: auto / exact / modular")
     rows = []
     for name, group, left, right, _extra in SHAPES:
         if groups and group not in groups:
             continue
         for order in orders:
             got = {m: run(args.tree, left, right, order, m, args.timeout) for m in METHODS}
-            cells = " ".join(f"{got[m][0]:8.2f}" if got[m] else f"{'>' + str(int(args.timeout)):>8}"
-                             for m in METHODS)
+            over = f"{'>' + str(int(args.timeout)):>8}"
+            cells = " ".join(f"{got[m][1]:8.2f}" if got[m] else over for m in METHODS)
+            walls = " / ".join(f"{got[m][0]:.2f}" if got[m] else over.strip()
+                               for m in METHODS)
             chose = got["auto"][2] if got["auto"] else "?"
-            others = [got[m][0] for m in ("exact", "modular") if got[m]]
-            best = min(others) if others else args.timeout
-            auto = got["auto"][0] if got["auto"] else args.timeout
+            others = [got[m][1] for m in ("exact", "modular") if got[m]]
+            best = max(min(others) if others else args.timeout, 0.01)
+            auto = got["auto"][1] if got["auto"] else args.timeout
             ratio = auto / best
-            flag = " !" if auto > TOLERANCE * best + SLACK else ""
-            print(f"{name:<40} {order:>7} {cells}  {chose:<8} {ratio:5.2f}{flag}", flush=True)
+            flag = "!" if auto > TOLERANCE * best + SLACK else " "
+            print(f"{name:<40} {order:>7} {cells}  {chose:<8} {ratio:5.2f} {flag}   {walls}",
+                  flush=True)
             rows.append({"shape": name, "order": order, "chose": chose, "ratio": ratio,
-                         **{m: (got[m][0] if got[m] else None) for m in METHODS}})
+                         **{m: (got[m][1] if got[m] else None) for m in METHODS},
+                         **{m + "_wall": (got[m][0] if got[m] else None) for m in METHODS}})
     if args.json:
         with open(args.json, "w") as fh:
             json.dump(rows, fh, indent=1)

@@ -313,6 +313,8 @@ class Ring:
             shifted = self._shift_up(low, j)
         else:
             shifted = self._shift_up(p, j)
+        if isinstance(c, (int, Fraction)) and c == -1:
+            return p + shifted                     # 1 + q^j: no scalar pass
         cc = self._multiplier(c)
         return p - shifted if cc == 1 else p - shifted * cc
 

@@ -16,7 +16,7 @@ Euler's sum) are added in one pass as a sparse polynomial.  Over ZZ, from
 ``chooser.NESTED_CRT_ORDER`` on, the size of the coefficients is bounded first
 (``majorant_bits``: each ratio replaced by its majorant |c| q^d prod (1 + |b| q^x) or
 prod 1/(1 - |b| q^x), whose value at a real 0 < rho < 1 over rho^(w-1) bounds every
-coefficient below q^w); above ``chooser.NESTED_WORD_BITS`` (numbers that no longer fit a
+coefficient below q^w); above ``chooser.WORD_BITS`` (numbers that no longer fit a
 machine word, where FLINT's integer arithmetic costs a hundred times more per coefficient)
 the levels run modulo enough word-size primes (``CRT_PRIMES``) and the coefficients are
 put together by the Chinese remainder theorem, exactly.
@@ -36,7 +36,7 @@ from typing import TYPE_CHECKING, Any
 from ..backend import is_prime
 from ..errors import QSeriesError
 from ..series import GF, QQ, ZZ, Series
-from .chooser import NESTED_CRT_ORDER, NESTED_WORD_BITS
+from .chooser import NESTED_CRT_ORDER, WORD_BITS
 from .sum_splitting import Ratio, consecutive_ratios
 
 if TYPE_CHECKING:
@@ -72,7 +72,7 @@ def sum_nested(ev: Evaluator, plan: SumPlan) -> Series | None:
     try:
         if ring is ZZ and w >= NESTED_CRT_ORDER:
             bits = majorant_bits(ratios, levels, w, last)
-            if bits > NESTED_WORD_BITS:
+            if bits > WORD_BITS:
                 inner = ring.poly_from_ints(nest_crt(ratios, levels, w, last, bits))
             else:
                 inner = nest(ring, ratios, levels, w, last)

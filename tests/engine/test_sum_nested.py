@@ -112,7 +112,7 @@ def test_the_bound_is_close_for_euler():
 @pytest.mark.parametrize("text", BOUND_TEXTS)
 def test_the_evaluation_modulo_primes_matches_the_reference(text, monkeypatch):
     from qseries.engine import sum_nested as sn
-    monkeypatch.setattr(sn, "NESTED_WORD_BITS", 0)            # always modulo primes
+    monkeypatch.setattr(sn, "WORD_BITS", 0)            # always modulo primes
     monkeypatch.setattr(sn, "NESTED_CRT_ORDER", 0)
     used = []
     original = sn.nest_crt
@@ -127,7 +127,7 @@ def test_the_order_threshold_of_the_primes(shift, monkeypatch):
     order = 300
     # the sum is needed modulo q^order (its first term is 1): w = order
     monkeypatch.setattr(sn, "NESTED_CRT_ORDER", order + shift)
-    monkeypatch.setattr(sn, "NESTED_WORD_BITS", 0)
+    monkeypatch.setattr(sn, "WORD_BITS", 0)
     used = []
     original = sn.nest_crt
     monkeypatch.setattr(sn, "nest_crt", lambda *a: used.append(a[-1]) or original(*a))
@@ -144,11 +144,11 @@ def test_the_word_threshold_of_the_primes(monkeypatch):
     from qseries.engine import sum_nested as sn
     text = "sum_{n>=0} (-q;q)_n q^n/(q;q)_n"
     expected = Evaluator(ZZ).evaluate(parse("(-q^2;q)_inf/(q;q)_inf"), 2000)
-    for word, modular in ((sn.NESTED_WORD_BITS, True), (10**6, False)):
+    for word, modular in ((sn.WORD_BITS, True), (10**6, False)):
         used = []
         original = sn.nest_crt
         with pytest.MonkeyPatch.context() as mp:
-            mp.setattr(sn, "NESTED_WORD_BITS", word)
+            mp.setattr(sn, "WORD_BITS", word)
             mp.setattr(sn, "nest_crt",
                        lambda *a, used=used, original=original:
                        used.append(a[-1]) or original(*a))
@@ -156,7 +156,7 @@ def test_the_word_threshold_of_the_primes(monkeypatch):
         assert got == expected
         assert bool(used) == modular
         if used:
-            assert used[0] > sn.NESTED_WORD_BITS
+            assert used[0] > sn.WORD_BITS
 
 
 def test_the_ratios_are_read_once_for_several_primes(monkeypatch):
