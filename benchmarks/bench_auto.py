@@ -3,14 +3,15 @@ the panel of ``bench_shapes.py`` (its ``SHAPES``, imported, so shapes added ther
 measured here too), each at a few orders, the three methods side by side in one run.
 
     python benchmarks/bench_auto.py [--orders 1000,5000,10000,50000] [--only long,lambert]
-        [--tree .] [--timeout 120] [--json OUT]
+        [--tree .] [--timeout 120] [--repeat 1] [--json OUT]
 
 Prints, per method, the ``seconds`` qseries reports (the check, auto's probe included; the
 process start, which is the same for every method and very noisy on a loaded machine, left
 out) and the wall time of the process, the method auto chose, and auto's seconds over the
 better of the other two (``auto/best``); a row where auto is more than 1.5x slower than the
 better method (and more than 0.2 s slower) is marked ``!``.  A run over the timeout is
-``>T``.
+``>T``.  With ``--repeat R`` each method runs R times and the least time counts (on a
+loaded machine one run of a few tenths of a second varies by 2x).
 Needs neither PARI/GP nor anything beyond qseries itself.
 """
 
@@ -60,12 +61,14 @@ def main() -> None:
     ap.add_argument("--only", default="", help="comma-separated groups (default: all)")
     ap.add_argument("--tree", default=".", help="directory holding the qseries package")
     ap.add_argument("--timeout", type=float, default=120.0)
+    ap.add_argument("--repeat", type=int, default=1, help="runs per method; the least counts")
     ap.add_argument("--json", default="", help="also write the rows to this file")
     args = ap.parse_args()
     orders = [int(x) for x in args.orders.split(",")]
     groups = {g for g in args.only.split(",") if g}
     run(args.tree, "q", "q", 10, "exact", args.timeout)          # warm-up: bytecode caches
-    print(f"wall seconds; tree {args.tree}; load average {os.getloadavg()[0]:.2f}; "
+    print(f"seconds reported by qseries (auto's probe included); tree {args.tree}; "
+          f"load average {os.getloadavg()[0]:.2f}; "
           f"{time.strftime('%Y-%m-%d %H:%M UTC', time.gmtime())}")
     print(f"{'shape':<40} {'order':>7} {'auto':>8} {'exact':>8} {'modular':>8}  "
           f"{'chose':<8} auto/best   wall: auto / exact / modular")
@@ -74,7 +77,12 @@ def main() -> None:
         if groups and group not in groups:
             continue
         for order in orders:
-            got = {m: run(args.tree, left, right, order, m, args.timeout) for m in METHODS}
+            got = {}
+            for m in METHODS:
+                runs = [run(args.tree, left, right, order, m, args.timeout)
+                        for _ in range(max(args.repeat, 1))]
+                done = [r for r in runs if r is not None]
+                got[m] = min(done, key=lambda r: r[1]) if done else None
             over = f"{'>' + str(int(args.timeout)):>8}"
             cells = " ".join(f"{got[m][1]:8.2f}" if got[m] else over for m in METHODS)
             walls = " / ".join(f"{got[m][0]:.2f}" if got[m] else over.strip()

@@ -175,3 +175,20 @@ def test_the_ratios_are_read_once_for_several_primes(monkeypatch):
     assert len(calls) == 1
     for v, p in zip(values, (1_000_003, 2**61 - 1), strict=True):
         assert v == Evaluator(GF(p), strategies=["direct"]).evaluate(parse(text), 200)
+
+
+def test_heine_transformation_over_the_integers(monkeypatch):
+    # Heine's first transformation (Gasper and Rahman, Basic Hypergeometric Series,
+    # eq. (1.4.1)) with a = q^2, b = q^3, c = q^4, z = q:
+    # 2phi1(q^2, q^3; q^4; q, q) = (q^3, q^3; q)_inf / (q^4, q; q)_inf 2phi1(q, q; q^3; q, q^3);
+    # the left side is a sum of about N terms (nested, modulo primes over ZZ at this order)
+    from qseries.engine import sum_nested as sn
+    used = []
+    original = sn.nest_crt
+    monkeypatch.setattr(sn, "nest_crt", lambda *a: used.append(a[-1]) or original(*a))
+    lhs = Evaluator(ZZ).evaluate(
+        parse("sum_{n>=0} (q^2;q)_n (q^3;q)_n q^n/((q;q)_n (q^4;q)_n)"), 1200)
+    rhs = Evaluator(ZZ, strategies=["direct"]).evaluate(
+        parse("(q^3;q)_inf (q^3;q)_inf/((q^4;q)_inf (q;q)_inf) "
+              "sum_{n>=0} (q;q)_n q^(3n)/(q^3;q)_n"), 1200)
+    assert used and lhs == rhs
