@@ -11,6 +11,7 @@ linear in the variable.
 
 from __future__ import annotations
 
+import threading
 from collections import OrderedDict
 from fractions import Fraction
 from typing import TYPE_CHECKING
@@ -112,6 +113,7 @@ def consecutive_ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str,
 #: how many sums' ratios ``consecutive_ratios`` keeps (the most recently used)
 RATIO_CACHE = 4
 _ratio_cache: OrderedDict[tuple, list[Ratio] | None] = OrderedDict()
+_ratio_lock = threading.Lock()
 
 
 def _ratio_key(node: BigOp, ks: list[int], env: dict[str, int], sign: int, steps: list,
@@ -144,14 +146,17 @@ def _ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], sign
             scalars: list[tuple[Node, int]], steps: list, shifts: list[Fraction], w: int,
             key: tuple | None) -> list[Ratio] | None:
     """The ratios of consecutive terms (None: not of the shape), from the cache when kept."""
-    if key is not None and key in _ratio_cache:
-        _ratio_cache.move_to_end(key)
-        return _ratio_cache[key]
+    if key is not None:
+        with _ratio_lock:               # evaluations may run in threads (Dask workers)
+            if key in _ratio_cache:
+                _ratio_cache.move_to_end(key)
+                return _ratio_cache[key]
     got = _compute_ratios(ev, node, ks, env, sign, scalars, steps, shifts, w)
     if key is not None:
-        _ratio_cache[key] = got
-        while len(_ratio_cache) > RATIO_CACHE:
-            _ratio_cache.popitem(last=False)
+        with _ratio_lock:
+            _ratio_cache[key] = got
+            while len(_ratio_cache) > RATIO_CACHE:
+                _ratio_cache.popitem(last=False)
     return got
 
 
