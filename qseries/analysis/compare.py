@@ -32,11 +32,11 @@ from fractions import Fraction
 
 from ..engine import Evaluator, Parts, check_weights, evaluate, quotient
 from ..engine.chooser import (
-    AUTO_EXACT_BITS,
     AUTO_MODULAR_ORDER,
     AUTO_MODULAR_ORDER_EXTRA,
     AUTO_PROBE_ORDER,
     PARALLEL_ORDER,
+    auto_costs,
 )
 from ..engine.progress import PartProgress
 from ..errors import (
@@ -401,13 +401,14 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
     if names and ring.modulus is not None:
         raise ArgumentError(f"ring {ring} cannot hold the extra variables {', '.join(names)}: "
                             f"their coefficients are compared over ZZ or QQ")
+    # the clock starts before auto's probe, so that ``seconds`` counts it
+    t0 = time.perf_counter()
     if method == "auto":
-        method = auto_method(lnode, rnode, order, ring, names)
+        method = auto_method(lnode, rnode, order, ring, names, primes)
     check_weights(weights, set(names))
     tries = [dict(weights or {})]
     if weights is None and names:
         tries.append({v: 1 for v in names})
-    t0 = time.perf_counter()
     say = progress or _silent
     if method == "modular" and weights is None and names and _weights_needed(lnode, rnode, ring,
                                                                             names):
@@ -438,13 +439,14 @@ def check(lhs: str | Node, rhs: str | Node, order: int = 100, ring: Ring = ZZ,
 
 
 def auto_method(lnode: Node, rnode: Node, order: int, ring: Ring,
-                names: tuple[str, ...] = ()) -> str:
+                names: tuple[str, ...] = (), primes: int = 3) -> str:
     """"exact" or "modular" for ``check(method="auto")``: exact up to
     ``AUTO_MODULAR_ORDER`` (``AUTO_MODULAR_ORDER_EXTRA`` with extra variables); above, for
-    series in q alone, exact while the largest coefficient extrapolated from an exact
-    evaluation to ``AUTO_PROBE_ORDER`` stays within ``AUTO_EXACT_BITS`` bits (the modular
-    method evaluates each side once per prime, which only pays when the exact numbers are
-    large).
+    series in q alone, the size of the largest coefficient is extrapolated from an exact
+    evaluation to ``AUTO_PROBE_ORDER`` (:func:`probe_bits`) and the method that
+    ``chooser.auto_costs`` estimates the cheaper is used (exact when it costs no more):
+    the modular method evaluates each side once per prime, which pays only when the exact
+    numbers are large.
 
     >>> from qseries.lang import parse
     >>> auto_method(parse("theta_3(q)^2"), parse("1 + 4 sum_{n>=1} q^n/(1+q^(2n))"), 10**5, ZZ)
@@ -457,17 +459,36 @@ def auto_method(lnode: Node, rnode: Node, order: int, ring: Ring,
         return "exact"
     if names:
         return "modular"
+    bits = probe_bits(lnode, rnode, order, ring)
+    if bits is None:
+        return "modular"            # the check itself reports the error
+    exact, modular = auto_costs(bits, primes, order, os.cpu_count() or 1)
+    return "exact" if exact <= modular else "modular"
+
+
+def probe_bits(lnode: Node, rnode: Node, order: int, ring: Ring = ZZ) -> float | None:
+    """The size in bits of the largest coefficient of either side below q^order,
+    extrapolated from an exact evaluation to ``AUTO_PROBE_ORDER``: the size there times
+    (order / AUTO_PROBE_ORDER)^g, g (between 0 and 1) the growth exponent of the size from
+    half that order; None when a side cannot be evaluated.
+
+    >>> from qseries.lang import parse
+    >>> probe_bits(parse("theta_3(q)^2"), parse("1"), 10**5)      # r_2(n) <= 4 d(n)
+    5.0
+    >>> 100 < probe_bits(parse("1/(q;q)_inf"), parse("1"), 1024) < 110   # p(1023): 106 bits
+    True
+    """
     bits = 0.0
     for node in (lnode, rnode):
         try:
             s = evaluate(node, AUTO_PROBE_ORDER, ring)
         except QSeriesError:
-            return "modular"        # the check itself reports the error
+            return None
         full = ring._coefficient_bits(s.poly)
         half = ring._coefficient_bits(s.truncate(AUTO_PROBE_ORDER // 2).poly)
         growth = min(max(math.log2(full / half), 0.0), 1.0) if half and full else 0.0
         bits = max(bits, full * (order / AUTO_PROBE_ORDER) ** growth)
-    return "exact" if bits <= AUTO_EXACT_BITS else "modular"
+    return bits
 
 
 #: the order of the exact trial that decides whether extra variables need weights

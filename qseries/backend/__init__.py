@@ -13,7 +13,10 @@ used.
 * :func:`laurent_ring` -- coefficients that are Laurent polynomials in extra variables
   (``laurent.py``: ``LaurentPoly``, its text, limits and the time budget);
 * ``ring.py`` -- the one chooser of a ring (``ring_for``, ``join_rings``);
-* ``arith.py`` -- number helpers (``partitions_p``, ``is_prime``, ``int_to_decimal``).
+* ``arith.py`` -- number helpers (``partitions_p``, ``is_prime``, ``int_to_decimal``);
+* ``allocator.py`` -- ``keep_heap_pad``: glibc serves large blocks from the heap and keeps a
+  pad at its top (called here, once), so that FLINT's many large short-lived polynomials
+  do not fault their pages in again and again.
 
 >>> p = ZZ.poly([1, -1])                  # 1 - q
 >>> ZZ.coefficients(ZZ.inv_series(p, 5))  # 1/(1 - q) to O(q^5)
@@ -22,6 +25,7 @@ used.
 [Fraction(1, 2), Fraction(-1, 4), Fraction(1, 8)]
 """
 
+from .allocator import keep_heap_pad
 from .arith import int_to_decimal, is_prime, partitions_p
 from .base import FLINT_VERSION, MAX_SHIFT, Ring
 from .integer import ZZ
@@ -45,4 +49,6 @@ __all__ = ["ZZ", "QQ", "GF", "Ring", "LaurentPoly", "laurent_ring", "laurent_tex
            "laurent_budget", "ring_for", "join_rings", "int_to_decimal", "is_prime",
            "partitions_p", "FLINT_VERSION", "MAX_SHIFT", "MAX_LAURENT_TERMS",
            "MAX_VARIABLES", "LAURENT_SECONDS", "MAX_LAURENT_PRODUCT", "MAX_LAURENT_BITS",
-           "integer_kernel", "matrix_rank"]
+           "integer_kernel", "matrix_rank", "keep_heap_pad"]
+
+keep_heap_pad()

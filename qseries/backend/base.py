@@ -109,6 +109,8 @@ class Ring:
     _ptype: Any = None
     #: the type of this ring's polynomials, which the public operations accept
     _poly_type: type = object
+    #: whether a polynomial's constant term can be set in place cheaply (``_add_one_owned``)
+    _inplace_constant: bool = False
     #: the scalars c of ``binomial_mul`` / ``binomial_div`` (bool is refused)
     _scalar_types: tuple[type, ...] = (int, Fraction, flint.fmpz, flint.fmpq, flint.nmod)
 
@@ -303,27 +305,45 @@ class Ring:
     def _binomial_mul(self, p: Any, c: Number, j: int, n: int | None) -> Any:
         """p * (1 - c q^j), truncated to length n when n is not None; O(length) work."""
         if n is not None and j >= n:
-            return p.truncate(max(n, 0))
+            return p.truncate(max(n, 0)) if p.length() > n else p
         if n is not None:
-            p = p.truncate(max(n, 0))
-            shifted = self._shift_up(p.truncate(max(n - j, 0)), j)
+            if p.length() > n:
+                p = p.truncate(max(n, 0))
+            low = p.truncate(max(n - j, 0)) if p.length() > n - j else p
+            shifted = self._shift_up(low, j)
         else:
             shifted = self._shift_up(p, j)
+        if isinstance(c, (int, Fraction)) and c == -1:
+            return p + shifted                     # 1 + q^j: no scalar pass
         cc = self._multiplier(c)
         return p - shifted if cc == 1 else p - shifted * cc
 
     def _binomial_div(self, p: Any, c: Number, j: int, n: int) -> Any:
         """p / (1 - c q^j) modulo q^n for j >= 1, by the doubling
-        1/(1-x) = (1+x)(1+x^2)(1+x^4)...; each step is a shift and an add."""
-        p = p.truncate(max(n, 0))
+        1/(1-x) = (1+x)(1+x^2)(1+x^4)...; each step is a shift and an add (no copy of p
+        is made where it is already short enough)."""
+        if p.length() > n:
+            p = p.truncate(max(n, 0))
         cc = self._multiplier(c)
         step = j
         while step < n and cc != 0:
-            shifted = self._shift_up(p.truncate(n - step), step)
-            p = p + shifted if cc == 1 else p + shifted * cc
+            low = p.truncate(n - step) if p.length() > n - step else p
+            shifted = self._shift_up(low, step)
+            if cc == 1:
+                p = p + shifted
+            else:
+                p = p + shifted * cc
+                cc = self._multiplier(cc * cc)
             step *= 2
-            cc = self._multiplier(cc * cc)
         return p
+
+    def _add_one_owned(self, p: Any) -> Any:
+        """p + 1 for a polynomial no one else holds: ZZ and GF(p) change its constant term
+        in place (O(1)), the other rings add (a copy)."""
+        if self._inplace_constant:
+            p[0] = p[0] + 1
+            return p
+        return p + self._ptype([1])
 
     def _multiplier(self, c: Any) -> Any:
         """c as a scalar that polynomials of this ring can be multiplied by."""

@@ -30,6 +30,7 @@ class IntegerRing(Ring):
     _ptype = flint.fmpz_poly
     _poly_type = flint.fmpz_poly
     int_coefficients = True
+    _inplace_constant = True
 
     @property
     def fractions(self) -> Ring:

@@ -34,6 +34,7 @@ class ModularRing(Ring):
 
     exact = False
     int_coefficients = True
+    _inplace_constant = True
     _poly_type = flint.nmod_poly
 
     def __init__(self, p: int) -> None:

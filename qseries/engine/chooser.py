@@ -56,6 +56,13 @@ SPLIT_MIN_TERMS = 8
 #: binary splitting is used while the binomials' exponents add up to at most this many times
 #: the order (beyond, the tree's nodes are all dense and stepping term by term is cheaper)
 SPLIT_DEGREE = 8
+#: FLINT keeps integers of up to this many bits in a machine word; larger ones cost about a
+#: hundred times more per coefficient added
+WORD_BITS = 62
+#: ``nested`` over ZZ bounds the size of the coefficients from this order on, and runs
+#: modulo word-size primes (then the Chinese remainder theorem) when the bound exceeds
+#: ``WORD_BITS``
+NESTED_CRT_ORDER = 256
 #: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
 #: computed as the exponential of its logarithm instead of factor by factor
 EXP_FACTORS = 24
@@ -68,10 +75,15 @@ AUTO_MODULAR_ORDER_EXTRA = 400
 #: extrapolates the size of their largest coefficient to the order asked (from its growth
 #: between half this order and this order) ...
 AUTO_PROBE_ORDER = 1024
-#: ... and stays exact while that size is at most this many bits (exact arithmetic on
-#: such numbers costs less than evaluating once per prime: Lambert series, theta and eta
-#: products have coefficients of a few dozen bits at any order)
-AUTO_EXACT_BITS = 128
+#: ... and estimates the cost of each method from it (``auto_costs``), in units of one
+#: evaluation of both sides modulo one prime: exact arithmetic costs this much while the
+#: largest coefficient fits a machine word (``WORD_BITS``: Lambert series, theta and eta
+#: products have coefficients of a few dozen bits at any order) ...
+AUTO_SMALL_COST = 0.8
+#: ... and this much per 64 bits of the largest coefficient beyond (measured with
+#: benchmarks/bench_auto.py on the panel of benchmarks/bench_shapes.py, orders 5000 to
+#: 50000: 0.6 to 1.8, mostly 1.0 to 1.4)
+AUTO_WORD_COST = 1.2
 #: the modular method evaluates the primes after the first in worker processes from here on
 PARALLEL_ORDER = 50_000
 #: from this order on the command line estimates the cost of a run before starting it
@@ -155,3 +167,27 @@ def pochhammer_value(a: Series, t: int, n: int | None, order: int,
         if got is not None:
             return got
     return pochhammer(a, t, n, order)
+
+
+def auto_costs(bits: float, primes: int, order: int, cores: int) -> tuple[float, float]:
+    """(exact, modular): the estimated cost of a check by each method, in units of one
+    evaluation of both sides modulo one prime, for an identity whose largest coefficient
+    below the order has about ``bits`` bits: exact arithmetic costs ``AUTO_SMALL_COST``
+    up to ``WORD_BITS`` and ``AUTO_WORD_COST`` per 64 bits beyond; the modular method one
+    unit per prime, and from ``PARALLEL_ORDER`` on (the primes after the first in worker
+    processes) the primes shared among ``cores``.  ``auto`` is exact when that costs no
+    more.
+
+    >>> auto_costs(20, 3, 10_000, 2)              # Lambert series, theta products
+    (0.8, 3.0)
+    >>> auto_costs(640, 3, 10_000, 2)             # partition numbers at order 50 000
+    (12.0, 3.0)
+    >>> auto_costs(200, 1, 10_000, 2)             # one prime: exact only within a word
+    (3.75, 1.0)
+    >>> auto_costs(100, 3, 60_000, 2)             # three primes on two cores
+    (1.875, 1.5)
+    """
+    exact = AUTO_SMALL_COST if bits <= WORD_BITS else AUTO_WORD_COST * bits / 64
+    parallel = order >= PARALLEL_ORDER and primes > 1 and cores > 1
+    modular = primes / min(primes, cores) if parallel else float(primes)
+    return exact, modular

@@ -11,14 +11,19 @@ linear in the variable.
 
 from __future__ import annotations
 
+import threading
+from collections import OrderedDict
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
+from ..errors import QSeriesError
 from ..lang.ast import BigOp, Node, Poch
 from ..products import monomial_parts
 from ..series import LaurentPoly, Series
+from . import symbolic as sym
 from .chooser import SPLIT_DEGREE
 from .sum_stepping import step
+from .termination import NoBound
 from .terms import Parts, ceil_int, floor_int, rational_power
 
 if TYPE_CHECKING:
@@ -60,21 +65,13 @@ def consecutive_ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str,
     (term_a, w, ratios) with the sum term_a (1 + r_1 (1 + r_2 (...))) needed modulo q^w
     (w at least ``den_order``), binomials 1 - b q^x with x >= w left out (they are 1
     modulo q^w); the sum itself when it is one term; None when the terms do not have that
-    shape."""
+    shape.
+
+    The ratios are numbers and exponents, the same in every ring: they are kept for the
+    last few sums (``RATIO_CACHE`` entries, keyed by the sum, its range, w and the values
+    of the symbols' parameters), so that the modular method's primes, and ``nested`` after
+    ``splitting`` gave way, read them once."""
     var = node.var
-    coeffs: list[Fraction] = []
-    for k in ks:
-        c = Fraction(sign)
-        for f, p in scalars:
-            v = ev.scalar(f, {**env, var: k})
-            if v == 0:
-                return None
-            c *= rational_power(v, Fraction(p))
-        coeffs.append(c)
-    for i in range(1, len(ks)):
-        d = shifts[i] - shifts[i - 1]
-        if d.denominator != 1 or d < 0:
-            return None
     steps = []
     for f, p in stepping:
         t = ev._base_step(f, env, 1)
@@ -87,9 +84,10 @@ def consecutive_ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str,
             if parts is None or parts[1].denominator != 1:
                 return None
             params.append((parts[0], int(parts[1])))
-        ns = [ev.integer(f.length, {**env, var: k}, "a subscript")  # type: ignore[arg-type]
-              for k in ks]
-        steps.append((t, params, p, ns))
+        steps.append((f, t, params, p))
+    c0 = _coefficient(ev, var, scalars, env, sign, ks[0])
+    if c0 is None:
+        return None
     width = max(target - ceil_int(shifts[0]), 1)
     ring = ev.ring
     first = Series.constant(1, ring)
@@ -97,17 +95,97 @@ def consecutive_ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str,
         first = (first * step(ev, f, p, None, None, ks[0], env, var, width)).truncate(width)
     if first.is_zero():
         return None
-    term_a = (first * coeffs[0]).shift(shifts[0])
+    term_a = (first * c0).shift(shifts[0])
     va = term_a.valuation
     w = target - (floor_int(va) if va is not None else 0)
     if w <= 0:
+        if _ratios(ev, node, ks, env, sign, scalars, steps, shifts, w, key=None) is None:
+            return None
         return term_a.truncate(target)
     w = max(w, den_order)
+    key = _ratio_key(node, ks, env, sign, steps, w)
+    ratios = _ratios(ev, node, ks, env, sign, scalars, steps, shifts, w, key)
+    if ratios is None:
+        return None
+    return term_a, w, ratios
+
+
+#: how many sums' ratios ``consecutive_ratios`` keeps (the most recently used)
+RATIO_CACHE = 4
+_ratio_cache: OrderedDict[tuple, list[Ratio] | None] = OrderedDict()
+_ratio_lock = threading.Lock()
+
+
+def _ratio_key(node: BigOp, ks: list[int], env: dict[str, int], sign: int, steps: list,
+               w: int) -> tuple | None:
+    """What the ratios depend on; None (not kept) when a parameter is not a plain number
+    (a coefficient in extra variables)."""
+    values = []
+    for _, t, params, p in steps:
+        for c, e in params:
+            if isinstance(c, bool) or not isinstance(c, (int, Fraction)):
+                return None
+            values.append((c, e))
+        values.append((t, p))
+    return (node, tuple(sorted(env.items())), tuple(ks), sign, w, tuple(values))
+
+
+def _coefficient(ev: Evaluator, var: str, scalars: list[tuple[Node, int]],
+                 env: dict[str, int], sign: int, k: int) -> Fraction | None:
+    """The product of the number factors at one value of the variable; None when it is 0."""
+    c = Fraction(sign)
+    for f, p in scalars:
+        v = ev.scalar(f, {**env, var: k})
+        if v == 0:
+            return None
+        c *= rational_power(v, Fraction(p))
+    return c
+
+
+def _ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int], sign: int,
+            scalars: list[tuple[Node, int]], steps: list, shifts: list[Fraction], w: int,
+            key: tuple | None) -> list[Ratio] | None:
+    """The ratios of consecutive terms (None: not of the shape), from the cache when kept."""
+    if key is not None:
+        with _ratio_lock:               # evaluations may run in threads (Dask workers)
+            if key in _ratio_cache:
+                _ratio_cache.move_to_end(key)
+                return _ratio_cache[key]
+    got = _compute_ratios(ev, node, ks, env, sign, scalars, steps, shifts, w)
+    if key is not None:
+        with _ratio_lock:
+            _ratio_cache[key] = got
+            while len(_ratio_cache) > RATIO_CACHE:
+                _ratio_cache.popitem(last=False)
+    return got
+
+
+def _compute_ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],
+                    sign: int, scalars: list[tuple[Node, int]], steps: list,
+                    shifts: list[Fraction], w: int) -> list[Ratio] | None:
+    var = node.var
+    coeffs: list[Fraction] = []
+    if scalars:
+        for k in ks:
+            c = _coefficient(ev, var, scalars, env, sign, k)
+            if c is None:
+                return None
+            coeffs.append(c)
+    if all(e.denominator == 1 for e in shifts):
+        whole = [e.numerator for e in shifts]
+        diffs: list = [b - a for a, b in zip(whole, whole[1:], strict=False)]    # ints: no Fraction
+    else:
+        diffs = [shifts[i] - shifts[i - 1] for i in range(1, len(ks))]
+    if any(d < 0 or (isinstance(d, Fraction) and d.denominator != 1) for d in diffs):
+        return None
+    subscripts = [_integers_at(ev, f.length, var, env, ks)  # type: ignore[arg-type]
+                  for f, _, _, _ in steps]
     ratios: list[Ratio] = []
+    one = Fraction(1)
     for i in range(1, len(ks)):
-        coef = coeffs[i] / coeffs[i - 1]
+        coef = coeffs[i] / coeffs[i - 1] if scalars else one
         binoms: list[tuple[Fraction | int | LaurentPoly, int, int]] = []
-        for t, params, p, ns in steps:
+        for (_, t, params, p), ns in zip(steps, subscripts, strict=True):
             lo, hi = sorted((ns[i - 1], ns[i]))
             times = p if ns[i] > ns[i - 1] else -p
             for c, e in params:
@@ -124,8 +202,28 @@ def consecutive_ratios(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str,
                                                      Fraction(times))
                         continue
                     binoms.append((c, x, times))
-        ratios.append((int(shifts[i] - shifts[i - 1]), coef, binoms))
-    return term_a, w, ratios
+        ratios.append((int(diffs[i - 1]), coef, binoms))
+    return ratios
+
+
+def _integers_at(ev: Evaluator, node: Node, var: str, env: dict[str, int], ks: list[int]
+                 ) -> list[int]:
+    """The integer value of ``node`` at each k of ``ks``: from its polynomial in the
+    variable when that has integer coefficients (read once), else one evaluation per k."""
+    try:
+        poly = sym.m_to_uni(ev.bounds.poly_of(node, {var: 1}, env), var)
+    except (NoBound, QSeriesError):
+        poly = None
+    if poly is not None and all(c.denominator == 1 for c in poly):
+        coeffs = [int(c) for c in reversed(poly)]
+        out = []
+        for k in ks:
+            acc = 0
+            for c in coeffs:
+                acc = acc * k + c
+            out.append(acc)
+        return out
+    return [ev.integer(node, {**env, var: k}, "a subscript") for k in ks]
 
 
 def split_ratio_sum(ev: Evaluator, node: BigOp, ks: list[int], env: dict[str, int],

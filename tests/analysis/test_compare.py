@@ -208,3 +208,29 @@ def test_no_progress_no_part_texts(monkeypatch):
     assert check(RR1_SUM, RR1_PRODUCT, order=50, method="exact").holds
     assert check(RR1_SUM, RR1_PRODUCT, order=50, method="modular", primes=1).holds
     assert made and all(p is None for p in made)
+
+
+def test_auto_probe_extrapolates_the_size_of_partition_numbers():
+    # the largest coefficient of 1/(q;q)_inf below q^N is p(N - 1) (FLINT's partition
+    # numbers): the extrapolation from order 1024 lands within 20% of its size
+    from qseries.analysis.compare import probe_bits
+    from qseries.backend import partitions_p
+    from qseries.lang import parse
+    for order in (6000, 20_000):
+        true = partitions_p(order - 1).bit_length()
+        got = probe_bits(parse("1/(q;q)_inf"), parse("1"), order)
+        assert 0.8 * true <= got <= 1.2 * true, (order, got, true)
+
+
+def test_auto_choice_weighs_the_number_of_primes():
+    # p(n) near order 6000 has about 270 bits: more expensive exactly than three primes,
+    # cheaper than ten (chooser.auto_costs); the old rule (exact up to 128 bits) ignored
+    # the number of primes
+    from qseries.analysis.compare import auto_method
+    from qseries.lang import parse
+    from qseries.series import ZZ
+    lhs, rhs = parse("1/(q;q)_inf"), parse("sum_{k>=0} q^(k^2)/(q;q)_k^2")
+    assert auto_method(lhs, rhs, 6000, ZZ, primes=3) == "modular"
+    assert auto_method(lhs, rhs, 6000, ZZ, primes=10) == "exact"
+    assert check("1/(q;q)_inf", "1/(q;q)_inf", order=6000, method="auto",
+                 primes=10).method == "exact"
