@@ -127,12 +127,13 @@ def integer_argument(name: str, value: object, low: int | None = None,
                                 f"({type(value).__name__})")
     if (low is not None and value < low) or (high is not None and value > high):
         if low is not None and high is not None:
-            wanted = f"between {low} and {high}"
+            wanted = f"an integer between {low} and {high}"
         elif low is not None:
-            wanted = "positive" if low == 1 else "non-negative" if low == 0 else f">= {low}"
+            wanted = "a positive integer" if low == 1 else "a non-negative integer" \
+                if low == 0 else f"an integer >= {low}"
         else:
-            wanted = f"<= {high}"
-        raise ArgumentError(f"{name} must be an integer {wanted}, not {_shown(value)}")
+            wanted = f"an integer <= {high}"
+        raise ArgumentError(f"{name} must be {wanted}, not {_shown(value)}")
     return value
 
 

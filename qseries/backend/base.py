@@ -414,7 +414,7 @@ class Ring:
         >>> ZZ.coeff(ZZ.poly([1, 2]), -1)
         Traceback (most recent call last):
         ...
-        qseries.errors.ArgumentError: i must be an integer non-negative, not -1
+        qseries.errors.ArgumentError: i must be a non-negative integer, not -1
         """
         self._poly_argument("p", p)
         integer_argument("i", i, 0)
@@ -524,7 +524,7 @@ class Ring:
         >>> ZZ.inflate(ZZ.poly([1, 2]), 0)
         Traceback (most recent call last):
         ...
-        qseries.errors.ArgumentError: d must be an integer positive, not 0
+        qseries.errors.ArgumentError: d must be a positive integer, not 0
         """
         self._poly_argument("p", p)
         integer_argument("d", d, 1)

@@ -498,8 +498,9 @@ def distribution(
         "--format", help="Format of the --trend-upto table.")] = ExportFormat.csv,
     out: Annotated[Path | None, typer.Option(
         "--out", help="Write the --trend-upto table to this file (default: standard output); "
-                      "without --trend-upto, every count of the --at sizes (CSV: n, value, "
-                      "count, share; or JSON with --format json).")] = None,
+                      "without --trend-upto, every count of the --at sizes (CSV with the "
+                      "columns n, the variable's name (its exponent), count, share; or JSON "
+                      "with --format json).")] = None,
     define: DefineOption = None,
     as_json: JsonOption = False,
     allow_long: AllowLongOption = False,

@@ -14,10 +14,11 @@ from typing import TYPE_CHECKING
 
 from ..errors import DomainError, UnableError, weight_may_help
 from ..lang.ast import BigOp
+from ..lang.printer import show
 from . import symbolic as sym
 from .chooser import FALLBACK_RANGE, SPLIT_RANGE
 from .termination import NoBound
-from .terms import MAX_BITS, fraction_text, label, poly_text
+from .terms import MAX_BITS, factors_of, fraction_text, label, poly_text
 
 if TYPE_CHECKING:
     from .evaluator import Evaluator
@@ -87,10 +88,43 @@ def cut_range(ev: Evaluator, node: BigOp, env: dict[str, int], order: int, devia
     return [k for a, b in pieces for k in range(a, b + 1)], cut
 
 
+def runaway_factors(ev: Evaluator, node: BigOp) -> str:
+    """For a product whose body has factors free of its index (``prod_{n>=1} (1-q^n)^(-1)
+    (q^2;q^5)_inf``: the body runs to the next + or -, so the second factor is repeated for
+    every n), a sentence saying so; else ''.
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> runaway_factors(Evaluator(), parse("prod_{n>=1} (1-q^n) (q;q^5)_inf"))[:46]
+    '; its body is everything up to the next + or -'
+    """
+    if node.kind != "prod":
+        return ""
+    free = [f for f, _ in factors_of(node.body)
+            if node.var not in ev.free(f) and ev.has_q(f)]
+    if not free:
+        return ""
+    shown = ", ".join(show(f) for f in free[:3])
+    return (f"; its body is everything up to the next + or -, so {shown} (free of "
+            f"{node.var}) is a factor of every term: to multiply by it once, write "
+            f"(prod_{{...}} ...) {shown}")
+
+
 def cutoff(ev: Evaluator, node: BigOp, env: dict[str, int], order: int, sign: int, start: int,
             deviation: bool) -> tuple[int, bool]:
     """First m >= start (k = sign*m) from which every term has valuation >= order, and
     whether the terms (factors) from there on are exactly 0 (exactly 1), not just small."""
+    try:
+        return _cutoff(ev, node, env, order, sign, start, deviation)
+    except (UnableError, DomainError) as err:
+        hint = runaway_factors(ev, node)
+        if hint:
+            err.args = (str(err) + hint, *err.args[1:])    # the same error, told why
+        raise
+
+
+def _cutoff(ev: Evaluator, node: BigOp, env: dict[str, int], order: int, sign: int,
+            start: int, deviation: bool) -> tuple[int, bool]:
     name = label(node)
     what = "factor minus 1" if deviation else "term"
     var = node.var

@@ -51,7 +51,10 @@ def check_lines(r: CheckResult, hints: Iterable[Hint] = ()) -> list[str]:
         e = Fraction(m.exponent)
         below = (f"weighted degree {m.exponent}" if r.weighted else
                  f"q^{e}" if e.denominator == 1 else f"q^({e})")
-        lines.append(f"  coefficients below {below} agree")
+        lowest = min((x.valuation for x in (r.lhs, r.rhs)
+                      if x is not None and x.valuation is not None), default=e)
+        if r.weighted or e > lowest:       # nothing lies below the first term of both sides
+            lines.append(f"  coefficients below {below} agree")
         lines.extend(neighbour_table(r))
     lines.extend(hint_line(h) for h in hints)
     if r.order_verified != r.order_requested and r.holds is False:   # else in the verdict

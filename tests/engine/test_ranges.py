@@ -34,3 +34,15 @@ def test_sums_of_numbers():
     assert numbers(Evaluator(), parse("sum_{k=1}^{3} (1/k)"), {}) == Fraction(11, 6)
     with pytest.raises(UnableError):
         numbers(Evaluator(), parse("sum_{k=1}^{10^6} (1/k)"), {})
+
+
+def test_a_product_whose_body_runs_on_says_so():
+    """Found by a trial as a new user: prod_{n>=1} (1-q^n)^(-1) (q^2,q^3,q^5;q^5)_inf takes
+    the second factor into the body (up to the next + or -); the refusal now says so."""
+    from qseries import evaluate
+    from qseries.errors import QSeriesError
+
+    with pytest.raises(QSeriesError, match=r"free of n\) is a factor of every term"):
+        evaluate("prod_{n>=1} (1-q^n)^(-1) (q^2,q^3,q^5;q^5)_inf", 10)
+    assert evaluate("(prod_{n>=1} (1-q^n)^(-1)) (q^2,q^3,q^5;q^5)_inf", 10) == \
+        evaluate("(q^2,q^3,q^5;q^5)_inf/(q;q)_inf", 10)
