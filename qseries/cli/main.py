@@ -833,9 +833,31 @@ app.command(name="prove")(prove_cmd)
 from . import scan as _scan  # noqa: E402, F401 - registers qseries scan on app
 
 
+def _run_for_json() -> None:
+    """``app()`` when --json is asked for: a usage error (an option out of range, a missing
+    argument) is JSON too, {"error": {"message", "position"}}, exit 2, as every other error
+    under --json is."""
+    try:
+        code = app(standalone_mode=False)
+    except Exception as err:            # typer's copy of click's usage errors, by their shape
+        if hasattr(err, "format_message") and hasattr(err, "exit_code"):
+            typer.echo(json.dumps({"error": {"message": err.format_message(),
+                                             "position": None}}))
+            sys.exit(err.exit_code)
+        if type(err).__name__ == "Abort":
+            typer.echo("qseries: aborted", err=True)
+            sys.exit(1)
+        raise
+    if code == 130:
+        typer.echo("qseries: interrupted", err=True)
+    sys.exit(code if isinstance(code, int) else 0)
+
+
 def run() -> None:
     """Console-script entry point."""
     try:
+        if "--json" in sys.argv[1:]:
+            _run_for_json()
         app()
     except KeyboardInterrupt:
         typer.echo("qseries: interrupted", err=True)

@@ -721,3 +721,17 @@ def test_check_takes_an_identity_pasted_whole():
     assert r.exit_code == 0 and r.stdout.startswith("AGREES")
     r = run("check", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "100")          # no right side
     assert r.exit_code == 2 and "two sides" in r.stderr
+
+
+@pytest.mark.parametrize("args", [
+    ["check", "1/(q;q)_inf", "1", "-n", "0", "--json"],        # an option out of range
+    ["check", "1", "1", "--method", "fast", "--json"],         # a choice not offered
+    ["list", "--json", "--bogus"],                              # an unknown option
+])
+def test_usage_errors_under_json_are_json(args):
+    # found by a trial as a new user: click's usage errors came as boxed text under --json
+    done = subprocess.run([sys.executable, "-m", "qseries", *args], capture_output=True,
+                          text=True, timeout=120)
+    assert done.returncode == 2
+    error = json.loads(done.stdout)["error"]
+    assert error["message"] and "Traceback" not in done.stderr
