@@ -32,6 +32,7 @@ from ..engine.chooser import (
 from ..engine.cost import CostEstimate, estimate_cost
 from ..errors import ParseError, QSeriesError
 from ..lang import Node, parse
+from ..lang.ast import extra_variables
 from ..lang.parser import NOTATION_FORMS, definitions_of, is_extra_variable, split_identity
 from ..products import FUNCTIONS
 from ..report import (
@@ -252,6 +253,30 @@ def _emit(as_json: bool, result: Any, shape: Any, lines: Any, found: bool) -> No
     raise typer.Exit(0 if found else 1)
 
 
+def _with_weight_hint(node: Node, weights: dict[str, int] | None) -> Any:
+    """``_guarded`` that adds, to an error a weight could cure (a sum in z that does not
+    converge until z stands for z q), which --weight to try."""
+    names = sorted(extra_variables(node))
+
+    def guarded(fn: Any, *args: Any) -> Any:
+        try:
+            return fn(*args)
+        except QSeriesError as err:
+            if err.weights_may_help and names and not weights:
+                tries = " ".join(f"-w {v}=1" for v in names)
+                what = f"{names[0]} then stands for {names[0]}*q" if len(names) == 1 else \
+                    "each variable then stands for itself times q"
+                err.args = (f"{err}; try {tries} ({what}), which may make it converge",
+                            *err.args[1:])
+            return _guarded(_raise, err)
+
+    return guarded
+
+
+def _raise(err: BaseException) -> Any:
+    raise err
+
+
 def _guarded(fn: Any, *args: Any) -> Any:
     """Run library code, turning every anticipated failure into exit code 2."""
     try:
@@ -315,8 +340,9 @@ def expand(
         _expand_dissection(node, dissect, order, weights, as_json, allow_long)
         return
     _refuse_long(allow_long, [node], order, None, weights)
-    s: Series = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,
-                         evaluate, node, order, None, weights)
+    s: Series = _guarded(_with_weight_hint(node, weights), _busy, quiet or as_json,
+                         f"evaluating to O(q^{order})", order, evaluate, node, order, None,
+                         weights)
     if plot is not None:
         _draw("growth_plot", s.truncate(order), plot)
     if as_json:

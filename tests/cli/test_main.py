@@ -735,3 +735,12 @@ def test_usage_errors_under_json_are_json(args):
     assert done.returncode == 2
     error = json.loads(done.stdout)["error"]
     assert error["message"] and "Traceback" not in done.stderr
+
+
+def test_expand_suggests_a_weight_when_one_may_help():
+    # found by a trial: check retries with a weight, expand only said "does not converge"
+    r = run("expand", "sum_{n>=0} z^n/(q;q)_n", "-n", "5")
+    assert r.exit_code == 2 and "try -w z=1" in r.stderr
+    assert run("expand", "sum_{n>=0} z^n/(q;q)_n", "-n", "5", "-w", "z=1").exit_code == 0
+    r = run("expand", "sum_{n>=0} 1/(q;q)_n", "-n", "5")        # no variable, no such hint
+    assert r.exit_code == 2 and "-w" not in r.stderr
