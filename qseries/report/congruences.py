@@ -63,8 +63,15 @@ def congruence_lines(s: CongruenceSearch) -> list[str]:
     n = len(s.congruences)
     lines = [f"{n} congruence{'s' if n > 1 else ''} below q^{s.order} for m <= {s.max_m} and "
              f"moduli {moduli} (implied ones omitted):"]
+    # one line per progression, with every modulus it is divisible by (a progression of
+    # zeros, as in (q;q)_inf^3, would otherwise fill a line per modulus)
+    groups: dict[tuple[int, Fraction], list] = {}
     for c in s.congruences:
-        weak = f"  (fewer than {FEW}: raise --order)" if c.checked < FEW else ""
-        lines.append(f"{progression_text(c.m, c.r)} = 0 (mod {c.modulus})  on {c.checked} "
+        groups.setdefault((c.m, c.r), []).append(c)
+    for (m, r), found in groups.items():
+        checked = min(c.checked for c in found)
+        weak = f"  (fewer than {FEW}: raise --order)" if checked < FEW else ""
+        mods = ", ".join(str(c.modulus) for c in found)
+        lines.append(f"{progression_text(m, r)} = 0 (mod {mods})  on {checked} "
                      f"coefficients{weak}")
     return lines

@@ -29,3 +29,14 @@ def test_divisibility_lines_with_the_exact_coefficient():
     # p(5n+4) = 0 mod 25 fails at once: p(4) = 5
     assert line == ("a(5n + 4) is not divisible by 25: at n = 0 (q^4) it is 5 mod 25 (the "
                     "coefficient is 5)")
+
+
+def test_a_progression_divisible_by_several_moduli_is_one_line():
+    """(q;q)_inf^3 = sum (-1)^n (2n+1) q^(n(n+1)/2) (Jacobi; Andrews, The Theory of
+    Partitions, Thm 2.8, from memory) is 0 off the triangular numbers, which are never
+    2 mod 3: a(3n+2) = 0 is divisible by every modulus, one line (found by a trial: it was
+    six lines)."""
+    from qseries.analysis import find_congruences
+    lines = congruence_lines(find_congruences("(q;q)_inf^3", 300, max_m=3))
+    assert "a(3n + 2) = 0 (mod 2, 3, 5, 7, 11, 13)  on 100 coefficients" in lines
+    assert sum("a(3n + 2)" in x for x in lines) == 1
