@@ -214,15 +214,9 @@ def _integers_at(ev: Evaluator, node: Node, var: str, env: dict[str, int], ks: l
         poly = sym.m_to_uni(ev.bounds.poly_of(node, {var: 1}, env), var)
     except (NoBound, QSeriesError):
         poly = None
-    if poly is not None and all(c.denominator == 1 for c in poly):
-        coeffs = [int(c) for c in reversed(poly)]
-        out = []
-        for k in ks:
-            acc = 0
-            for c in coeffs:
-                acc = acc * k + c
-            out.append(acc)
-        return out
+    values = None if poly is None else sym.integer_values(poly, ks)
+    if values is not None:
+        return values
     return [ev.integer(node, {**env, var: k}, "a subscript") for k in ks]
 
 

@@ -132,15 +132,9 @@ def _shifts(ev: Evaluator, monos: list[tuple[Node, int]], ks: list[int], var: st
             poly = None
         total = None if poly is None else sym.padd(total, sym.pscale(poly, Fraction(p)))
     if total is not None:
-        if all(c.denominator == 1 for c in total):
-            coeffs = [int(c) for c in reversed(total)]
-            out = []
-            for k in ks:
-                acc = 0
-                for c in coeffs:
-                    acc = acc * k + c
-                out.append(Fraction(acc))
-            return out
+        values = sym.integer_values(total, ks)
+        if values is not None:
+            return [Fraction(v) for v in values]
         return [sym.peval(total, k) for k in ks]
     shifts: list[Fraction] = []
     for k in ks:

@@ -72,6 +72,25 @@ def peval(a: Poly, x: int | Fraction) -> Fraction:
     return acc
 
 
+def integer_values(a: Poly, xs: list[int]) -> list[int] | None:
+    """a(x) for each x of ``xs`` by Horner's rule on Python integers when the coefficients
+    of ``a`` are integers (the fast path of term exponents and subscripts), else None.
+
+    >>> integer_values((Fraction(1), Fraction(0), Fraction(2)), [0, 1, 3])   # 1 + 2x^2
+    [1, 3, 19]
+    """
+    if not all(c.denominator == 1 for c in a):
+        return None
+    coeffs = [int(c) for c in reversed(a)]
+    out = []
+    for x in xs:
+        acc = 0
+        for c in coeffs:
+            acc = acc * x + c
+        out.append(acc)
+    return out
+
+
 def degree(a: Poly) -> int:
     """Degree; -1 for the zero polynomial."""
     return len(a) - 1

@@ -49,3 +49,13 @@ def _huge_coefficients():
                  (Fraction(-100), Fraction(1)))
     assert sym.eventually_at_least(p, 0, 0) == 100
     assert sym.eventually_at_least(p, 0, 101) == 101
+
+
+def test_integer_values_agree_with_peval():
+    from fractions import Fraction
+
+    from qseries.engine.symbolic import integer_values, peval
+    poly = (Fraction(-3), Fraction(5), Fraction(0), Fraction(2))     # 2x^3 + 5x - 3
+    xs = list(range(-5, 6))
+    assert integer_values(poly, xs) == [peval(poly, x) for x in xs]
+    assert integer_values((Fraction(1, 2), Fraction(1)), xs) is None
