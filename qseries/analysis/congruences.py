@@ -160,7 +160,7 @@ def _residues(s: Series, modulus: int, lo: int, n: int) -> list[int]:
     if s.ring.modulus is not None:
         if s.ring.modulus != modulus:
             raise ArgumentError(f"a series over {s.ring.name} cannot be read modulo {modulus}")
-        return [int(c) for c in coeffs]
+        return coeffs      # type: ignore[return-value]   (ints already: the ring's residues)
     return [_residue(c, modulus, lo + i) for i, c in enumerate(coeffs)]
 
 
