@@ -56,7 +56,7 @@ print("TIME", t)
 
 GP_CONGRUENCES = """\
 N = {N}; M = {M};
-gettime();
+t0 = getwalltime();
 E = eta(q + O(q^N));
 found = List(); kept = List();
 {{forprime(ell = 2, {L},
@@ -69,7 +69,7 @@ found = List(); kept = List();
       fordiv(m, d, if(d < m && setsearch(Set(found), [d, r % d, ell]), imp = 1; break));
       listput(found, [m, r, ell]);
       if(!imp, listput(kept, [m, r, ell]))))))}};
-t = gettime() / 1000.;
+t = (getwalltime() - t0) / 1000.;
 print(vecsort(Vec(kept)));
 print("TIME ", t);
 quit;
@@ -144,7 +144,7 @@ print("TIME", t)
 
 GP_RELATIONS = """\
 N = {N};
-gettime();
+t0 = getwalltime();
 B = sqrtint(N) + 1;
 t3 = 1 + 2 * sum(n = 1, B, q^(n^2)) + O(q^N);
 t4 = 1 + 2 * sum(n = 1, B, (-1)^n * q^(n^2)) + O(q^N);
@@ -157,7 +157,7 @@ P1 = pq(1); P2 = pq(2); P4 = pq(4);
      1 + 8 * sum(n = 1, N - 1, n * q^n / (1 + (-q)^n) + O(q^N)), P2^10 / (P1^4 * P4^4)]}};
 A = matrix(N, #F, i, j, polcoef(F[j], i - 1));
 K = matkerint(A);
-t = gettime() / 1000.;
+t = (getwalltime() - t0) / 1000.;
 print(Vec(K));
 print("TIME ", t);
 quit;

@@ -9,8 +9,10 @@ Every run is a fresh process (wall time includes start-up).
         [--trees before=/path/to/old/checkout,after=.] [--timeout 60] [--no-gp] [--no-flint]
 
 Columns, per shape and order: each tree's qseries run as wall seconds / the ``seconds``
-qseries reports (``product`` reports none: wall only); the GP script as wall / compute
-(``gettime``); FLINT's floor as compute seconds, exact (fmpz_series) and modulo one prime
+qseries reports (for product recovery, which reports none, the library call
+``product_form`` timed in its process); the GP script as wall / compute
+(``getwalltime``: the wall time of its computation, as qseries' ``seconds`` is, not CPU
+time); FLINT's floor as compute seconds, exact (fmpz_series) and modulo one prime
 (nmod_poly); the ratio GP / qseries (the last tree; wall and compute: > 1 means qseries is
 faster); with several trees the ratio of the first tree to each other one.  Below each shape,
 the growth exponent of each program's compute time in the order, between its two largest
@@ -48,11 +50,11 @@ GP_PRELUDE = """\
 N = {N}; q; z;
 poch(c, a, m) = my(P = 1 + O(q^N)); forstep(e = a, N - 1, m, P *= 1 - c * q^e); P;
 cs(S) = lift(subst(subst(truncate(S), z, 3), q, Mod(7, 2^61 - 1)));
-gettime();
+t0 = getwalltime();
 """
 #: epilogue: both sides compared, a checksum of the left one, the compute time
 GP_EPILOGUE = """
-t = gettime() / 1000.;
+t = (getwalltime() - t0) / 1000.;
 print("EQUAL ", L == R);
 print("CHECK ", cs(L));
 print("TIME ", t);
@@ -253,10 +255,21 @@ def tree_env(path: str) -> dict[str, str]:
 Cell = tuple[float, float | None] | None
 
 
+#: product recovery: the library call behind ``qseries product``, timed in a fresh process
+#: (the command reports no time)
+PRODUCT_FORM = r"""
+import sys, time, json
+from qseries.analysis import product_form
+t0 = time.perf_counter()
+pf = product_form(sys.argv[1], int(sys.argv[2]))
+print(json.dumps({"seconds": time.perf_counter() - t0, "period": pf.period}))
+"""
+
+
 def qseries_cmd(shape: Shape, order: int) -> list[str]:
     right = shape.right.replace("N-3", str(order - 3))
     if shape.kind == "product":
-        return ["product", shape.left, "-n", str(order), "--json"]
+        return ["-c", PRODUCT_FORM, shape.left, str(order)]
     if shape.kind == "verify":
         only = [x for key in shape.left.split() for x in ("--only", key)]
         return ["verify", *only, "-n", str(order), "--json", *shape.extra]
@@ -265,7 +278,8 @@ def qseries_cmd(shape: Shape, order: int) -> list[str]:
 
 def run_qseries(tree: str, shape: Shape, order: int, timeout: float) -> Cell:
     """(wall seconds, reported seconds or None) of one run, None past the timeout."""
-    cmd = [sys.executable, "-m", "qseries", *qseries_cmd(shape, order)]
+    args = qseries_cmd(shape, order)
+    cmd = [sys.executable, *(args if args[0] == "-c" else ["-m", "qseries", *args])]
     t0 = time.perf_counter()
     try:
         # run from the tree itself: ``python -m`` puts the working directory first on the
@@ -285,8 +299,6 @@ def run_qseries(tree: str, shape: Shape, order: int, timeout: float) -> Cell:
         if data["summary"]["ok"] != len(shape.left.split()):
             raise SystemExit(f"{tree}: {shape.name} at {order}: {data['summary']}")
         return wall, float(data["summary"]["seconds"])
-    if shape.kind == "product":
-        return wall, None
     return wall, float(data["seconds"])
 
 
@@ -309,17 +321,33 @@ def run_gp(gp: str, shape: Shape, order: int, timeout: float) -> tuple[Cell, str
     return (wall, float(got["TIME"])), got.get("CHECK", "").strip()
 
 
+#: FLINT floors measured so far, by (floor, mode): [(order, seconds or None past the timeout)]
+_FLOORS: dict[tuple[str, str], list[tuple[int, float | None]]] = {}
+
+
 def run_floor(shape: Shape, order: int, mode: str, timeout: float) -> float | None:
-    """FLINT's compute seconds for the floor of the shape, None where none applies."""
+    """FLINT's compute seconds for the floor of the shape, None where none applies or where
+    it would exceed the timeout.  Each floor is measured once per order and mode (several
+    shapes share one)."""
     if not shape.floor:
+        return None
+    seen = _FLOORS.setdefault((shape.floor, mode), [])
+    for n, t in seen:
+        if n == order:
+            return t
+    done = [(n, t) for n, t in seen if t is not None]
+    if len(done) < len(seen) or predicted_over(done, order, timeout, None):
+        seen.append((order, None))
         return None
     try:
         out = subprocess.run([sys.executable, "-c", FLINT_FLOOR, str(order), shape.floor,
                               mode], capture_output=True, text=True, timeout=timeout,
                              check=True)
+        t: float | None = float(out.stdout.split()[-1])
     except subprocess.TimeoutExpired:
-        return None
-    return float(out.stdout.split()[-1])
+        t = None
+    seen.append((order, t))
+    return t
 
 
 def _poly_at(text: str, z: int) -> int:
@@ -389,6 +417,8 @@ def main() -> None:
     ap.add_argument("--timeout", type=float, default=60.0)
     ap.add_argument("--no-gp", action="store_true", help="skip the GP column")
     ap.add_argument("--no-flint", action="store_true", help="skip FLINT's floor")
+    ap.add_argument("--markdown", action="store_true",
+                    help="also print the results as a Markdown table (for the README)")
     ap.add_argument("--no-checksum", action="store_true",
                     help="skip comparing GP's series with qseries' at the smallest order")
     args = ap.parse_args()
@@ -415,10 +445,15 @@ def main() -> None:
           + (f" {'flint ZZ':>9} {'flint p':>9}" if not args.no_flint else "")
           + ("   gp/qs wall, compute" if gp else "")
           + ("   ratio " + "/".join(n for n, _ in trees) if len(trees) > 1 else ""))
+    table: list[tuple[Shape, dict[int, list[Cell | str]], dict[int, tuple[float | None, ...]],
+                      dict[str, str]]] = []
     for shape in SHAPES:
         if groups and shape.group not in groups:
             continue
         times: dict[str, list[tuple[int, float]]] = {n: [] for n in heads}
+        rows: dict[int, list[Cell | str]] = {}
+        floors: dict[int, tuple[float | None, ...]] = {}
+        table.append((shape, rows, floors, {}))
         dead: set[str] = set()
         for order in orders:
             cells: list[Cell | str] = []
@@ -453,10 +488,12 @@ def main() -> None:
                 (f">{args.timeout:.0f}" if c is None else c if isinstance(c, str) else
                  f"{c[0]:8.2f}/{'-' if c[1] is None else f'{c[1]:.3f}':<8} ").rjust(width)
                 for c in cells)
+            rows[order] = cells
             floor = ""
             if not args.no_flint:
                 fz = run_floor(shape, order, "exact", args.timeout)
                 fp = run_floor(shape, order, "mod", args.timeout)
+                floors[order] = (fz, fp)
                 floor = " " + " ".join(f"{x:9.3f}" if x is not None else f"{'-':>9}"
                                        for x in (fz, fp))
             ratio = ""
@@ -484,6 +521,66 @@ def main() -> None:
             print(f"{shape.name:<44} {order:>7} {text}{floor}{ratio}", flush=True)
         print(f"{'':<44} growth exponent (compute, two largest orders): "
               + ", ".join(f"{n} {growth(pts)}" for n, pts in times.items()), flush=True)
+        table[-1][3].update({n: growth(pts) for n, pts in times.items()})
+    if args.markdown:
+        markdown(table, orders, trees[-1][0], bool(gp), args.timeout)
+
+
+def _secs(x: float) -> str:
+    return f"{x:.3f}" if x < 0.1 else f"{x:.2f}" if x < 10 else f"{x:.0f}"
+
+
+def markdown(table: list[tuple[Shape, dict[int, list[Cell | str]],
+                               dict[int, tuple[float | None, ...]], dict[str, str]]],
+             orders: list[int], tree: str, gp: bool, timeout: float) -> None:
+    """The results as one Markdown table: per order, qseries' reported seconds / GP's
+    compute seconds (GP / qseries); the wall-time ratios at the two smallest orders; the
+    growth exponents; FLINT's floor at the largest order it was measured."""
+    def order_name(n: int) -> str:
+        return f"10^{round(math.log10(n))}" if 10 ** round(math.log10(n)) == n else str(n)
+    small = orders[:2]
+    print("\n| shape | " + " | ".join(order_name(n) for n in orders)
+          + (" | GP / qs wall at " + ", ".join(order_name(n) for n in small) if gp else "")
+          + " | growth qs" + (" / GP" if gp else "") + " | FLINT floor ZZ / p |")
+    print("| --- | " + " | ".join("---:" for _ in orders) + (" | ---:" if gp else "")
+          + " | ---: | ---: |")
+    for shape, rows, floors, grow in table:
+        cells, walls = [], []
+        for n in orders:
+            row = rows.get(n)
+            if row is None:
+                cells.append("")
+                continue
+            qs = row[-2] if gp else row[-1]
+            g = row[-1] if gp else None
+            if not isinstance(qs, tuple):
+                text = f">{timeout:.0f}" if qs is None else "skip"
+                qsec = None
+            else:
+                qsec = qs[1] if qs[1] is not None else qs[0]
+                text = _secs(qsec) + ("†" if qs[1] is None else "")
+            if gp:
+                if isinstance(g, tuple):
+                    text += f" / {_secs(g[1])}"
+                    if qsec:
+                        text += f" ({g[1] / max(qsec, 1e-3):.1f}×)"
+                    if n in small and isinstance(qs, tuple):
+                        walls.append(f"{g[0] / qs[0]:.1f}×")
+                else:
+                    text += f" / >{timeout:.0f}" if g is None else " / –"
+                    if n in small and isinstance(qs, tuple):
+                        walls.append(f">{timeout / qs[0]:.0f}×" if g is None else "–")
+            cells.append(text)
+        measured = [(n, f) for n, f in floors.items() if f[0] is not None or f[1] is not None]
+        floor = "–"
+        if measured:
+            n, (fz, fp) = measured[-1]
+            floor = (f"{_secs(fz) if fz is not None else '>' + str(int(timeout))} / "
+                     f"{_secs(fp) if fp is not None else '>' + str(int(timeout))} "
+                     f"at {order_name(n)}")
+        g = grow.get(tree, "-") + (f" / {grow.get('gp', '-')}" if gp else "")
+        print(f"| {shape.name} | " + " | ".join(cells)
+              + (f" | {', '.join(walls)}" if gp else "") + f" | {g} | {floor} |")
 
 
 if __name__ == "__main__":
