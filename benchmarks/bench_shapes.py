@@ -535,7 +535,8 @@ def markdown(table: list[tuple[Shape, dict[int, list[Cell | str]],
              orders: list[int], tree: str, gp: bool, timeout: float) -> None:
     """The results as one Markdown table: per order, qseries' reported seconds / GP's
     compute seconds (GP / qseries); the wall-time ratios at the two smallest orders; the
-    growth exponents; FLINT's floor at the largest order it was measured."""
+    growth exponents; FLINT's floor (exact / modulo p) at the largest order where both were
+    measured."""
     def order_name(n: int) -> str:
         return f"10^{round(math.log10(n))}" if 10 ** round(math.log10(n)) == n else str(n)
     small = orders[:2]
@@ -571,13 +572,14 @@ def markdown(table: list[tuple[Shape, dict[int, list[Cell | str]],
                     if n in small and isinstance(qs, tuple):
                         walls.append(f">{timeout / qs[0]:.0f}×" if g is None else "–")
             cells.append(text)
-        measured = [(n, f) for n, f in floors.items() if f[0] is not None or f[1] is not None]
+        # the floor at the largest order where both were measured (else where either was)
+        measured = ([(n, f) for n, f in floors.items() if None not in f]
+                    or [(n, f) for n, f in floors.items() if f != (None, None)])
         floor = "–"
         if measured:
             n, (fz, fp) = measured[-1]
-            floor = (f"{_secs(fz) if fz is not None else '>' + str(int(timeout))} / "
-                     f"{_secs(fp) if fp is not None else '>' + str(int(timeout))} "
-                     f"at {order_name(n)}")
+            floor = (f"{_secs(fz) if fz is not None else '–'} / "
+                     f"{_secs(fp) if fp is not None else '–'} at {order_name(n)}")
         g = grow.get(tree, "-") + (f" / {grow.get('gp', '-')}" if gp else "")
         print(f"| {shape.name} | " + " | ".join(cells)
               + (f" | {', '.join(walls)}" if gp else "") + f" | {g} | {floor} |")
