@@ -522,6 +522,9 @@ def main() -> None:
         print(f"{'':<44} growth exponent (compute, two largest orders): "
               + ", ".join(f"{n} {growth(pts)}" for n, pts in times.items()), flush=True)
         table[-1][3].update({n: growth(pts) for n, pts in times.items()})
+    load = os.getloadavg()
+    print(f"finished {time.strftime('%H:%M UTC', time.gmtime())}, load average "
+          f"{load[0]:.2f} {load[1]:.2f} {load[2]:.2f}")
     if args.markdown:
         markdown(table, orders, trees[-1][0], bool(gp), args.timeout)
 
