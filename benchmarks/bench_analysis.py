@@ -30,6 +30,7 @@ import argparse
 import json
 import os
 import shutil
+import signal
 import subprocess
 import sys
 import time
@@ -228,13 +229,30 @@ print("TIME", t)
 """
 
 
+def run_killing_group(cmd: list[str], *, timeout: float, stdin: str | None = None,
+                      env: dict[str, str] | None = None,
+                      cwd: str | None = None) -> subprocess.CompletedProcess[str]:
+    """``subprocess.run`` in a new process group; past the timeout the whole group is
+    killed (a qseries check killed alone leaves its modular worker processes running) and
+    TimeoutExpired is raised."""
+    proc = subprocess.Popen(cmd, stdin=subprocess.PIPE if stdin is not None else None,
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True,
+                            env=env, cwd=cwd, start_new_session=True)
+    try:
+        out, err = proc.communicate(stdin, timeout=timeout)
+    except subprocess.TimeoutExpired:
+        os.killpg(proc.pid, signal.SIGKILL)
+        proc.communicate()
+        raise
+    return subprocess.CompletedProcess(cmd, proc.returncode, out, err)
+
+
 def timed(cmd: list[str], stdin: str | None, timeout: float
           ) -> tuple[float, float, str] | None:
     """(wall seconds with start-up, compute seconds the script reports, its first line)."""
     t0 = time.perf_counter()
     try:
-        out = subprocess.run(cmd, input=stdin, capture_output=True, text=True,
-                             timeout=timeout, check=False, env=ENV, cwd=ROOT)
+        out = run_killing_group(cmd, stdin=stdin, timeout=timeout, env=ENV, cwd=ROOT)
     except subprocess.TimeoutExpired:
         return None
     wall = time.perf_counter() - t0

@@ -37,6 +37,7 @@ import math
 import os
 import re
 import shutil
+import signal
 import subprocess
 import sys
 import time
@@ -246,6 +247,24 @@ print("TIME", time.perf_counter() - t0)
 """
 
 
+def run_killing_group(cmd: list[str], *, timeout: float, stdin: str | None = None,
+                      env: dict[str, str] | None = None,
+                      cwd: str | None = None) -> subprocess.CompletedProcess[str]:
+    """``subprocess.run`` in a new process group; past the timeout the whole group is
+    killed (a qseries check killed alone leaves its modular worker processes running) and
+    TimeoutExpired is raised."""
+    proc = subprocess.Popen(cmd, stdin=subprocess.PIPE if stdin is not None else None,
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True,
+                            env=env, cwd=cwd, start_new_session=True)
+    try:
+        out, err = proc.communicate(stdin, timeout=timeout)
+    except subprocess.TimeoutExpired:
+        os.killpg(proc.pid, signal.SIGKILL)
+        proc.communicate()
+        raise
+    return subprocess.CompletedProcess(cmd, proc.returncode, out, err)
+
+
 def tree_env(path: str) -> dict[str, str]:
     env = {k: v for k, v in os.environ.items() if k != "PYTHONDONTWRITEBYTECODE"}
     env["PYTHONPATH"] = os.path.abspath(path)
@@ -284,8 +303,8 @@ def run_qseries(tree: str, shape: Shape, order: int, timeout: float) -> Cell:
     try:
         # run from the tree itself: ``python -m`` puts the working directory first on the
         # path, which would otherwise shadow PYTHONPATH
-        out = subprocess.run(cmd, capture_output=True, text=True, timeout=timeout,
-                             check=False, env=tree_env(tree), cwd=os.path.abspath(tree))
+        out = run_killing_group(cmd, timeout=timeout, env=tree_env(tree),
+                                cwd=os.path.abspath(tree))
     except subprocess.TimeoutExpired:
         return None
     wall = time.perf_counter() - t0
@@ -307,8 +326,7 @@ def run_gp(gp: str, shape: Shape, order: int, timeout: float) -> tuple[Cell, str
     script = GP_PRELUDE.format(N=order) + shape.gp + GP_EPILOGUE
     t0 = time.perf_counter()
     try:
-        out = subprocess.run([gp, "-q", "-s", "4G"], input=script, capture_output=True,
-                             text=True, timeout=timeout, check=False)
+        out = run_killing_group([gp, "-q", "-s", "4G"], stdin=script, timeout=timeout)
     except subprocess.TimeoutExpired:
         return None, ""
     wall = time.perf_counter() - t0
@@ -340,9 +358,8 @@ def run_floor(shape: Shape, order: int, mode: str, timeout: float) -> float | No
         seen.append((order, None))
         return None
     try:
-        out = subprocess.run([sys.executable, "-c", FLINT_FLOOR, str(order), shape.floor,
-                              mode], capture_output=True, text=True, timeout=timeout,
-                             check=True)
+        out = run_killing_group([sys.executable, "-c", FLINT_FLOOR, str(order), shape.floor,
+                                 mode], timeout=timeout)
         t: float | None = float(out.stdout.split()[-1])
     except subprocess.TimeoutExpired:
         t = None
