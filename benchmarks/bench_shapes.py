@@ -132,7 +132,7 @@ VERIFY_GP = (
 
 #: the panel.  Groups: single (the first Rogers-Ramanujan identity, the reference shape),
 #: product, lambert, squares, long, multisum, theta, variable, recovery, verify, diagnose
-SHAPES: list[Shape] = [
+PANEL: list[Shape] = [
     Shape("RR sum = product (reference)", "single", "check", "sum_{k>=0} q^(k^2)/(q;q)_k",
           "1/((q;q^5)_inf (q^4;q^5)_inf)",
           GP_RR + "R = 1 / (poch(1, 1, 5) * poch(1, 4, 5));\n", "inv-eta"),
@@ -212,6 +212,11 @@ SHAPES: list[Shape] = [
           "for(n = 0, N - 1, if(polcoef(L - R, n), print(\"MISMATCH \", n); break));\n",
           "inv-eta", holds=False),
 ]
+
+#: the ``check`` shapes as (name, group, left, right, extra options), for other benchmarks
+#: that import the panel (``bench_auto.py`` on main)
+SHAPES: list[tuple[str, str, str, str, list[str]]] = [
+    (s.name, s.group, s.left, s.right, s.extra) for s in PANEL if s.kind == "check"]
 
 FLINT_FLOOR = r"""
 import sys, time, flint
@@ -466,7 +471,7 @@ def main() -> None:
           + ("   ratio " + "/".join(n for n, _ in trees) if len(trees) > 1 else ""))
     table: list[tuple[Shape, dict[int, list[Cell | str]], dict[int, tuple[float | None, ...]],
                       dict[str, str]]] = []
-    for shape in SHAPES:
+    for shape in PANEL:
         if groups and shape.group not in groups:
             continue
         times: dict[str, list[tuple[int, float]]] = {n: [] for n in heads}
