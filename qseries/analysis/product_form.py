@@ -103,9 +103,12 @@ def exponents_of(g: Series, length: int) -> list[Fraction]:
     coeffs = g.coefficient_list(length)
     dq = Series.from_coefficients([i * c for i, c in enumerate(coeffs)], ring, prec=length)
     log_der = dq * g.truncate(length).inverse(order=length)
-    big_c = [Fraction(c) for c in log_der.coefficient_list(length)]
+    big_c = log_der.coefficient_list(length)
+    # over ZZ the C_d are integers: the inversion runs on Python ints, and only n e_n / n
+    # becomes a Fraction (Fraction arithmetic throughout took most of the time)
+    zero: int | Fraction = 0 if all(isinstance(c, int) for c in big_c) else Fraction(0)
     mu = mobius_table(length)
-    out = [Fraction(0)] * length
+    out = [zero] * length
     # n e_n = -sum_{d | n} mu(n/d) C_d, accumulated over multiples
     for d in range(1, length):
         cd = big_c[d]
@@ -114,7 +117,8 @@ def exponents_of(g: Series, length: int) -> list[Fraction]:
                 m = mu[n // d]
                 if m:
                     out[n] -= m * cd
-    return [out[n] / n for n in range(1, length)]
+    return [Fraction(out[n], n) if isinstance(out[n], int) else out[n] / n
+            for n in range(1, length)]
 
 
 def find_period(ex: list[int], min_repetitions: int = MIN_REPETITIONS) -> int | None:
