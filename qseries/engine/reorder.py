@@ -27,20 +27,6 @@ from ..lang.ast import BigOp, BinOp, Name, Neg, Node, Num, free_names, replace_n
 from .reflect import bounded_by_denominators, linear_in
 
 
-def _offset_from(upper: Node, var: str) -> Fraction | None:
-    """c when ``upper`` is ``var``, ``var + c`` or ``var - c`` with c a number, else None."""
-    if isinstance(upper, Name) and upper.name == var:
-        return Fraction(0)
-    if isinstance(upper, BinOp) and upper.op in "+-":
-        left, right = upper.left, upper.right
-        if isinstance(left, Name) and left.name == var and isinstance(right, Num):
-            return right.value if upper.op == "+" else -right.value
-        if upper.op == "+" and isinstance(right, Name) and right.name == var and \
-                isinstance(left, Num):
-            return left.value
-    return None
-
-
 def _inner_of(body: Node) -> tuple[BigOp | None, Node | None]:
     """(S, X) when ``body`` is a sum S or X S (either order), else (None, None)."""
     if isinstance(body, BigOp) and body.kind == "sum":
@@ -113,7 +99,8 @@ def dependent_upper(node: BigOp) -> Node | None:
     if inner is None or inner.upper is None or not isinstance(inner.lower, Num):
         return None
     b = inner.var
-    c = _offset_from(inner.upper, a)
+    lin = linear_in(inner.upper, a)          # the upper limit a + c
+    c = lin[1] if lin is not None and lin[0] == 1 else None
     if c is None or c.denominator != 1 or node.lower.value.denominator != 1 or \
             inner.lower.value.denominator != 1 or b == a:
         return None
