@@ -30,11 +30,14 @@ import argparse
 import json
 import os
 import shutil
-import signal
 import subprocess
 import sys
 import time
 from fractions import Fraction
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+
+from bench_shapes import run_killing_group  # noqa: E402  (one copy of the process-group runner)
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 #: the children's environment: this checkout first on the path, bytecode caches allowed
@@ -227,24 +230,6 @@ t = time.perf_counter() - t0
 print(json.dumps(basis))
 print("TIME", t)
 """
-
-
-def run_killing_group(cmd: list[str], *, timeout: float, stdin: str | None = None,
-                      env: dict[str, str] | None = None,
-                      cwd: str | None = None) -> subprocess.CompletedProcess[str]:
-    """``subprocess.run`` in a new process group; past the timeout the whole group is
-    killed (a qseries check killed alone leaves its modular worker processes running) and
-    TimeoutExpired is raised."""
-    proc = subprocess.Popen(cmd, stdin=subprocess.PIPE if stdin is not None else None,
-                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True,
-                            env=env, cwd=cwd, start_new_session=True)
-    try:
-        out, err = proc.communicate(stdin, timeout=timeout)
-    except subprocess.TimeoutExpired:
-        os.killpg(proc.pid, signal.SIGKILL)
-        proc.communicate()
-        raise
-    return subprocess.CompletedProcess(cmd, proc.returncode, out, err)
 
 
 def timed(cmd: list[str], stdin: str | None, timeout: float
