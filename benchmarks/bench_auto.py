@@ -26,7 +26,7 @@ import time
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 
-from bench_shapes import SHAPES, tree_env  # noqa: E402
+from bench_shapes import SHAPES, run_killing_group, tree_env  # noqa: E402
 
 METHODS = ("auto", "exact", "modular")
 #: auto may be this many times slower than the better method ...
@@ -43,8 +43,10 @@ def run(tree: str, left: str, right: str, order: int, method: str, timeout: floa
            "--method", method, "--allow-long"]
     t0 = time.perf_counter()
     try:
-        out = subprocess.run(cmd, capture_output=True, text=True, timeout=timeout,
-                             check=False, env=tree_env(tree), cwd=os.path.abspath(tree))
+        # the whole process group is killed past the timeout (a check killed alone leaves
+        # its modular worker processes running)
+        out = run_killing_group(cmd, timeout=timeout, env=tree_env(tree),
+                                cwd=os.path.abspath(tree))
     except subprocess.TimeoutExpired:
         return None
     wall = time.perf_counter() - t0
