@@ -70,7 +70,7 @@ from ..report import (
     verify_table,
 )
 from ..report.distribution import counts_csv
-from ..report.latex import check_latex, product_latex
+from ..report.latex import check_latex, expansion_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
 from . import streams
 from .demo import DEMO_CASES
@@ -349,7 +349,7 @@ def expand(
         typer.echo(json.dumps(expand_json(s, order)))
         return
     if latex:
-        typer.echo(s.truncate(order).latex())
+        typer.echo(expansion_latex(node, s, order))
         return
     typer.echo(expansion_text(s, order))
     note = expansion_note(s, order)

@@ -52,7 +52,7 @@ from ..errors import ArgumentTypeError, ParseError, typed_argument
 from ..products import FUNCTIONS
 from .ast import BigO, BigOp, BinOp, Call, Dissect, Name, Neg, Node, Num, Poch, Q, Var
 from .definitions import Definition, parse_definitions, split_head, substitute
-from .tokens import MAX_DIGITS, MAX_TEXT, Token, tokenize
+from .tokens import MAX_DIGITS, MAX_TEXT, Token, display_body, tokenize
 
 __all__ = ["MAX_DEPTH", "MAX_DIGITS", "MAX_TEXT", "NOTATION_FORMS", "Token", "is_extra_variable",
            "parse", "parse_body", "parse_definitions", "tokenize"]
@@ -784,12 +784,16 @@ def parse_body(text: str, start: int, params: Iterable[str],
 
 
 def split_identity(text: str) -> tuple[str, str]:
-    """The two sides of an identity pasted as one text ``LHS = RHS`` (plain or LaTeX, with
+    r"""The two sides of an identity pasted as one text ``LHS = RHS`` (plain or LaTeX, with
     ``&=`` as displays align it): split at the one ``=`` outside every bracket (the ``=``
-    of ``sum_{n=0}`` lies inside braces).
+    of ``sum_{n=0}`` lies inside braces); the delimiters of a display pasted whole
+    (``\[ ... \]``, ``$$ ... $$``, ``\begin{equation} ... \end{equation}``) are left out of
+    both sides.
 
-    >>> split_identity(r"\\sum_{n=0}^{\\infty} q^n &= \\frac{1}{1-q}")
-    ('\\\\sum_{n=0}^{\\\\infty} q^n &', ' \\\\frac{1}{1-q}')
+    >>> split_identity(r"\sum_{n=0}^{\infty} q^n &= \frac{1}{1-q}")
+    ('\\sum_{n=0}^{\\infty} q^n &', ' \\frac{1}{1-q}')
+    >>> split_identity(r"\[ 1/(1-q) = \sum_{n\ge0} q^n \]")
+    (' 1/(1-q) ', ' \\sum_{n\\ge0} q^n ')
     """
     depth, cuts = 0, []
     for t in tokenize(text):
@@ -803,7 +807,8 @@ def split_identity(text: str) -> tuple[str, str]:
         raise ParseError("give the two sides as two arguments (LHS RHS), or one text with "
                          "one '=' between them" + (f" (this one has {len(cuts)})" if cuts
                                                    else ""), text, cuts[1] if cuts else 0)
-    return text[:cuts[0]], text[cuts[0] + 1:]
+    start, end = display_body(text)
+    return text[start:cuts[0]], text[cuts[0] + 1:end]
 
 
 def parse(text: str, bound: Iterable[str] = (),

@@ -64,6 +64,10 @@ LATEX_SIZED = frozenset(x for x in LATEX_IGNORED if x in ("left", "right") or
 LATEX_SKIPPED_WITH_ARGUMENT = frozenset({"label", "tag", "nonumber", "notag"})
 #: the environments a Gaussian binomial is printed with
 MATRIX_ENVIRONMENTS = frozenset({"bmatrix", "matrix", "pmatrix"})
+#: the display environments whose whole text may be pasted (their delimiters are dropped)
+DISPLAY_ENVIRONMENTS = frozenset({
+    "equation", "equation*", "align", "align*", "gather", "gather*", "multline",
+    "multline*", "displaymath", "math"})
 
 
 @dataclass(frozen=True)
@@ -169,18 +173,61 @@ def _sized_bracket(t: Token, text: str, stack: list[str]) -> Token:
     return Token("sym", "]" if stack.pop() == "[" else ")", t.pos)
 
 
+def display_body(text: str) -> tuple[int, int]:
+    r"""The span (start, end) of ``text`` inside the delimiters of a LaTeX display pasted
+    whole: ``\[ ... \]``, ``$$ ... $$``, ``$ ... $``, ``\( ... \)`` and
+    ``\begin{equation} ... \end{equation}`` (also starred, align, gather, multline,
+    displaymath); the whole text when it has none.  An opening delimiter without its
+    closing one (or the reverse) is an error at the delimiter.
+
+    >>> text = r"\[ \theta_3(q)^2 = 1 + 4q + O(q^{2}) \]"
+    >>> start, end = display_body(text)
+    >>> print(text[start:end].strip())
+    \theta_3(q)^2 = 1 + 4q + O(q^{2})
+    >>> display_body("1 + q")
+    (0, 5)
+    """
+    n = len(text)
+    start, end = n - len(text.lstrip()), len(text.rstrip())
+    body = text[start:end]
+    pairs = (("\\[", "\\]"), ("\\(", "\\)"), ("$$", "$$"), ("$", "$"))
+    for opening, closing in pairs:
+        if body.startswith(opening):
+            if body.endswith(closing) and len(body) >= len(opening) + len(closing):
+                return start + len(opening), end - len(closing)
+            raise ParseError(f"the display opened by {opening} is not closed by {closing}",
+                             text, start)
+    for opening, closing in pairs:
+        if body.endswith(closing):
+            raise ParseError(f"{closing} closes a display that no {opening} opened", text,
+                             end - len(closing))
+    if body.startswith("\\begin{"):
+        close = body.find("}")
+        env = body[len("\\begin{"):close] if close > 0 else ""
+        if env in DISPLAY_ENVIRONMENTS:
+            ending = f"\\end{{{env}}}"
+            if not body.endswith(ending):
+                raise ParseError(f"\\begin{{{env}}} is not closed by {ending}", text, start)
+            return start + close + 1, end - len(ending)
+    return 0, n
+
+
 def tokenize(text: str) -> list[Token]:
-    """Split text into tokens (plain, Unicode or LaTeX; see the module docstring).
+    """Split text into tokens (plain, Unicode or LaTeX; see the module docstring).  The
+    delimiters of a display pasted whole (``\\[ ... \\]``, ``$ ... $``,
+    ``\\begin{equation} ... \\end{equation}``) are dropped (:func:`display_body`).
 
     >>> [t.text for t in tokenize("2q^3 (q;q)_inf")]
     ['2', 'q', '^', '3', '(', 'q', ';', 'q', ')', '_', 'inf', '']
+    >>> [t.text for t in tokenize(r"$$ q^{2} $$")]
+    ['q', '^', '{', '2', '}', '']
     """
     if len(text) > MAX_TEXT:
         raise ParseError(f"the expression is longer than {MAX_TEXT} characters",
                          text[:200], 200)
     out: list[Token] = []
     sized: list[str] = []                # the open \left[ brackets, as what they became
-    i, n = 0, len(text)
+    i, n = display_body(text)
     while i < n:
         ch = text[i]
         if ch.isspace():
@@ -205,7 +252,7 @@ def tokenize(text: str) -> list[Token]:
             out.append(Token("name", text[i:j], i))
             i = j
             continue
-        if ch in ".,\\" and _only_an_ending_after(text, i):
+        if ch in ".,\\" and _only_an_ending_after(text[:n], i):
             break                    # "... (q;q)_\\infty." as a display ends
         if ch == "&":
             i += 1                   # an alignment mark of a display: &=

@@ -14,6 +14,7 @@ from ..analysis import CheckResult, ProductForm
 from ..lang import Node, parse
 from ..lang.ast import BinOp, Neg, Num, Poch
 from ..lang.printer import show_latex
+from ..series import Series
 
 
 def _order(e: object) -> str:
@@ -40,6 +41,17 @@ def _reciprocals(node: Node) -> Node:
             BinOp("^", node.left, exp)
         return BinOp("/", Num(Fraction(1)), den)
     return node
+
+
+def expansion_latex(expr: Node, s: Series, order: int) -> str:
+    r"""The expansion of ``expr`` modulo q^order as a LaTeX display (which the parser
+    reads back, delimiters included, as an identity for ``check``).
+
+    >>> from qseries.engine import evaluate
+    >>> print(expansion_latex(parse("(q;q)_inf^3"), evaluate("(q;q)_inf^3", 7), 7))
+    \[ (q;q)_\infty^{3} = 1 - 3 q + 5 q^{3} - 7 q^{6} + O(q^{7}) \]
+    """
+    return f"\\[ {show_latex(expr)} = {s.truncate(order).latex()} \\]"
 
 
 def product_latex(pf: ProductForm) -> str:

@@ -471,9 +471,16 @@ def test_with_json_an_error_is_json_with_its_position(args, position, text):
 
 def test_latex_output_of_expand_product_and_check():
     r = run("expand", "(q;q)_inf^3", "-n", "11", "--latex")
-    assert r.stdout.strip() == "1 - 3 q + 5 q^{3} - 7 q^{6} + 9 q^{10} + O(q^{11})"
+    assert r.stdout.strip() == \
+        r"\[ (q;q)_\infty^{3} = 1 - 3 q + 5 q^{3} - 7 q^{6} + 9 q^{10} + O(q^{11}) \]"
+    # the display reads back whole: Jacobi's (q;q)^3 = sum (-1)^n (2n+1) q^(n(n+1)/2)
+    # (Andrews, The Theory of Partitions, Theorem 2.8 (from memory)) to the order printed
+    back = run("check", r.stdout.strip(), "-n", "11")
+    assert back.exit_code == 0 and "AGREES" in back.stdout
     r = run("product", "sum_{k>=0} q^(k^2)/(q;q)_k", "-n", "60", "--latex")
     assert r.exit_code == 0 and "\\frac{1}{(q, q^{4};q^{5})_\\infty}" in r.stdout
+    back = run("check", "sum_{k>=0} q^(k^2)/(q;q)_k", r.stdout.strip(), "-n", "60")
+    assert back.exit_code == 0 and "agree to O(q^60)" in back.stdout
     r = run("check", "(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)", "--latex")
     assert r.exit_code == 0 and r.stdout.startswith("% AGREES")
 

@@ -175,6 +175,11 @@ def test_an_identity_pasted_as_one_text_is_split_at_its_one_equals_sign():
     assert split_identity("sum_{n=0}^{inf} q^n = 1/(1-q)") == ("sum_{n=0}^{inf} q^n ", " 1/(1-q)")
     left, right = split_identity(r"\sum_{n\ge 0} \frac{q^{n^2}}{(q;q)_n} &= G(q).")
     assert left.rstrip().endswith("&") and right.strip() == "G(q)."
+    # a display pasted whole: its delimiters belong to neither side
+    assert split_identity(r"\[ 1/(1-q) = \sum_{n\ge 0} q^n \]") == \
+        (" 1/(1-q) ", r" \sum_{n\ge 0} q^n ")
+    left, right = split_identity("$$ (q;q)_inf = 1 - q $$")
+    assert (left, right) == (" (q;q)_inf ", " 1 - q ")
     for bad in ("sum_{n=0}^{inf} q^n", "a = b = c"):
         with pytest.raises(ParseError, match="two sides"):
             split_identity(bad)

@@ -56,7 +56,7 @@ def test_spacing_and_sizing_commands_are_dropped():
 @pytest.mark.parametrize(("text", "column", "words"), [
     (r"\sum_{n\ge0} \foo q", 14, "unknown LaTeX command \\foo"),
     (r"(a_1,\ldots;q)_n", 6, "write every parameter out"),
-    (r"\begin{align} q \end{align}", 1, "\\begin{align}"),
+    (r"\begin{cases} q \end{cases}", 1, "\\begin{cases}"),
     (r"\binom{n}{k} q", 1, "needs a number k"),
     ("q \\", 3, "backslash ends"),
 ])
@@ -79,6 +79,29 @@ def test_latex_errors_point_into_the_latex_text(text, column, words):
 ])
 def test_display_extras_read_as_papers_mean_them(latex, plain):
     assert evaluate(latex, 30) == evaluate(plain, 30)
+
+
+@pytest.mark.parametrize("display", [
+    r"\[ {} \]", r"$$ {} $$", r"${}$", r"\( {} \)", "  \\[{}\\]  ",
+    r"\begin{{equation}} {} \end{{equation}}", r"\begin{{equation*}} {}. \end{{equation*}}",
+    r"\begin{{align*}} {} \end{{align*}}",
+])
+def test_a_display_pasted_whole_reads_as_its_body(display):
+    body = r"\frac{1}{(q;q)_\infty}"
+    assert evaluate(display.format(body), 30) == evaluate("1/(q;q)_inf", 30)
+
+
+@pytest.mark.parametrize(("text", "column", "words"), [
+    (r"\[ q + 1", 1, "not closed by \\]"),
+    (r"q + 1 \]", 7, "no \\[ opened"),
+    ("$$ q", 1, "not closed by $$"),
+    ("q $", 3, "no $ opened"),
+    (r"\begin{equation} q", 1, "not closed by \\end{equation}"),
+])
+def test_an_unmatched_display_delimiter_is_an_error_at_it(text, column, words):
+    with pytest.raises(ParseError) as info:
+        parse(text)
+    assert f"column {column}" in str(info.value) and words in str(info.value)
 
 
 def test_a_plain_bracket_is_still_a_coefficient_extractor():
