@@ -52,6 +52,7 @@ from ..report import (
     expansion_note,
     expansion_text,
     listing_json,
+    listing_line,
     listing_rows,
     listing_summary,
     listing_table,
@@ -66,6 +67,7 @@ from ..report import (
     trend_csv,
     trend_json,
     verify_json,
+    verify_line,
     verify_summary,
     verify_table,
 )
@@ -816,7 +818,12 @@ def verify(
                                           job_count(entries) if interrupted else None)))
     else:
         if results and not streamed:      # on a terminal each line came as it finished
-            console.print(verify_table(results, expects, labels))
+            if console.is_terminal:
+                console.print(verify_table(results, expects, labels))
+            else:                         # a pipe or a file: whole lines, never wrapped
+                for r in results:
+                    console.print(verify_line(r, expects[r.ident], labels.get(r.ident)),
+                                  markup=False, highlight=False, soft_wrap=True)
         console.print(verify_summary(results, elapsed, interrupted))
         if len(results) > 1:
             console.print(slowest_line(results, 5, labels), markup=False)
@@ -849,7 +856,11 @@ def list_cmd(
         return
     rows = listing_rows(entries)
     console = streams.stdout_console()
-    console.print(listing_table(rows))
+    if console.is_terminal:
+        console.print(listing_table(rows))
+    else:                                 # a pipe or a file: whole lines, never wrapped
+        for row in rows:
+            console.print(listing_line(row), markup=False, highlight=False, soft_wrap=True)
     console.print(listing_summary(rows))
 
 

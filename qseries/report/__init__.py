@@ -46,11 +46,13 @@ from .product import no_product_line, product_lines
 from .relations import combination_lines, relation_lines
 from .scan import relation_text, scan_json, scan_lines
 from .tables import (
+    listing_line,
     listing_summary,
     listing_table,
     row_label,
     slowest_line,
     sources_lines,
+    verify_line,
     verify_summary,
     verify_table,
 )
@@ -62,10 +64,11 @@ __all__ = ["check_html", "check_json", "check_lines", "combination_json", "combi
            "distribution_json", "distribution_lines", "distributions_json", "divisibility_json",
            "divisibility_lines", "entry_json", "entry_verdict_text", "expand_json",
            "expansion_note", "expansion_text", "exponent_json", "finite_json", "hint_json",
-           "hint_line", "listing_json", "listing_rows", "listing_summary", "listing_table",
+           "hint_line", "listing_json", "listing_line", "listing_rows",
+           "listing_summary", "listing_table",
            "mismatch_json", "mismatch_report", "mismatch_text", "neighbour_table",
            "no_product_json", "no_product_line", "product_html", "product_json", "product_lines",
            "progression_text", "relation_lines", "relation_text", "relations_json", "row_label",
            "scan_json", "scan_lines", "slowest_line",
-           "sources_lines", "trend_csv", "trend_json", "verify_json", "verify_summary",
-           "verify_table"]
+           "sources_lines", "trend_csv", "trend_json", "verify_json", "verify_line",
+           "verify_summary", "verify_table"]

@@ -121,6 +121,17 @@ def listing_table(rows: Sequence[Mapping[str, Any]]) -> Table:
     return table
 
 
+def listing_line(row: Mapping[str, Any]) -> str:
+    """One entry of ``qseries list`` as a line, for a pipe or a file (where a table would
+    break identifiers across lines): identifier (with a family's parameter ranges),
+    members, title and source, two spaces apart.
+
+    >>> listing_line({"id": "euler", "members": 1, "title": "Euler", "source": "L. Euler"})
+    'euler  1  Euler  L. Euler'
+    """
+    return "  ".join([row_label(row), str(row["members"]), row["title"], row["source"]])
+
+
 def sources_lines(rows: Sequence[Mapping[str, Any]]) -> list[str]:
     """The text of ``qseries list --sources``: each identifier (a family with its parameter
     ranges) and, indented under it, its citation, its note if it has one, and the entry it

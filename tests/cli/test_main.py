@@ -189,6 +189,20 @@ def test_verify_catches_an_altered_copy(tmp_path):
     assert "FAILS" in r.stdout and "q^9" in r.stdout
 
 
+def test_verify_and_list_into_a_pipe_print_whole_lines():
+    # a table folded to 80 columns broke identifiers ("durfee-rectangle" / "m=1") on a pipe
+    r = run("verify", "--only", "durfee-rectangle", "--order", "20", "-j", "1")
+    assert r.exit_code == 0, r.output
+    lines = r.stdout.splitlines()
+    for m in range(1, 6):
+        assert any(line.startswith(f"durfee-rectangle m={m}  holds  order 20") for line in lines)
+    listing = run("list")
+    assert listing.exit_code == 0
+    assert any(line.startswith("durfee-rectangle m=1..5  5  ")
+               for line in listing.stdout.splitlines())
+    assert "┃" not in listing.stdout and "│" not in r.stdout
+
+
 def test_verify_malformed_file_exits_2_with_file_and_line(tmp_path):
     bad = tmp_path / "bad.toml"
     bad.write_text('[[identity]]\nkey = "x"\ntitle = "t"\nleft = "q"\nright = "q"\n'
