@@ -24,13 +24,21 @@ class QSeriesError(Exception):
 
     >>> QSeriesError("x").weights_may_help, DomainError("x", weights_may_help=True).weights_may_help
     (False, True)
+    >>> DomainError("division by zero at column 5", position=4).position
+    4
     """
 
     weights_may_help: bool = False
+    #: where in the expression's text the fault lies (0-based), when it is known: the parser
+    #: always knows it; the evaluator knows it for the node it was evaluating
+    position: int | None = None
 
-    def __init__(self, *args: object, weights_may_help: bool = False) -> None:
+    def __init__(self, *args: object, weights_may_help: bool = False,
+                 position: int | None = None) -> None:
         super().__init__(*args)
         self.weights_may_help = weights_may_help
+        if position is not None:
+            self.position = position
 
 
 class ParseError(QSeriesError):

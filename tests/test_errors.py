@@ -58,6 +58,7 @@ def test_weight_may_help_is_a_declared_field():
 @pytest.mark.parametrize("err", [
     QSeriesError("plain"),
     DomainError("with a weight", weights_may_help=True),
+    DomainError("division by zero at column 3", position=2),
     ArgumentTypeError("order must be an integer"),
     ParseError("unexpected ')'", text="1 + )", position=4),
     ParseError("empty"),
@@ -67,5 +68,6 @@ def test_errors_survive_pickling(err):
     assert type(back) is type(err)
     assert str(back) == str(err) and back.args == err.args
     assert back.weights_may_help == err.weights_may_help
+    assert back.position == err.position
     if isinstance(err, ParseError):
         assert (back.message, back.text, back.position) == (err.message, err.text, err.position)

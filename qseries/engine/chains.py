@@ -44,7 +44,8 @@ def chain_parts(ev: Evaluator, factors: list[tuple[Node, int]], env: dict[str, i
         if not ev.has_q(node):
             v = ev.scalar(node, env)
             if p < 0 and v == 0:
-                raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}")
+                raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}",
+                                  position=getattr(node, "pos", 0))
             coeff *= rational_power(v, Fraction(p))
         elif isinstance(node, Q) or (isinstance(node, BinOp) and node.op == "^"
                                      and isinstance(node.left, Q)):
@@ -100,7 +101,8 @@ def apply_parts(ev: Evaluator, acc: Series, factors: list[tuple[Node, int]], env
         v = ev._divisor(node, env, order) if p < 0 else ev.value(node, env, order)
         if not isinstance(v, Series):
             if p < 0 and v == 0:
-                raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}")
+                raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}",
+                                  position=getattr(node, "pos", 0))
             acc = acc * rational_power(v, Fraction(p))
             continue
         b = binomial_parts(v)

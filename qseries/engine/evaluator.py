@@ -228,7 +228,7 @@ class Evaluator:
             c = self.ring.gen(node.name)  # type: ignore[attr-defined]
         else:
             raise DomainError(f"the extra variable {node.name!r} at column {node.pos + 1} has "
-                              f"no value over {self.ring.name}")
+                              f"no value over {self.ring.name}", position=node.pos)
         return Series.monomial(w, self.ring, c)
 
     def scalar(self, node: Node, env: dict[str, int]) -> Fraction:
@@ -237,7 +237,8 @@ class Evaluator:
             names = sorted(extra_variables(node))
             what = "q" if not names else f"the extra variable {names[0]}"
             raise DomainError(f"the expression at column {getattr(node, 'pos', 0) + 1} must be "
-                              f"a number here, but it involves {what}")
+                              f"a number here, but it involves {what}",
+                              position=getattr(node, "pos", 0))
         v = self.value(node, env, 0)
         assert isinstance(v, Fraction)
         return v
@@ -311,11 +312,13 @@ class Evaluator:
         5 + 30q + 135q^2 + 490q^3 + O(q^4)
         """
         if node.m > MAX_LENGTH or abs(node.r) > MAX_INTEGER:
-            raise UnableError(f"the extractor at column {node.pos + 1} is beyond the limits")
+            raise UnableError(f"the extractor at column {node.pos + 1} is beyond the limits",
+                              position=node.pos)
         work = max(node.m * order + _ceil_fraction(node.r), 0)
         if work > MAX_LENGTH:
             raise UnableError(f"the extractor at column {node.pos + 1} needs its series to "
-                              f"order {work}, beyond the limit {MAX_LENGTH}")
+                              f"order {work}, beyond the limit {MAX_LENGTH}",
+                              position=node.pos)
         body = self._as_series(self.value(node.body, env, work))
         return body.section(node.m, node.r).truncate(order)
 
@@ -415,7 +418,7 @@ class Evaluator:
                 or mono[0] not in ((1, -1) if signed else (1,)):
             raise DomainError(f"the base of the q-Pochhammer symbol at column {node.pos + 1} "
                               f"must be q^t with t a positive integer"
-                              + (" (or -q^t)" if signed else ""))
+                              + (" (or -q^t)" if signed else ""), position=node.pos)
         return int(mono[1]) * (1 if mono[0] == 1 else -1)
 
     def _param(self, node: Node, env: dict[str, int], order: int) -> Series:
@@ -476,7 +479,8 @@ class Evaluator:
         """
         if n is not None and n < 0:
             raise UnableError(f"(a;-q^t)_n with n < 0 (column {node.pos + 1}) is not "
-                              f"supported; write it as 1/(a (-q^t)^n;-q^t)_(-n)")
+                              f"supported; write it as 1/(a (-q^t)^n;-q^t)_(-n)",
+                              position=node.pos)
         even = None if n is None else (n + 1) // 2
         odd = None if n is None else n // 2
         first = chooser.pochhammer_value(a, 2 * t, even, order, self.allowed)

@@ -93,7 +93,8 @@ class TermBounds:
             if node.op == "/" and not self._symbolic(node.right, syms):
                 d = self.ev.scalar(node.right, env)
                 if d == 0:
-                    raise DomainError(f"division by zero at column {_pos(node.right)}")
+                    raise DomainError(f"division by zero at column {_pos(node.right)}",
+                                      position=_pos(node.right) - 1)
                 return sym.m_scale(self.poly_of(node.left, syms, env), 1 / d)
             if node.op == "^" and not self._symbolic(node.right, syms):
                 e = self.ev.scalar(node.right, env)

@@ -470,7 +470,10 @@ def test_an_undefined_function_exits_2_and_says_how_to_define_it():
     (["expand", "1/(q"], 4, "1/(q"),
     (["check", "Sum_{k>=0} q", "q"], 0, "Sum_{k>=0} q"),
     (["product", "q + G(q)"], 4, "q + G(q)"),
-    (["expand", "1/0"], None, None),
+    # undefined rather than malformed: the evaluator's error carries the position too
+    (["expand", "1/0"], 2, None),
+    (["expand", "q + q^(q)"], 7, None),
+    (["expand", "sum_{n>=0} q^n/(1-1)"], 17, None),
 ])
 def test_with_json_an_error_is_json_with_its_position(args, position, text):
     r = run(*args, "--json")
