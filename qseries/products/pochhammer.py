@@ -346,7 +346,8 @@ def euler_log(c: int, a: int, t: int, order: int, modulus: int | None = None) ->
             s[x::2 * x] = [v + x for v in s[x::2 * x]]
             s[2 * x::2 * x] = [v - x for v in s[2 * x::2 * x]]
         else:
-            s[x::x] = [v - x * w for v, w in zip(s[x::x], powers[1:], strict=False)]
+            seg = s[x::x]           # only the powers it needs (not a copy of them all)
+            s[x::x] = [v - x * w for v, w in zip(seg, powers[1:len(seg) + 1], strict=True)]
     return s
 
 

@@ -102,6 +102,16 @@ def test_euler_log_counts_divisors_in_the_progression():
                                                 if k % d == 0) for k in range(1, n)]
 
 
+@pytest.mark.parametrize(("c", "a", "t"), [(3, 1, 1), (2**61 - 5, 2, 3), (123456789, 1, 2)])
+def test_euler_log_with_any_residue_sums_over_the_divisors(c, a, t):
+    # log(1 - c q^x) = -sum_m c^m q^(mx)/m: k [q^k] = -sum over x | k, x = a (mod t), x >= a,
+    # of x c^(k/x); the general residue c (an extra variable's random value modulo p)
+    p, n = 2**61 - 1, 80
+    want = [0] + [-sum(x * pow(c, k // x, p) for x in range(a, k + 1, t) if k % x == 0) % p
+                  for k in range(1, n)]
+    assert [v % p for v in euler_log(c, a, t, n, modulus=p)] == want
+
+
 def test_minus_one_modulo_p_takes_the_fast_paths(monkeypatch):
     # regression: modulo p the parameter -q has coefficient p - 1, which was not recognised as
     # -1, so (-q;q)_inf and (-q;q^3)_inf were multiplied out one binomial at a time (minutes
