@@ -460,6 +460,17 @@ class _Plan:
         """S_j(t) = sum_(t') q^(c_j t t') P_j(t, t') G_(j+1)(t') modulo q^budget, the
         q-Pochhammer factors of P_j stepped from one t' to the next (Horner's rule)."""
         scal = [s for s in self.scalars if s.level == j and s.pair]
+        pair_pochs = [p for p in self.pochs if p.level == j and p.pair]
+        if not pair_pochs:
+            shifted: list[tuple[int, Series]] = []
+            for t2 in t2s:
+                c = self._scalar(ev, scal, env, {j: t, j + 1: t2})
+                if c != 0:
+                    y = below[t2]
+                    shifted.append((self.c[j] * t * t2, y * c if c != 1 else y))
+            got = _shifted_sum(ev.ring, shifted, budget)
+            if got is not None:
+                return got
         items: list[tuple[dict[int, int], Series]] = []
         for t2 in t2s:
             sh = self.c[j] * t * t2
@@ -563,6 +574,37 @@ def _horner(ring: Any, items: list[tuple[dict[int, int], Series]], pochs: list[_
     for pp in pochs:
         acc = _step(acc, pp, 0, _lin_eval(pp.sub, items[0][0]), budget)
     return (total + acc).truncate(budget)
+
+
+def _shifted_sum(ring: Any, terms: list[tuple[int, Series]], budget: int) -> Series | None:
+    """sum q^(s_i) Y_i modulo q^budget for shifts s_i >= 0 and series Y_i of valuation >= 0
+    with integral exponents (None otherwise), added from the largest total shift down: the
+    running sum is shifted by the gap to the next term before that is added, so each
+    addition is as long as its term, not the budget (``_add_all`` pads every term to the
+    budget).
+
+    >>> from qseries.series import ZZ
+    >>> y = Series(ZZ, ZZ.poly([1, 1]), 0, 0, 5)              # 1 + q + O(q^5)
+    >>> _shifted_sum(ZZ, [(0, y), (3, y)], 6)
+    1 + q + q^3 + q^4 + O(q^5)
+    """
+    if any(y.den != 1 or y.offset != 0 or y.start < 0 for _, y in terms):
+        return None
+    prec = budget
+    acc, at = None, 0
+    for sh, y in sorted(terms, key=lambda e: e[0] + e[1].start, reverse=True):
+        if y.prec is not None:
+            prec = min(prec, sh + y.prec)
+        first = sh + y.start
+        if first >= budget:
+            continue
+        p = ring._truncate(y.poly, budget - first)
+        acc = p if acc is None else ring._shift_up(acc, at - first) + p
+        at = first
+    if acc is None:
+        return Series.zero(ring, prec)
+    return Series(ring, ring._truncate(ring._shift_up(acc, at) if at else acc, prec), 0, 0,
+                  prec)
 
 
 def _add_all(ring: Any, terms: list[Series], budget: int) -> Series:

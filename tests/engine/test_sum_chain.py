@@ -214,3 +214,26 @@ def test_random_chains_match_the_reference(text, order):
         assume(False)
     fast = Evaluator(ZZ, strategies=["chain"]).evaluate(parse(text), order)
     assert fast == slow, text
+
+
+@settings(max_examples=60, deadline=None)
+@given(st.lists(st.tuples(st.integers(0, 12), st.integers(0, 4),
+                          st.lists(st.integers(-3, 3), min_size=0, max_size=8),
+                          st.one_of(st.none(), st.integers(0, 14))),
+                max_size=6),
+       st.integers(1, 16))
+def test_shifted_sum_is_the_plain_sum_of_the_shifted_terms(terms, budget):
+    # the pair sums' addition from the largest shift down against adding the shifted series
+    # one by one (Series arithmetic, which tracks each term's O(q^k))
+    from qseries.engine.sum_chain import _shifted_sum
+    from qseries.series import Series
+
+    series = []
+    for sh, start, coeffs, prec in terms:
+        y = Series(ZZ, ZZ.poly(coeffs), start, 0, None if prec is None else start + prec)
+        series.append((sh, y))
+    want = Series.zero(ZZ, budget)
+    for sh, y in series:
+        want = want + y.shift(sh)
+    got = _shifted_sum(ZZ, series, budget)
+    assert got == want.truncate(budget)
