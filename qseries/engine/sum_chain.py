@@ -565,6 +565,9 @@ def _horner(ring: Any, items: list[tuple[dict[int, int], Series]], pochs: list[_
         return _add_all(ring, [y for _, y in items], budget)
     if all(_lin_eval(pp.sub, items[-1][0]) == 0 for pp in pochs):
         items = items[::-1]
+    fast = _horner_polys(ring, items, pochs, budget)
+    if fast is not None:
+        return fast
     acc = items[-1][1]
     for i in range(len(items) - 2, -1, -1):
         for pp in pochs:
@@ -574,6 +577,80 @@ def _horner(ring: Any, items: list[tuple[dict[int, int], Series]], pochs: list[_
     for pp in pochs:
         acc = _step(acc, pp, 0, _lin_eval(pp.sub, items[0][0]), budget)
     return (total + acc).truncate(budget)
+
+
+def _horner_polys(ring: Any, items: list[tuple[dict[int, int], Series]], pochs: list[_Poch],
+                  budget: int) -> Series | None:
+    """``_horner`` on the ring's polynomials (the items in the order ``_horner`` chose),
+    when every item has integral exponents and valuation >= 0 and every parameter of the
+    stepped q-Pochhammer symbols is c q^e with e >= 1 an integer and c a number of the ring:
+    the running sum is one polynomial modulo q^prec, prec the least precision of the items
+    (at most the budget), and each binomial one pass of ``_binomial_mul`` or
+    ``_binomial_div``, without a Series built per step; None otherwise.
+
+    >>> from qseries.series import ZZ
+    >>> from qseries.lang import parse
+    >>> pp = _Poch(parse("(q;q)_n", bound={"n"}), -1, 1, [Series.monomial(1, ZZ)], (0, {0: 1}),
+    ...            0, False)
+    >>> one = Series.constant(1, ZZ)
+    >>> _horner_polys(ZZ, [({0: 0}, one), ({0: 1}, one)], [pp], 4)   # 1 + 1/(1-q)
+    2 + q + q^2 + q^3 + O(q^4)
+    """
+    if any(y.den != 1 or y.offset != 0 or y.start < 0 for _, y in items):
+        return None
+    steps = []
+    for pp in pochs:
+        factors = []
+        for mono in pp.monos:
+            if mono is None:
+                return None
+            c, e = mono
+            e = Fraction(e)
+            if e.denominator != 1 or e < 1:
+                return None
+            if isinstance(c, Fraction) and c.denominator == 1:
+                c = c.numerator
+            if not isinstance(c, int) and not (isinstance(c, Fraction) and
+                                               ring.fractions == ring):
+                return None
+            factors.append((c, int(e)))
+        steps.append((pp, factors))
+    prec = budget
+    for _, y in items:
+        if y.prec is not None:
+            prec = min(prec, y.prec)
+    if prec <= 0:
+        return Series.zero(ring, prec)
+
+    def poly_of(y: Series) -> Any:
+        if y.start >= prec:
+            return ring.zero()
+        p = ring._truncate(y.poly, prec - y.start)
+        return ring._shift_up(p, y.start) if y.start else p
+
+    def step(acc: Any, a: int, b: int) -> Any:
+        for pp, factors in steps:
+            lo_hi = (_lin_eval(pp.sub, items[a][0]) if a >= 0 else 0,
+                     _lin_eval(pp.sub, items[b][0]))
+            if lo_hi[0] < 0 or lo_hi[1] < 0:
+                raise _Decline         # negative subscripts: left to the other strategies
+            times, lo, hi = (pp.power, lo_hi[0], lo_hi[1]) if lo_hi[1] > lo_hi[0] else \
+                (-pp.power, lo_hi[1], lo_hi[0])
+            for c, e in factors:
+                for m in range(lo, hi):
+                    j = e + pp.step * m
+                    if j >= prec:
+                        break          # 1 - c q^j is 1 modulo q^prec from here on
+                    for _ in range(abs(times)):
+                        acc = ring._binomial_mul(acc, c, j, prec) if times > 0 else \
+                            ring._binomial_div(acc, c, j, prec)
+        return acc
+
+    acc = poly_of(items[-1][1])
+    for i in range(len(items) - 2, -1, -1):
+        acc = step(acc, i, i + 1) + poly_of(items[i][1])
+    acc = step(acc, -1, 0)
+    return Series(ring, ring._truncate(acc, prec), 0, 0, prec)
 
 
 def _shifted_sum(ring: Any, terms: list[tuple[int, Series]], budget: int) -> Series | None:

@@ -237,3 +237,32 @@ def test_shifted_sum_is_the_plain_sum_of_the_shifted_terms(terms, budget):
         want = want + y.shift(sh)
     got = _shifted_sum(ZZ, series, budget)
     assert got == want.truncate(budget)
+
+
+@pytest.mark.parametrize("ring", RINGS)
+@pytest.mark.parametrize("text", [
+    ag_free(4, 2),
+    ag_chain(4, 1),
+    # parameters c q^e with c != 1 and e > 1, a factor to a power, a stepped numerator
+    "sum_{i>=0} sum_{j>=0} q^(i^2 + i j + j^2) (-q^2;q)_j / ((q;q)_i (q^2;q^2)_j^2)",
+    "sum_{i>=0} sum_{j>=i} 3^j q^(j^2) / ((q;q)_(j-i) (2q;q^2)_i)",
+])
+def test_horner_on_polynomials_equals_horner_on_series(text, ring, monkeypatch):
+    # the chain's stepped sums on the ring's polynomials (_horner_polys) against the same
+    # Horner's rule on Series (the fast path switched off), and both against direct
+    import qseries.engine.sum_chain as chain
+
+    calls = []
+    original = chain._horner_polys
+
+    def counting(*args):
+        got = original(*args)
+        calls.append(got is not None)
+        return got
+
+    monkeypatch.setattr(chain, "_horner_polys", counting)
+    fast = chain_only(text, 60, ring)
+    assert any(calls)
+    monkeypatch.setattr(chain, "_horner_polys", lambda *args: None)
+    assert chain_only(text, 60, ring) == fast
+    assert Evaluator(ring, strategies=["direct"]).evaluate(parse(text), 60) == fast
