@@ -20,6 +20,17 @@ factored out of every term.  Two published bounds turn this into a finite check:
   LHS - RHS (v_j the leading exponent of f_j), vanishing prove g = 0.  The term divided by
   is the one that needs the fewest coefficients.
 
+Dividing by f_j is multiplying through by the eta quotient 1/f_j; the literature's other
+choice, a multiplier M making every M f_i a holomorphic form of integral weight k' and one
+character on some Gamma_0(N') and then Sturm's bound, is never needed and never checks fewer
+coefficients: the f_i/f_j = M f_i / M f_j then pass the valence criteria at N' (the
+differences of Newman's sums vanish mod 24, s_i/s_j is a square), and since eta quotients
+have no zeros in the upper half-plane, B' = k' m(N')/12 = sum_s ord_s(M f_j) over all cusps,
+so shift + B' - v_M = shift + v_j + sum_{s != inf} ord_s(M f_j), where holomorphy gives
+ord_s(M) >= -min_i ord_s(f_i) and so ord_s(M f_j) >= -min_i ord_s(f_i / f_j): the valence
+bound at N' is at most B' - v_M - v_j, and at the least level N | N' it is no larger (a
+test compares both routes with the re-checker's own multiplier search).
+
 The coefficients are compared exactly (integers or rationals) by the ordinary series
 engine on the sides as typed, and, as a guard against a fault in the recognition, each
 side is also compared with its recognised form to the same order.

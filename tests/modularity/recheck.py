@@ -15,7 +15,7 @@ certificate stands.
 from __future__ import annotations
 
 from fractions import Fraction
-from math import floor, gcd
+from math import floor, gcd, isqrt
 
 from qseries import QSeriesError
 from qseries import check as _engine_check
@@ -64,8 +64,7 @@ def _newman(r: dict[int, int], n: int) -> bool:
 
 def _is_square(x: Fraction) -> bool:
     def sq(m: int) -> bool:
-        s = int(round(m ** 0.5))
-        return any((s + t) ** 2 == m for t in (-1, 0, 1))
+        return isqrt(m) ** 2 == m
     return x > 0 and sq(x.numerator) and sq(x.denominator)
 
 
@@ -250,3 +249,48 @@ def recheck(lhs: str, rhs: str, cert: dict) -> list[str]:
                 is not True:
             bad.append(f"the {side} differs from its terms below q^{upto}")
     return bad
+
+
+def multiplied_through(cert: dict, max_exponent: int = 8) -> Fraction | None:
+    """The literature's route for terms that are not holomorphic forms of integral weight
+    (issue 15, item 2): multiply every term f_i by one eta quotient M (searched here among
+    M on at most two divisors of N' in {N, 2N}, exponents up to ``max_exponent``) so that
+    every M f_i is a holomorphic form of one integral weight k' >= 1 and one character on
+    Gamma_0(N') (Newman, Ligozat); Sturm's bound B' = floor(k' m(N') / 12) then decides the
+    identity with the coefficients of LHS - RHS up to q^(shift + B' - v_M).  Returns the
+    least such highest exponent, or None when no M searched works.  Own code, like the rest
+    of this module."""
+    terms = [{int(d): e for d, e in t["eta"].items()} for t in cert["terms"]]
+    k = Fraction(sum(terms[0].values()), 2)
+    shift = _frac(cert["shift"])
+    best = None
+    for n in (cert["level"], 2 * cert["level"]):
+        divs = _divisors(n)
+        m = _index(n)
+        cusps = [(c, _phi(gcd(c, n // c))) for c in divs]
+        pairs = [(a,) for a in divs] + [(a, b) for i, a in enumerate(divs) for b in divs[i + 1:]]
+        for ds in pairs:
+            rng = range(-max_exponent, max_exponent + 1)
+            for es in ([(e,) for e in rng] if len(ds) == 1
+                       else [(e, g) for e in rng for g in rng]):
+                mult = {d: e for d, e in zip(ds, es, strict=True) if e}
+                k2 = k + Fraction(sum(mult.values()), 2)
+                if k2.denominator != 1 or k2 < 1:
+                    continue
+                fns = [{d: f.get(d, 0) + mult.get(d, 0) for d in set(f) | set(mult)}
+                       for f in terms]
+                fns = [{d: e for d, e in f.items() if e} for f in fns]
+                if not all(_newman(f, n) for f in fns):
+                    continue
+                s = [Fraction(1)] * len(fns)
+                for i, f in enumerate(fns):
+                    for d, e in f.items():
+                        s[i] *= Fraction(d) ** e
+                if not all(_is_square(x / s[0]) for x in s):
+                    continue
+                if any(_order(f, c, n) < 0 for f in fns for c, _ in cusps):
+                    continue
+                v_m = Fraction(sum(d * e for d, e in mult.items()), 24)
+                high = shift + floor(k2 * m / 12) - v_m
+                best = high if best is None else min(best, high)
+    return best

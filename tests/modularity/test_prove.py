@@ -14,7 +14,7 @@ from qseries.modularity.gamma0 import divisors
 from qseries.modularity.prove import looks_provable, prove
 from qseries.report.proof import proof_json
 
-from .recheck import recheck
+from .recheck import multiplied_through, recheck
 
 # Jacobi's quartic identity theta_3^4 = theta_2^4 + theta_4^4 (C. G. J. Jacobi, Fundamenta
 # Nova, 1829; E. T. Whittaker and G. N. Watson, A Course of Modern Analysis, §21.3, from
@@ -97,6 +97,30 @@ def test_eta_quotient_against_a_lambert_series_is_refused():
     r = prove("eta(q)^5/eta(q^5)", lambert, order=200)
     assert not r.proved and r.holds is True and r.check.order_verified == 200
     assert r.reason.startswith("the right side is not recognised") and "Lambert" in r.reason
+
+
+@pytest.mark.parametrize("lhs, rhs", [
+    # Jacobi's quartic times theta_3^4/theta_4^4 (constructed): weight 2, poles at 1/2
+    ("theta_3(q)^8/theta_4(q)^4", "theta_3(q)^4 theta_2(q)^4/theta_4(q)^4 + theta_3(q)^4"),
+    # Jacobi's quartic as modular functions: weight 0, poles at 1/2
+    ("1", "eta(q)^16 eta(q^2)^-24 eta(q^4)^8 + 16 eta(q)^8 eta(q^2)^-24 eta(q^4)^16"),
+    # the terms n even and n odd of theta_3, and theta_3 + theta_4 = 2 theta_3(q^4)
+    # (Whittaker and Watson §21.3, from memory): weight 1/2
+    ("theta_3(q)", "theta_3(q^4) + theta_2(q^4)"),
+    ("theta_3(q) + theta_4(q)", "2 theta_3(q^4)"),
+])
+def test_multiplying_through_never_needs_fewer_coefficients_than_the_valence_bound(lhs, rhs):
+    # issue 15 item 2: where a form is not holomorphic, "multiply through by a suitable eta
+    # quotient (search a small set) to make the identity one between holomorphic forms".
+    # The prover multiplies through by 1/f_j (one of the terms), which makes every term a
+    # modular function, and uses the valence bound; the re-checker's own search finds a
+    # multiplier M making every M f_i a holomorphic form of integral weight (so Sturm's bound
+    # applies, the literature's route), and that route never needs fewer coefficients
+    r = prove(lhs, rhs)
+    cert = proof_json(r)["certificate"]
+    assert r.proved and cert["method"] == "valence" and recheck(lhs, rhs, cert) == []
+    high = multiplied_through(cert)
+    assert high is not None and Fraction(cert["checked"]["to"]) <= high
 
 
 def test_a_difference_beyond_a_naive_order_is_caught_within_the_bound():
