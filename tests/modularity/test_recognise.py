@@ -88,6 +88,19 @@ def test_refusals_say_why(text, words):
     assert rec.terms is None and words in rec.reason
 
 
+@pytest.mark.parametrize(("text", "words", "not_words"), [
+    # issue 15: a Lambert series is refused "with a clear reason unless Eisenstein series
+    # are recognised -- say which": the reason names the kind of sum it found
+    ("1 - 5 sum_{n>=1} n q^n/(1-q^n)", "Lambert series", "Rogers-Ramanujan"),
+    ("sum_{n>=1} n q^n/(1-q^n)", "Eisenstein series are not recognised", "Pochhammer"),
+    ("sum_{k>=0} q^(k^2)/(q;q)_k", "q-Pochhammer", "Lambert"),
+    ("sum_{k>=0} z^k q^(k^2)", "extra variable", "Lambert"),
+])
+def test_unrecognised_sums_say_what_they_are(text, words, not_words):
+    rec = recognise(parse(text))
+    assert rec.terms is None and words in rec.reason and not_words not in rec.reason
+
+
 def test_zero_is_the_empty_combination():
     rec = recognise(parse("theta_3(q) - phi(q)"))
     assert rec.terms == () and rec.text() == "0"
