@@ -195,6 +195,8 @@ def recheck(lhs: str, rhs: str, cert: dict) -> list[str]:
     shift = _frac(cert["shift"])
     if cert["method"] == "sturm":
         fns = terms
+        if k.denominator != 1:
+            bad.append(f"Sturm's bound with Newman's criteria needs an integral weight, not {k}")
         for r in fns:
             if not _newman(r, n):
                 bad.append(f"{r} fails Newman's congruences at level {n}")

@@ -173,6 +173,17 @@ def test_the_rechecker_rejects_a_tampered_certificate(tamper):
     assert recheck(*JACOBI, cert) != []
 
 
+def test_the_rechecker_rejects_sturm_at_half_integral_weight():
+    # theta_3 = eta(2)^5/(eta(1)^2 eta(4)^2) passes Newman's sums at level 4, but the
+    # criteria of Ono's Theorem 1.64 are for integral weight: a certificate claiming
+    # Sturm's bound for weight 1/2 terms is refused (the prover uses the valence method)
+    lhs, rhs = "theta_3(q)", "eta(q^2)^5/(eta(q)^2 eta(q^4)^2)"
+    cert = copy.deepcopy(proof_json(prove(lhs, rhs))["certificate"])
+    assert cert["method"] == "valence" and recheck(lhs, rhs, cert) == []
+    cert.update(method="sturm", divisor=None)
+    assert any("integral weight" in x for x in recheck(lhs, rhs, cert))
+
+
 def test_levels_beyond_the_limit_are_refused():
     s = " + ".join(f"eta(q^{i})^24" for i in range(1, 40))
     r = prove(s, s, order=5)
