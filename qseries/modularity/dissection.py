@@ -245,8 +245,9 @@ def prove_dissection(lhs: Node, rhs: Node, order: int = 100) -> ProofResult:
         return ProofResult(False, result.holds, None,
                            f"the coefficients could be compared only below q^"
                            f"{result.order_verified}, not up to the bound q^{high}", result)
-    guards = [(dis.body, body.text(), m * upto + int(math.ceil(abs(dis.r))) + 1),
-              (other, rec.text(), upto)]
+    far = max(upto, order)              # as in prove: beyond a tiny bound
+    guards = [(dis.body, body.text(), m * far + int(math.ceil(abs(dis.r))) + 1),
+              (other, rec.text(), far)]
     for node, text, n in guards:
         if check(node, parse(text), n, method="exact").holds is not True:
             return ProofResult(False, None, None, f"internal fault: {text!r} differs from the "

@@ -33,7 +33,8 @@ test compares both routes with the re-checker's own multiplier search).
 
 The coefficients are compared exactly (integers or rationals) by the ordinary series
 engine on the sides as typed, and, as a guard against a fault in the recognition, each
-side is also compared with its recognised form to the same order.
+side is also compared with its recognised form to that order or to ``order``, whichever
+is higher.
 
 >>> r = prove("theta_3(q)^4", "theta_2(q)^4 + theta_4(q)^4")
 >>> r.proved, r.certificate.method, r.certificate.level, r.certificate.bound
@@ -360,12 +361,15 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
         return ProofResult(False, result.holds, None,
                            f"the coefficients could be compared only below q^"
                            f"{result.order_verified}, not up to the bound q^{cert.high}", result)
+    # the guard runs to --order too: a tiny bound would compare too few coefficients to
+    # catch a fault in the recognition
+    far = max(upto, order)
     for name, node, rec in (("left", lnode, left), ("right", rnode, right)):
-        guard = check(node, parse(rec.text()), upto, method="exact")
+        guard = check(node, parse(rec.text()), far, method="exact")
         if guard.holds is not True:
             return ProofResult(False, None, None,
                                f"internal fault: the {name} side differs from its recognised "
-                               f"form {rec.text()!r} below q^{upto}; please report it", result)
+                               f"form {rec.text()!r} below q^{far}; please report it", result)
     return ProofResult(True, True, cert, None, result)
 
 

@@ -20,6 +20,9 @@ from math import floor, gcd, isqrt
 from qseries import QSeriesError
 from qseries import check as _engine_check
 
+#: each side is compared with the certificate's terms at least below q^FAR
+FAR = 50
+
 
 def check(lhs: str, rhs: str, order: int, method: str = "exact"):
     """The series engine's comparison; an expression the engine refuses compares as unequal."""
@@ -157,14 +160,17 @@ def _recheck_dissection(lhs: str, rhs: str, cert: dict) -> list[str]:
     if check(lhs, rhs, upto, method="exact").holds is not True:
         bad.append(f"the sides differ below q^{upto}")
     mine = f"[q^({m}n+{r})] ({scale}) q^({m * t + r}) {_eta_text(body)}"
-    if check(dissected, mine, upto, method="exact").holds is not True:
+    # each side against its terms also beyond a tiny bound (FAR), where the bound alone
+    # would compare too few coefficients to tell a side from wrong terms
+    far = max(upto, FAR)
+    if check(dissected, mine, far, method="exact").holds is not True:
         bad.append("the dissected side is not [q^(mn+r)] of scale q^(mt+r) B")
     parts = []
     for x, g in zip(cert["terms"], gs, strict=True):
         eta_i = {d: g.get(d, 0) - mult.get(d, 0) for d in set(g) | set(mult)}
         eta_i = {d: e for d, e in eta_i.items() if e}
         parts.append(f"({-_frac(x['coefficient']) * scale}) q^({t}) {_eta_text(eta_i)}")
-    if check(other, " + ".join(parts), upto, method="exact").holds is not True:
+    if check(other, " + ".join(parts), far, method="exact").holds is not True:
         bad.append("the other side is not sum_i c_i q^t g_i / M")
     return bad
 
@@ -247,9 +253,10 @@ def recheck(lhs: str, rhs: str, cert: dict) -> list[str]:
     if check(lhs, rhs, upto, method="exact").holds is not True:
         bad.append(f"the sides differ below q^{upto}")
     for side, text in (("lhs", lhs), ("rhs", rhs)):
-        if check(text, _side_text(cert["terms"], side, shift), upto, method="exact").holds \
+        far = max(upto, FAR)            # beyond a tiny bound too
+        if check(text, _side_text(cert["terms"], side, shift), far, method="exact").holds \
                 is not True:
-            bad.append(f"the {side} differs from its terms below q^{upto}")
+            bad.append(f"the {side} differs from its terms below q^{far}")
     return bad
 
 

@@ -2,6 +2,7 @@
 re-checker of tests/modularity/recheck.py."""
 
 import copy
+import importlib
 from fractions import Fraction
 
 import pytest
@@ -182,6 +183,30 @@ def test_the_rechecker_rejects_sturm_at_half_integral_weight():
     assert cert["method"] == "valence" and recheck(lhs, rhs, cert) == []
     cert.update(method="sturm", divisor=None)
     assert any("integral weight" in x for x in recheck(lhs, rhs, cert))
+
+
+def test_a_wrong_recognition_is_caught_beyond_a_tiny_bound(monkeypatch):
+    # the guard against a fault in the recognition: here theta_4(q) = 1 - 2q + ... is
+    # (wrongly, on purpose) recognised as theta_3's eta quotient 1 + 2q + ...; the valence
+    # bound is then 0, and q^0 alone agrees, so a guard only up to the bound would let a
+    # false identity through.  Each side is compared with its recognised form to --order
+    prove_module = importlib.import_module("qseries.modularity.prove")
+    real = prove_module.recognise
+    theta_3 = real(parse("eta(q^2)^5/(eta(q)^2 eta(q^4)^2)"))
+    monkeypatch.setattr(prove_module, "recognise",
+                        lambda node: theta_3 if node == parse("theta_4(q)") else real(node))
+    r = prove("theta_4(q)", "eta(q^2)^5/(eta(q)^2 eta(q^4)^2)", order=20)
+    assert not r.proved and "internal fault" in r.reason
+
+
+def test_the_rechecker_compares_each_side_with_its_terms_beyond_a_tiny_bound():
+    # theta_3's certificate (bound 0: q^0 alone) offered for theta_4(q) = theta_3's eta
+    # quotient, false from q^1 on: the sides agree at q^0, so only a comparison of each side
+    # with the certificate's terms beyond the bound finds that theta_4 is not those terms
+    rhs = "eta(q^2)^5/(eta(q)^2 eta(q^4)^2)"
+    cert = proof_json(prove("theta_3(q)", rhs))["certificate"]
+    assert cert["bound"] == 0 and recheck("theta_3(q)", rhs, cert) == []
+    assert any("lhs differs from its terms" in x for x in recheck("theta_4(q)", rhs, cert))
 
 
 def test_levels_beyond_the_limit_are_refused():
