@@ -506,7 +506,9 @@ def _poch(node: Poch) -> Combination:
 
 def _call(node: Call) -> Combination:
     if node.name == "eta":
-        _, d = _q_power_argument(node.args[0], "eta(...)")
+        s, d = _q_power_argument(node.args[0], "eta(...)")
+        if s != 1:                      # as the engine: (-q^d)^(d/24) is not a power of q
+            raise _Refusal("eta(-q^d) is not a series in q")
         return _single(_q_power(Fraction(d, 24)) * _poch_inf(d, d))
     if node.name in ("theta_3", "theta_4"):
         s, d = _q_power_argument(node.args[0], f"{node.name}(...)")

@@ -79,6 +79,10 @@ def test_one_sided_sums_about_an_integer_keep_the_middle_term():
     ("(q;q)_5", "finite factor"),
     ("1/(1 - q)", "division by a sum"),
     ("eta(q)^(1/2)", "integer powers"),
+    # the engine refuses eta(-q^d) (a fractional power of -q in front); it was recognised
+    # as eta(q^d), the sign dropped
+    ("eta(-q^4)", "eta(-q^d) is not a series in q"),
+    ("eta(-q)^24", "eta(-q^d) is not a series in q"),
     ("sum_{n=0}^{5} q^(n^2)", "polynomial"),
     ("sum_{n>=0} q^(n^3)", "not a theta series"),
     ("gaussian(4, 2)", "not a modular object"),
