@@ -52,6 +52,7 @@ from .prove import (
     ProofResult,
     RecognisedTerm,
     _refused,
+    compare_to,
 )
 from .recognise import recognise
 
@@ -237,8 +238,7 @@ def prove_dissection(lhs: Node, rhs: Node, order: int = 100) -> ProofResult:
                        None, table, bound, low, high,
                        operator=(m, dis.r), function=f, multiplier=mult,
                        scale=tb.coefficient)
-    upto = max(math.floor(high) + 1, 1)
-    result = check(lhs, rhs, upto, method="exact")
+    result, upto = compare_to(lhs, rhs, high)
     if result.holds is False:
         return ProofResult(False, False, cert, None, result)
     if result.holds is None or Fraction(result.order_verified) <= high:

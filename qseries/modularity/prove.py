@@ -283,6 +283,33 @@ def _why_not_modular(terms: list[RecognisedTerm]) -> str:
     return "no level makes every term modular"
 
 
+#: how many times the exact comparison is repeated further when negative powers of q cost
+#: a side precision and the coefficients up to the bound were not all compared
+COMPARE_RETRIES = 4
+
+
+def compare_to(lnode: Node, rnode: Node, high: Fraction) -> tuple[CheckResult, int]:
+    """The exact check of LHS against RHS that compares every coefficient up to q^high
+    (asking for more when a side loses precision to negative powers of q, at most
+    COMPARE_RETRIES times), with the order asked for last.
+
+    >>> r, upto = compare_to(parse("f(q^4)^-2"), parse("q^(1/3) eta(q^4)^2 eta(q^8)^-6"
+    ...                                                " eta(q^16)^2"), Fraction(0))
+    >>> r.holds, r.order_verified > 0, upto
+    (True, True, 2)
+    """
+    upto = max(math.floor(high) + 1, 1)   # exponents e <= high; a check compares q^0 at least
+    result = check(lnode, rnode, upto, method="exact")
+    for _ in range(COMPARE_RETRIES):
+        if result.holds is False or (result.holds is not None
+                                     and Fraction(result.order_verified) > high):
+            break
+        short = upto - Fraction(result.order_verified) if result.holds is not None else upto
+        upto += max(math.ceil(short), 1)
+        result = check(lnode, rnode, upto, method="exact")
+    return result, upto
+
+
 def _refused(lnode: Node, rnode: Node, order: int, reason: str) -> ProofResult:
     evidence = check(lnode, rnode, order)
     return ProofResult(False, evidence.holds, None, reason, evidence)
@@ -353,8 +380,7 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
                         f"the {cert.method} bound at level {cert.level} needs the coefficients "
                         f"up to q^{cert.high}, above the limit q^{MAX_CHECK_ORDER}")
     # exponents e = high (mod 1) with e <= high; at least q^0 (a check compares below q^1)
-    upto = max(math.floor(cert.high) + 1, 1)
-    result = check(lnode, rnode, upto, method="exact")
+    result, upto = compare_to(lnode, rnode, cert.high)
     if result.holds is False:
         return ProofResult(False, False, cert, None, result)
     if result.holds is None or Fraction(result.order_verified) <= cert.high:

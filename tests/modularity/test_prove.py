@@ -209,6 +209,15 @@ def test_the_rechecker_compares_each_side_with_its_terms_beyond_a_tiny_bound():
     assert any("lhs differs from its terms" in x for x in recheck("theta_4(q)", rhs, cert))
 
 
+def test_a_side_that_loses_precision_is_compared_further():
+    # f(q) = (q^2;q^2)^3/((q;q)(q^4;q^4)) (Berndt, Ramanujan's Notebooks III, Entry 22(iii),
+    # from memory), so f(q^4)^-2 = q^(1/3) eta(4 tau)^2 eta(16 tau)^2 / eta(8 tau)^6; the
+    # negative power of q in the quotient costs the right side precision, so a check to the
+    # bound alone compares nothing (it said "could be compared only below q^0")
+    c = _proved("f(q^4)^-2", "q^(1/3) eta(q^4)^2 eta(q^8)^-6 eta(q^16)^2")
+    assert c.high == 0
+
+
 def test_levels_beyond_the_limit_are_refused():
     s = " + ".join(f"eta(q^{i})^24" for i in range(1, 40))
     r = prove(s, s, order=5)
