@@ -41,7 +41,9 @@ def prove_cmd(
     """Prove LHS = RHS when both sides are (linear combinations of) eta quotients of one
     weight, written in any notation that reduces to them (eta, theta_2/3/4, phi, psi, f,
     chi, q-Pochhammer products, theta series): the level, weight, cusps and the Sturm or
-    valence bound B are computed and the coefficients up to B compared exactly.  Exit 0
+    valence bound B are computed and the coefficients up to B compared exactly (each side
+    also with the eta quotients it was recognised as, to B or --order, whichever is
+    higher).  Exit 0
     PROVED (with the certificate), 1 DIFFERS (the first mismatch, found within the bound),
     3 NOT PROVED (the reason, and the ordinary check to --order as evidence, whatever it
     says: agrees, differs or inconclusive), 2 bad input.
