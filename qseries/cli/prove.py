@@ -1,7 +1,7 @@
 """``qseries prove LHS RHS``: prove an identity between combinations of eta quotients by a
-Sturm or valence bound (exit 0, with the certificate), report where the sides differ (exit
-1), or say why no proof is possible and run the ordinary check to --order (exit 3, or 1 when
-that check finds the sides differ); exit 2 for bad input.
+Sturm or valence bound (exit 0, with the certificate), report where the sides differ within
+the bound (exit 1), or say why no proof is possible and run the ordinary check to --order
+(exit 3, whatever that check says: issue 15); exit 2 for bad input.
 """
 
 from __future__ import annotations
@@ -41,10 +41,12 @@ def prove_cmd(
     """Prove LHS = RHS when both sides are (linear combinations of) eta quotients of one
     weight, written in any notation that reduces to them (eta, theta_2/3/4, phi, psi, f,
     chi, q-Pochhammer products, theta series): the level, weight, cusps and the Sturm or
-    valence bound B are computed and the coefficients up to B compared exactly.  Exit 0
-    PROVED (with the certificate), 1 when the sides differ (within the bound, or, when no
-    proof is possible, in the ordinary check to --order), 3 NOT PROVED (the reason, and the
-    ordinary check as evidence, which agrees or is inconclusive), 2 bad input.
+    valence bound B are computed and the coefficients up to B compared exactly (each side
+    also with the eta quotients it was recognised as, to B or --order, whichever is
+    higher).  Exit 0
+    PROVED (with the certificate), 1 DIFFERS (the first mismatch, found within the bound),
+    3 NOT PROVED (the reason, and the ordinary check to --order as evidence, whatever it
+    says: agrees, differs or inconclusive), 2 bad input.
 
     Example: qseries prove "theta_3(q)^4" "theta_2(q)^4 + theta_4(q)^4"
     """
@@ -58,5 +60,7 @@ def prove_cmd(
     else:
         for line in proof_lines(result):
             typer.echo(line)
-    # a mismatch is a disproof, found within the bound or by the ordinary check
-    raise typer.Exit(0 if result.proved else 1 if result.holds is False else 3)
+    # exit 1 only for a mismatch found within the bound; a refused proof is 3 whatever the
+    # ordinary check says (issue 15, item 3)
+    differs = result.reason is None and result.holds is False
+    raise typer.Exit(0 if result.proved else 1 if differs else 3)

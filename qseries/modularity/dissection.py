@@ -52,6 +52,7 @@ from .prove import (
     ProofResult,
     RecognisedTerm,
     _refused,
+    compare_to,
 )
 from .recognise import recognise
 
@@ -237,16 +238,16 @@ def prove_dissection(lhs: Node, rhs: Node, order: int = 100) -> ProofResult:
                        None, table, bound, low, high,
                        operator=(m, dis.r), function=f, multiplier=mult,
                        scale=tb.coefficient)
-    upto = max(math.floor(high) + 1, 1)
-    result = check(lhs, rhs, upto, method="exact")
+    result, upto = compare_to(lhs, rhs, high)
     if result.holds is False:
         return ProofResult(False, False, cert, None, result)
     if result.holds is None or Fraction(result.order_verified) <= high:
         return ProofResult(False, result.holds, None,
                            f"the coefficients could be compared only below q^"
                            f"{result.order_verified}, not up to the bound q^{high}", result)
-    guards = [(dis.body, body.text(), m * upto + int(math.ceil(abs(dis.r))) + 1),
-              (other, rec.text(), upto)]
+    far = max(upto, order)              # as in prove: beyond a tiny bound
+    guards = [(dis.body, body.text(), m * far + int(math.ceil(abs(dis.r))) + 1),
+              (other, rec.text(), far)]
     for node, text, n in guards:
         if check(node, parse(text), n, method="exact").holds is not True:
             return ProofResult(False, None, None, f"internal fault: {text!r} differs from the "

@@ -20,9 +20,21 @@ factored out of every term.  Two published bounds turn this into a finite check:
   LHS - RHS (v_j the leading exponent of f_j), vanishing prove g = 0.  The term divided by
   is the one that needs the fewest coefficients.
 
+Dividing by f_j is multiplying through by the eta quotient 1/f_j; the literature's other
+choice, a multiplier M making every M f_i a holomorphic form of integral weight k' and one
+character on some Gamma_0(N') and then Sturm's bound, is never needed and never checks fewer
+coefficients: the f_i/f_j = M f_i / M f_j then pass the valence criteria at N' (the
+differences of Newman's sums vanish mod 24, s_i/s_j is a square), and since eta quotients
+have no zeros in the upper half-plane, B' = k' m(N')/12 = sum_s ord_s(M f_j) over all cusps,
+so shift + B' - v_M = shift + v_j + sum_{s != inf} ord_s(M f_j), where holomorphy gives
+ord_s(M) >= -min_i ord_s(f_i) and so ord_s(M f_j) >= -min_i ord_s(f_i / f_j): the valence
+bound at N' is at most B' - v_M - v_j, and at the least level N | N' it is no larger (a
+test compares both routes with the re-checker's own multiplier search).
+
 The coefficients are compared exactly (integers or rationals) by the ordinary series
 engine on the sides as typed, and, as a guard against a fault in the recognition, each
-side is also compared with its recognised form to the same order.
+side is also compared with its recognised form to that order or to ``order``, whichever
+is higher.
 
 >>> r = prove("theta_3(q)^4", "theta_2(q)^4 + theta_4(q)^4")
 >>> r.proved, r.certificate.method, r.certificate.level, r.certificate.bound
@@ -271,6 +283,33 @@ def _why_not_modular(terms: list[RecognisedTerm]) -> str:
     return "no level makes every term modular"
 
 
+#: how many times the exact comparison is repeated further when negative powers of q cost
+#: a side precision and the coefficients up to the bound were not all compared
+COMPARE_RETRIES = 4
+
+
+def compare_to(lnode: Node, rnode: Node, high: Fraction) -> tuple[CheckResult, int]:
+    """The exact check of LHS against RHS that compares every coefficient up to q^high
+    (asking for more when a side loses precision to negative powers of q, at most
+    COMPARE_RETRIES times), with the order asked for last.
+
+    >>> r, upto = compare_to(parse("f(q^4)^-2"), parse("q^(1/3) eta(q^4)^2 eta(q^8)^-6"
+    ...                                                " eta(q^16)^2"), Fraction(0))
+    >>> r.holds, r.order_verified > 0, upto
+    (True, True, 2)
+    """
+    upto = max(math.floor(high) + 1, 1)   # exponents e <= high; a check compares q^0 at least
+    result = check(lnode, rnode, upto, method="exact")
+    for _ in range(COMPARE_RETRIES):
+        if result.holds is False or (result.holds is not None
+                                     and Fraction(result.order_verified) > high):
+            break
+        short = upto - Fraction(result.order_verified) if result.holds is not None else upto
+        upto += max(math.ceil(short), 1)
+        result = check(lnode, rnode, upto, method="exact")
+    return result, upto
+
+
 def _refused(lnode: Node, rnode: Node, order: int, reason: str) -> ProofResult:
     evidence = check(lnode, rnode, order)
     return ProofResult(False, evidence.holds, None, reason, evidence)
@@ -341,20 +380,22 @@ def prove(lhs: str | Node, rhs: str | Node, order: int = 100) -> ProofResult:
                         f"the {cert.method} bound at level {cert.level} needs the coefficients "
                         f"up to q^{cert.high}, above the limit q^{MAX_CHECK_ORDER}")
     # exponents e = high (mod 1) with e <= high; at least q^0 (a check compares below q^1)
-    upto = max(math.floor(cert.high) + 1, 1)
-    result = check(lnode, rnode, upto, method="exact")
+    result, upto = compare_to(lnode, rnode, cert.high)
     if result.holds is False:
         return ProofResult(False, False, cert, None, result)
     if result.holds is None or Fraction(result.order_verified) <= cert.high:
         return ProofResult(False, result.holds, None,
                            f"the coefficients could be compared only below q^"
                            f"{result.order_verified}, not up to the bound q^{cert.high}", result)
+    # the guard runs to --order too: a tiny bound would compare too few coefficients to
+    # catch a fault in the recognition
+    far = max(upto, order)
     for name, node, rec in (("left", lnode, left), ("right", rnode, right)):
-        guard = check(node, parse(rec.text()), upto, method="exact")
+        guard = check(node, parse(rec.text()), far, method="exact")
         if guard.holds is not True:
             return ProofResult(False, None, None,
                                f"internal fault: the {name} side differs from its recognised "
-                               f"form {rec.text()!r} below q^{upto}; please report it", result)
+                               f"form {rec.text()!r} below q^{far}; please report it", result)
     return ProofResult(True, True, cert, None, result)
 
 

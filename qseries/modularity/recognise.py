@@ -34,7 +34,22 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from ..lang import Node, parse
-from ..lang.ast import BigO, BigOp, BinOp, Call, Dissect, Name, Neg, Num, Poch, Q, Var, sum_spine
+from ..lang.ast import (
+    BigO,
+    BigOp,
+    BinOp,
+    Call,
+    Dissect,
+    Name,
+    Neg,
+    Num,
+    Poch,
+    Q,
+    Var,
+    children,
+    free_names,
+    sum_spine,
+)
 from .eta import EtaQuotient
 
 __all__ = ["Recognition", "RecognisedTerm", "parse", "recognise"]
@@ -491,7 +506,9 @@ def _poch(node: Poch) -> Combination:
 
 def _call(node: Call) -> Combination:
     if node.name == "eta":
-        _, d = _q_power_argument(node.args[0], "eta(...)")
+        s, d = _q_power_argument(node.args[0], "eta(...)")
+        if s != 1:                      # as the engine: (-q^d)^(d/24) is not a power of q
+            raise _Refusal("eta(-q^d) is not a series in q")
         return _single(_q_power(Fraction(d, 24)) * _poch_inf(d, d))
     if node.name in ("theta_3", "theta_4"):
         s, d = _q_power_argument(node.args[0], f"{node.name}(...)")
@@ -520,14 +537,41 @@ def _bounds(node: BigOp) -> tuple[int | None, int | None]:
     return out[0], out[1]
 
 
+def _what_sum(node: BigOp) -> str:
+    """What kind of sum a term that is not +-c q^(quadratic) makes, for the refusal.
+
+    >>> _what_sum(parse("sum_{n>=1} n q^n/(1-q^n)"))[:35]
+    'its term divides by a sum (1 - q^(.'
+    """
+    stack, pochhammer, lambert, extra = [node.body], False, False, ""
+    while stack:
+        c = stack.pop()
+        if isinstance(c, Poch):
+            pochhammer = True
+        elif isinstance(c, Var):
+            extra = extra or c.name
+        elif (isinstance(c, BinOp) and c.op == "/" and isinstance(c.right, BinOp)
+              and c.right.op in "+-" and node.var in free_names(c.right)):
+            lambert = True
+        stack.extend([c.body] if isinstance(c, BigOp) else children(c))
+    if extra:
+        return (f"its term carries the extra variable {extra}; sums in extra variables are "
+                f"not recognised as modular")
+    if pochhammer:
+        return ("its term carries q-Pochhammer symbols (as in the Rogers-Ramanujan sums); "
+                "such sums are not recognised as modular")
+    if lambert:
+        return ("its term divides by a sum (1 - q^(...)) that depends on the index: a "
+                "Lambert series; Eisenstein series are not recognised, so a Lambert series "
+                "is not read as a modular form (only combinations of eta quotients are)")
+    return f"its term is not +-c q^(quadratic in {node.var})"
+
+
 def _sum(node: BigOp) -> Combination:
     lo, hi = _bounds(node)
     term = _sum_term(node.body, node.var)
     if term is None:
-        raise _Refusal(f"the sum over {node.var} is not a theta series: its term is not "
-                       f"+-c q^(quadratic in {node.var}) (a Lambert series, a sum with "
-                       f"q-Pochhammer symbols in the term such as the Rogers-Ramanujan "
-                       f"sums, or a sum in extra variables is not recognised as modular)")
+        raise _Refusal(f"the sum over {node.var} is not a theta series: {_what_sum(node)}")
     c, sign, qexp = term
     if hi is not None:
         raise _Refusal("a sum with an upper limit is a polynomial in q, not a modular object")

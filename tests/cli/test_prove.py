@@ -30,14 +30,20 @@ def test_differs_exit_1():
     assert r.exit_code == 1 and r.stdout.startswith("DIFFERS")
 
 
-def test_not_proved_exit_3_unless_the_evidence_differs():
+def test_not_proved_exit_3_whatever_the_evidence_says():
+    # issue 15 item 3: a refused proof "runs the ordinary evidence check to --order, and
+    # exits 3 ... whatever that check says"
     r = run("prove", *RR1, "-n", "50")
     assert r.exit_code == 3 and r.stdout.startswith("NOT PROVED") and "AGREES" in r.stdout
-    # not provable, and the ordinary check finds a mismatch: a disproof, exit 1
+    # not provable, and the ordinary check finds a mismatch: still exit 3, the mismatch in
+    # the evidence (holds false, first_mismatch)
     r = run("prove", "sum_{n>=1} q^n/(1-q^n)", "q", "-n", "10", "--json")
-    assert r.exit_code == 1
+    assert r.exit_code == 3
     data = json.loads(r.stdout)
     assert data["holds"] is False and data["reason"] and data["certificate"] is None
+    assert data["first_mismatch"]["index"] == 2 and data["evidence"]["holds"] is False
+    r = run("prove", "sum_{n>=1} q^n/(1-q^n)", "q", "-n", "10")
+    assert r.exit_code == 3 and r.stdout.startswith("NOT PROVED") and "DIFFERS" in r.stdout
 
 
 def test_bad_input_exit_2():

@@ -2,10 +2,11 @@
 certificate re-verified by tests/modularity/recheck.py."""
 
 import copy
+import importlib
 
 import pytest
 
-from qseries import check
+from qseries import check, parse
 from qseries.modularity.dissection import cusp_representatives, rho, u_lower_bound
 from qseries.modularity.eta import EtaQuotient
 from qseries.modularity.gamma0 import cusp_count
@@ -105,3 +106,17 @@ def test_a_tampered_certificate_is_rejected():
         bad = copy.deepcopy(cert)
         change(bad)
         assert recheck(*P5, bad) != []
+
+
+def test_a_wrong_recognition_is_caught_beyond_a_tiny_bound(monkeypatch):
+    # the guard against a fault in the recognition runs to --order, not only to the bound
+    # (one coefficient here): X below agrees with Ramanujan's right side at q^0 but not at
+    # q^5, and is (wrongly, on purpose) recognised as that right side
+    module = importlib.import_module("qseries.modularity.dissection")
+    real = module.recognise
+    fake = real(parse(P5[1]))
+    x = "5 (q^5;q^5)_inf^4 (q^10;q^10)_inf/(q;q)_inf^6"
+    monkeypatch.setattr(module, "recognise",
+                        lambda node: fake if node == parse(x) else real(node))
+    r = prove(P5[0], x, order=20)
+    assert not r.proved and "internal fault" in r.reason

@@ -64,6 +64,19 @@ def test_order_at_infinity_is_the_valuation():
         assert f.order_at(n, n) == s.valuation == f.offset
 
 
+@settings(max_examples=40, deadline=None)
+@given(st.sampled_from([2, 4, 6, 8, 12, 25]), st.data())
+def test_order_at_zero_is_the_valuation_of_the_fricke_image(n, data):
+    # the cusp 0 (width N) is infinity moved by tau -> -1/(N tau), and eta(-1/tau) =
+    # sqrt(tau/i) eta(tau) turns f into a constant times tau^k prod eta((N/d) tau)^(r_d):
+    # Ligozat's order at 0 is where that quotient's expansion starts (computed by the engine)
+    r = {d: data.draw(st.integers(-6, 6)) for d in divisors(n)}
+    f = EtaQuotient.of(r)
+    image = EtaQuotient.of({n // d: e for d, e in f.exponents})
+    s = evaluate(image.text(), 40)
+    assert f.order_at(1, n) == s.valuation
+
+
 @settings(max_examples=60, deadline=None)
 @given(st.sampled_from([4, 6, 8, 9, 10, 12, 16, 18]), st.data())
 def test_valence_formula(n, data):

@@ -2,6 +2,7 @@
 re-checker of tests/modularity/recheck.py."""
 
 import copy
+import importlib
 from fractions import Fraction
 
 import pytest
@@ -14,7 +15,7 @@ from qseries.modularity.gamma0 import divisors
 from qseries.modularity.prove import looks_provable, prove
 from qseries.report.proof import proof_json
 
-from .recheck import recheck
+from .recheck import multiplied_through, recheck
 
 # Jacobi's quartic identity theta_3^4 = theta_2^4 + theta_4^4 (C. G. J. Jacobi, Fundamenta
 # Nova, 1829; E. T. Whittaker and G. N. Watson, A Course of Modern Analysis, §21.3, from
@@ -97,6 +98,31 @@ def test_eta_quotient_against_a_lambert_series_is_refused():
     r = prove("eta(q)^5/eta(q^5)", lambert, order=200)
     assert not r.proved and r.holds is True and r.check.order_verified == 200
     assert r.reason.startswith("the right side is not recognised") and "Lambert" in r.reason
+    assert "Eisenstein series are not recognised" in r.reason
+
+
+@pytest.mark.parametrize("lhs, rhs", [
+    # Jacobi's quartic times theta_3^4/theta_4^4 (constructed): weight 2, poles at 1/2
+    ("theta_3(q)^8/theta_4(q)^4", "theta_3(q)^4 theta_2(q)^4/theta_4(q)^4 + theta_3(q)^4"),
+    # Jacobi's quartic as modular functions: weight 0, poles at 1/2
+    ("1", "eta(q)^16 eta(q^2)^-24 eta(q^4)^8 + 16 eta(q)^8 eta(q^2)^-24 eta(q^4)^16"),
+    # the terms n even and n odd of theta_3, and theta_3 + theta_4 = 2 theta_3(q^4)
+    # (Whittaker and Watson §21.3, from memory): weight 1/2
+    ("theta_3(q)", "theta_3(q^4) + theta_2(q^4)"),
+    ("theta_3(q) + theta_4(q)", "2 theta_3(q^4)"),
+])
+def test_multiplying_through_never_needs_fewer_coefficients_than_the_valence_bound(lhs, rhs):
+    # issue 15 item 2: where a form is not holomorphic, "multiply through by a suitable eta
+    # quotient (search a small set) to make the identity one between holomorphic forms".
+    # The prover multiplies through by 1/f_j (one of the terms), which makes every term a
+    # modular function, and uses the valence bound; the re-checker's own search finds a
+    # multiplier M making every M f_i a holomorphic form of integral weight (so Sturm's bound
+    # applies, the literature's route), and that route never needs fewer coefficients
+    r = prove(lhs, rhs)
+    cert = proof_json(r)["certificate"]
+    assert r.proved and cert["method"] == "valence" and recheck(lhs, rhs, cert) == []
+    high = multiplied_through(cert)
+    assert high is not None and Fraction(cert["checked"]["to"]) <= high
 
 
 def test_a_difference_beyond_a_naive_order_is_caught_within_the_bound():
@@ -146,6 +172,50 @@ def test_the_rechecker_rejects_a_tampered_certificate(tamper):
     cert = copy.deepcopy(proof_json(r)["certificate"])
     tamper(cert)
     assert recheck(*JACOBI, cert) != []
+
+
+def test_the_rechecker_rejects_sturm_at_half_integral_weight():
+    # theta_3 = eta(2)^5/(eta(1)^2 eta(4)^2) passes Newman's sums at level 4, but the
+    # criteria of Ono's Theorem 1.64 are for integral weight: a certificate claiming
+    # Sturm's bound for weight 1/2 terms is refused (the prover uses the valence method)
+    lhs, rhs = "theta_3(q)", "eta(q^2)^5/(eta(q)^2 eta(q^4)^2)"
+    cert = copy.deepcopy(proof_json(prove(lhs, rhs))["certificate"])
+    assert cert["method"] == "valence" and recheck(lhs, rhs, cert) == []
+    cert.update(method="sturm", divisor=None)
+    assert any("integral weight" in x for x in recheck(lhs, rhs, cert))
+
+
+def test_a_wrong_recognition_is_caught_beyond_a_tiny_bound(monkeypatch):
+    # the guard against a fault in the recognition: here theta_4(q) = 1 - 2q + ... is
+    # (wrongly, on purpose) recognised as theta_3's eta quotient 1 + 2q + ...; the valence
+    # bound is then 0, and q^0 alone agrees, so a guard only up to the bound would let a
+    # false identity through.  Each side is compared with its recognised form to --order
+    prove_module = importlib.import_module("qseries.modularity.prove")
+    real = prove_module.recognise
+    theta_3 = real(parse("eta(q^2)^5/(eta(q)^2 eta(q^4)^2)"))
+    monkeypatch.setattr(prove_module, "recognise",
+                        lambda node: theta_3 if node == parse("theta_4(q)") else real(node))
+    r = prove("theta_4(q)", "eta(q^2)^5/(eta(q)^2 eta(q^4)^2)", order=20)
+    assert not r.proved and "internal fault" in r.reason
+
+
+def test_the_rechecker_compares_each_side_with_its_terms_beyond_a_tiny_bound():
+    # theta_3's certificate (bound 0: q^0 alone) offered for theta_4(q) = theta_3's eta
+    # quotient, false from q^1 on: the sides agree at q^0, so only a comparison of each side
+    # with the certificate's terms beyond the bound finds that theta_4 is not those terms
+    rhs = "eta(q^2)^5/(eta(q)^2 eta(q^4)^2)"
+    cert = proof_json(prove("theta_3(q)", rhs))["certificate"]
+    assert cert["bound"] == 0 and recheck("theta_3(q)", rhs, cert) == []
+    assert any("lhs differs from its terms" in x for x in recheck("theta_4(q)", rhs, cert))
+
+
+def test_a_side_that_loses_precision_is_compared_further():
+    # f(q) = (q^2;q^2)^3/((q;q)(q^4;q^4)) (Berndt, Ramanujan's Notebooks III, Entry 22(iii),
+    # from memory), so f(q^4)^-2 = q^(1/3) eta(4 tau)^2 eta(16 tau)^2 / eta(8 tau)^6; the
+    # negative power of q in the quotient costs the right side precision, so a check to the
+    # bound alone compares nothing (it said "could be compared only below q^0")
+    c = _proved("f(q^4)^-2", "q^(1/3) eta(q^4)^2 eta(q^8)^-6 eta(q^16)^2")
+    assert c.high == 0
 
 
 def test_levels_beyond_the_limit_are_refused():

@@ -79,6 +79,10 @@ def test_one_sided_sums_about_an_integer_keep_the_middle_term():
     ("(q;q)_5", "finite factor"),
     ("1/(1 - q)", "division by a sum"),
     ("eta(q)^(1/2)", "integer powers"),
+    # the engine refuses eta(-q^d) (a fractional power of -q in front); it was recognised
+    # as eta(q^d), the sign dropped
+    ("eta(-q^4)", "eta(-q^d) is not a series in q"),
+    ("eta(-q)^24", "eta(-q^d) is not a series in q"),
     ("sum_{n=0}^{5} q^(n^2)", "polynomial"),
     ("sum_{n>=0} q^(n^3)", "not a theta series"),
     ("gaussian(4, 2)", "not a modular object"),
@@ -86,6 +90,19 @@ def test_one_sided_sums_about_an_integer_keep_the_middle_term():
 def test_refusals_say_why(text, words):
     rec = recognise(parse(text))
     assert rec.terms is None and words in rec.reason
+
+
+@pytest.mark.parametrize(("text", "words", "not_words"), [
+    # issue 15: a Lambert series is refused "with a clear reason unless Eisenstein series
+    # are recognised -- say which": the reason names the kind of sum it found
+    ("1 - 5 sum_{n>=1} n q^n/(1-q^n)", "Lambert series", "Rogers-Ramanujan"),
+    ("sum_{n>=1} n q^n/(1-q^n)", "Eisenstein series are not recognised", "Pochhammer"),
+    ("sum_{k>=0} q^(k^2)/(q;q)_k", "q-Pochhammer", "Lambert"),
+    ("sum_{k>=0} z^k q^(k^2)", "extra variable", "Lambert"),
+])
+def test_unrecognised_sums_say_what_they_are(text, words, not_words):
+    rec = recognise(parse(text))
+    assert rec.terms is None and words in rec.reason and not_words not in rec.reason
 
 
 def test_zero_is_the_empty_combination():
