@@ -129,6 +129,15 @@ def test_an_unreachable_cluster_exits_2():
     assert r.exit_code == 2 and "cannot reach the Dask scheduler" in r.stderr
 
 
+@pytest.mark.parametrize("address", ["nonsense", "foo://x:8786"])
+def test_a_malformed_cluster_address_exits_2(address):
+    # found by a trial: a traceback from dask and exit 1
+    pytest.importorskip("distributed")
+    r = run(RR, "-p", "b=0..1", "--cluster", address, "--connect-timeout", "1")
+    assert r.exit_code == 2, r.output
+    assert "not a Dask scheduler address" in r.stderr and "Traceback" not in r.output
+
+
 def test_ctrl_c_then_resume(tmp_path):
     # a family slow enough to interrupt: every member passes the filter and is confirmed
     # at order 10000 (in two worker processes)

@@ -113,6 +113,15 @@ def test_a_batch_the_cluster_cannot_run_is_lost_not_fatal():
         engine.close()
 
 
+@pytest.mark.parametrize("address", ["nonsense", "tcp://localhost", "foo://x:8786",
+                                     "tcp://localhost:99999", "tcp://localhost:abc",
+                                     "tcp://localhost:8786/x", "tcp://localhost:0"])
+def test_a_malformed_scheduler_address_is_a_clear_error(address):
+    # found by a trial: --cluster nonsense ended in dask's ValueError, with a traceback
+    with pytest.raises(QSeriesError, match="not a Dask scheduler address"):
+        DaskEngine(address, timeout=1)
+
+
 def test_an_unreachable_scheduler_is_a_clear_error():
     with pytest.raises(QSeriesError, match="cannot reach the Dask scheduler"):
         DaskEngine("tcp://127.0.0.1:9", timeout=1)
