@@ -26,7 +26,7 @@ from dataclasses import dataclass
 
 from ..catalogue.templates import Budget, expand_template
 from ..engine import Evaluator
-from ..errors import ArgumentError, QSeriesError
+from ..errors import ArgumentError, ParseError, QSeriesError
 from ..lang import Node, parse
 
 #: most assignments of the parameters (before constraints) in one scan
@@ -38,7 +38,7 @@ _NAME = re.compile(r"^[A-Za-z]+$")
 _COMPARISONS = ("<=", ">=", "==", "!=", "<", ">")
 Params = tuple[tuple[str, int], ...]
 
-__all__ = ["MAX_SCAN_MEMBERS", "Family", "Params", "parse_param"]
+__all__ = ["MAX_SCAN_MEMBERS", "Family", "Params", "parse_param", "place_in_template"]
 
 
 def parse_param(spec: str) -> tuple[str, str]:
@@ -60,6 +60,35 @@ def parse_param(spec: str) -> tuple[str, str]:
         raise ArgumentError(f"--param {spec!r}: a parameter name is a word of letters other "
                             f"than q")
     return name, rng
+
+
+def place_in_template(err: ParseError, template: str) -> ParseError | None:
+    """The parse error ``err`` of a member (``err.text``, the template with values put in)
+    moved to the same place in ``template`` as typed, when the fault lies in text the
+    template and the member share (before the first substitution or after the last);
+    None when it lies in a substituted value.
+
+    >>> member = "sum_{n>=0} q^(n^2+0 n)/(q;q_n"
+    >>> err = ParseError("expected ')'", member, member.index("_n"))
+    >>> moved = place_in_template(err, "sum_{n>=0} q^(n^2+$b n)/(q;q_n")
+    >>> moved.text[moved.position:]
+    '_n'
+    """
+    member, at = err.text, err.position
+    if member == template:
+        return err
+    head = 0
+    while head < min(len(member), len(template)) and member[head] == template[head]:
+        head += 1
+    tail = 0
+    while tail < min(len(member), len(template)) - head and \
+            member[-1 - tail] == template[-1 - tail]:
+        tail += 1
+    if at <= head:
+        return ParseError(err.message, template, at)
+    if at >= len(member) - tail:
+        return ParseError(err.message, template, at - len(member) + len(template))
+    return None
 
 
 def _split_comparison(text: str) -> tuple[str, str, str]:

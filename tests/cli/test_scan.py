@@ -199,3 +199,40 @@ def test_a_template_that_does_not_read_is_bad_input(template, spec, extra, said)
     # found by a trial: these scanned every member, failed each, and exited 1 ("no hits")
     r = run(template, "-p", spec, "-n", "30", *extra)
     assert r.exit_code == 2 and said in r.stderr
+
+
+@pytest.mark.parametrize(("template", "right", "at"), [
+    ("sum_{n>=0} q^(n^2+$b n)/(q;q_n", None, "_n"),
+    ("sum_{n>=0} q^(n^2+$b n))/(q;q)_n", None, ")/("),
+    ("sum_{n>=0} q^(n^2+$b n)/(q;q)_n", "1/((q^$(b+1);q^5)_inf (q^$(4-b);q^5)_inf", "$"),
+])
+def test_a_syntax_error_is_placed_in_the_template_as_typed(template, right, at):
+    # found by a trial: the column counted in the first member (b=0 put in), which is not
+    # the text typed
+    extra = ["--right", right] if right else []
+    r = run(template, "-p", "b=0..3", *extra, "--json")
+    assert r.exit_code == 2, r.output
+    error = json.loads(r.stdout)["error"]
+    typed = right or template
+    position = len(typed) if at == "$" else typed.index(at)
+    assert (error["text"], error["position"]) == (typed, position)
+    r = run(template, "-p", "b=0..3", *extra)
+    assert f"at column {position + 1}\n  {typed}\n" in r.stderr
+
+
+@pytest.mark.parametrize(("template", "spec", "code", "failed"), [
+    # $(6/b) divides by zero at b = 0 only; b = 6 is the first Rogers-Ramanujan identity
+    ("sum_{n>=0} q^(n^2+$(6/b) n)/(q;q)_n", "b=0..6", 0, {0, 4, 5}),
+    # the member b = 0 ends in "q^"; b = 1 reads
+    ("1/(q;q)_inf + q^$repeat(j=1..b;2;)", "b=0..1", 1, {0}),
+    # (q;q)_-1 does not read; (q;q)_0 and (q;q)_1 do
+    ("sum_{n>=0} q^n/(q;q)_$b", "b=-1..1", 1, {-1}),
+])
+def test_a_first_member_that_fails_is_listed_when_others_read(template, spec, code, failed):
+    # found by a trial: the scan was refused (exit 2) when its first member did not expand
+    # or parse, although other members did
+    r = run(template, "-p", spec, "-n", "100", "-j", "1", "--json")
+    assert r.exit_code == code, r.output
+    data = json.loads(r.stdout)
+    assert {f["params"]["b"] for f in data["failed"]} == failed
+
