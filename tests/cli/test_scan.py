@@ -236,3 +236,13 @@ def test_a_first_member_that_fails_is_listed_when_others_read(template, spec, co
     data = json.loads(r.stdout)
     assert {f["params"]["b"] for f in data["failed"]} == failed
 
+
+def test_the_out_file_of_a_scan_without_hits_is_read_by_verify(tmp_path):
+    # found by a trial: verify said "no entry matches " (an empty list of names)
+    out = tmp_path / "none.toml"
+    r = run(RR, "-p", "b=2..3", "-n", "100", "-j", "1", "-o", str(out))
+    assert r.exit_code == 1 and "0 hits" in out.read_text()
+    assert tomllib.loads(out.read_text()) == {}
+    v = runner.invoke(app, ["verify", str(out)])
+    assert v.exit_code == 2 and f"no identities in {out}" in v.stderr
+
