@@ -98,10 +98,21 @@ def _split_comparison(text: str) -> tuple[str, str, str]:
             if any(ch in left + right for ch in "<>=!") or not left.strip() \
                     or not right.strip():
                 break                # "b =< 2", "a <= b <= c": not one comparison
-            return left.strip(), op, right.strip()
+            return left, op, right
     raise ArgumentError(f"constraint {text!r}: write two integer expressions in the "
                         f"parameters joined by one of {' '.join(_COMPARISONS)}, such as "
                         f"\"a <= b\"")
+
+
+def _parse_part(whole: str, start: int, part: str, names: list[str], label: str) -> Node:
+    """``part``, the text of ``whole`` from ``start`` on, parsed so that positions (of a
+    syntax error, and the columns in later errors) count in ``whole``."""
+    try:
+        return parse(" " * start + part, bound=names)
+    except ParseError as err:
+        raise ParseError(f"{label}: {err.message}", whole, err.position) from None
+    except QSeriesError as err:
+        raise ArgumentError(f"{label}: {err}") from None
 
 
 def _holds(a: int, op: str, b: int) -> bool:
@@ -144,11 +155,10 @@ class Family:
         for i, (name, rng) in enumerate(self.ranges):
             earlier = [n for n, _ in self.ranges[:i]]
             lo, hi = rng.split("..", 1)
-            try:
-                out.append((name, parse(lo.strip(), bound=earlier),
-                            parse(hi.strip(), bound=earlier)))
-            except QSeriesError as err:
-                raise ArgumentError(f"--param {name}={rng}: {err}") from None
+            whole, label = f"{name}={rng}", f"--param {name}={rng}"
+            start = len(name) + 1
+            out.append((name, _parse_part(whole, start, lo, earlier, label),
+                        _parse_part(whole, start + len(lo) + 2, hi, earlier, label)))
         return out
 
     def _constraint_nodes(self) -> list[tuple[str, Node, str, Node]]:
@@ -156,10 +166,9 @@ class Family:
         out = []
         for text in self.constraints:
             left, op, right = _split_comparison(text)
-            try:
-                out.append((text, parse(left, bound=names), op, parse(right, bound=names)))
-            except QSeriesError as err:
-                raise ArgumentError(f"constraint {text!r}: {err}") from None
+            label = f"constraint {text!r}"
+            out.append((text, _parse_part(text, 0, left, names, label), op,
+                        _parse_part(text, len(left) + len(op), right, names, label)))
         return out
 
     def assignments(self) -> list[dict[str, int]]:
@@ -179,7 +188,8 @@ class Family:
                     lo = ev.integer(lo_node, dict(a), f"the lower end of {name}'s range")
                     hi = ev.integer(hi_node, dict(a), f"the upper end of {name}'s range")
                 except QSeriesError as err:
-                    raise ArgumentError(f"the range of {name}: {err}") from None
+                    raise ArgumentError(f"--param {name}={dict(self.ranges)[name]}: "
+                                        f"{err}") from None
                 total += max(0, hi - lo + 1)
                 if total > MAX_SCAN_MEMBERS:
                     raise ArgumentError(f"the family has more than {MAX_SCAN_MEMBERS} members; "
