@@ -189,6 +189,9 @@ def scan(
     # scan whose every member fails: one of its first members must expand and parse (the
     # others that do not are listed as failed by the scan)
     _guarded(_one_member_reads, family, probe, definitions_of(define or []))
+    if cluster is not None and jobs is not None:
+        _fail("--jobs counts local worker processes; with --cluster the cluster's workers run "
+              "the scan: give one or the other")
     record = None
     if resume and out is None:
         _fail("--resume continues the scan recorded next to --out FILE: give --out")

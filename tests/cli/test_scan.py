@@ -93,6 +93,7 @@ def test_resume_reads_the_record_and_computes_only_the_rest(tmp_path):
     (["-p", "b=0..10^9", "-p", "c=0..10^9"], "more than"),
     (["-p", "b=0..1", "--resume"], "give --out"),
     (["-p", "c=0..1", "--define", "G(q = 1"], "column"),
+    (["-p", "b=0..1", "-j", "2", "--cluster", "tcp://127.0.0.1:9"], "--jobs"),
 ])
 def test_bad_input_exits_2(args, message):
     r = run(RR, *args)
