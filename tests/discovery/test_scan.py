@@ -119,6 +119,15 @@ def test_trivially_related_members_are_grouped():
     assert zero.status == "rejected" and "vanishes" in zero.reason
 
 
+def test_equal_series_are_grouped():
+    # (q^a;q^5)_inf (q^(5-a);q^5)_inf is symmetric in a and 5 - a
+    family = Family("1/((q^$a;q^5)_inf (q^$(5-a);q^5)_inf)", (("a", "1..4"),))
+    report = run_scan(family, Criteria(order=200), engine=InlineEngine())
+    groups = {g.representative.params: [(r.member.params, r.equal) for r in g.related]
+              for g in report.groups}
+    assert groups == {(("a", 1),): [((("a", 4),), True)], (("a", 2),): [((("a", 3),), True)]}
+
+
 def test_a_q_shift_is_grouped():
     family = Family("q^$s sum_{n>=0} q^(n^2)/(q;q)_n", (("s", "0..2"),))
     report = run_scan(family, Criteria(order=100), engine=InlineEngine())
