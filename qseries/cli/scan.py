@@ -159,7 +159,8 @@ def scan(
     and kept when its exponents repeat (period <= P, size <= E); the product found is then
     compared with the member to O(q^N) modulo random primes.  Hits that differ only by a
     constant, a power of q or q -> -q are grouped.  Exit 0 with hits, 1 without, 130 when
-    interrupted (resume with --resume).
+    interrupted, 2 on bad input or when the --cluster scheduler goes away (resume with
+    --resume).
 
     Example: qseries scan "sum_{n>=0} q^(n^2+$b n)/(q;q)_n" -p b=0..3 -n 500
     """
@@ -168,6 +169,7 @@ def scan(
         Family,
         ScanInterrupted,
         ScanRecord,
+        ScanStopped,
         hits_file_text,
         parse_param,
         progress_path,
@@ -206,6 +208,7 @@ def scan(
 
     date = datetime.now(UTC).date().isoformat()
     interrupted = None
+    stopped: str | None = None
     try:
         engine = _engine(cluster, jobs, connect_timeout)
         try:
@@ -213,6 +216,8 @@ def scan(
                                    batch_size=batch, record=record)
         except ScanInterrupted as stop:
             report, interrupted = stop.report, len(stop.report.outcomes)
+        except ScanStopped as stop:      # the engine is gone: keep what finished
+            report, interrupted, stopped = stop.report, len(stop.report.outcomes), stop.reason
         except QSeriesError as err:
             _fail(str(err), err)
         finally:
@@ -229,10 +234,17 @@ def scan(
         data = scan_json(report)
         if interrupted is not None:
             data["interrupted"] = True
+        if stopped is not None:
+            data["error"] = stopped
         typer.echo(json.dumps(data))
     else:
         for line in scan_lines(report, interrupted):
             typer.echo(line)
+    if stopped is not None:
+        typer.echo(f"qseries: error: {stopped}: {interrupted} of {report.members} members "
+                   f"finished" + (f"; continue with --resume --out {out}" if out else ""),
+                   err=True)
+        raise typer.Exit(2)
     if interrupted is not None:
         typer.echo(f"qseries: interrupted: {interrupted} of {report.members} members finished"
                    + (f"; continue with --resume --out {out}" if out else ""), err=True)

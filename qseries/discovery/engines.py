@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import gc
 import hashlib
+import logging
 import re
 import sys
 from abc import ABC, abstractmethod
@@ -43,8 +44,8 @@ _ADDRESS = re.compile(r"^(?:(?:tcp|tls|ws|wss|ucx)://)?(?:\[[0-9A-Fa-f:.]+\]|[^\
 #: the address of a cluster in this process (a LocalCluster with processes=False)
 _INPROC = re.compile(r"^inproc://\S+$")
 
-__all__ = ["BatchLost", "DaskEngine", "Engine", "InlineEngine", "PoolEngine", "batch_key",
-           "check_address"]
+__all__ = ["BatchLost", "DaskEngine", "Engine", "EngineLost", "InlineEngine", "PoolEngine",
+           "batch_key", "check_address"]
 
 
 class BatchLost(Exception):
@@ -59,6 +60,25 @@ class BatchLost(Exception):
         super().__init__(reason)
         self.reason = reason
         self.retry = retry
+
+
+class EngineLost(QSeriesError):
+    """The engine can run nothing more (the Dask scheduler went away, or the client was
+    closed): the scan stops, and the members not finished are not failed but left for
+    ``--resume``.
+
+    >>> str(EngineLost("lost the Dask cluster"))
+    'lost the Dask cluster'
+    """
+
+
+def _lost(err: BaseException) -> EngineLost:
+    """EngineLost for Dask's ``err``: its ``Message:`` line when it has one (Dask lists
+    every future cancelled after it), else its first line."""
+    lines = [line.strip() for line in str(err).splitlines() if line.strip()]
+    said = next((line.removeprefix("Message:").strip() for line in lines
+                 if line.startswith("Message:")), lines[0] if lines else "")
+    return EngineLost(f"lost the Dask cluster ({type(err).__name__}: {said})")
 
 
 def batch_key(job: ScanJob, batch: Batch) -> str:
@@ -250,25 +270,39 @@ class DaskEngine(Engine):
         self.futures: set[Any] = set()
 
     def submit(self, job: ScanJob, batch: Batch) -> Any:
-        future = self.client.submit(examine_batch, job, batch, key=batch_key(job, batch),
-                                    pure=True)
+        try:
+            future = self.client.submit(examine_batch, job, batch, key=batch_key(job, batch),
+                                        pure=True)
+        except Exception as err:   # noqa: BLE001 - a closed client, a scheduler gone
+            raise _lost(err) from None
         self.futures.add(future)
         return future
 
     def wait_any(self, pending: Iterable[Any]) -> set[Any]:
-        with self.client.as_current():       # our client, not the process's default
-            done = self._distributed.wait(list(pending), return_when="FIRST_COMPLETED").done
+        try:
+            with self.client.as_current():       # our client, not the process's default
+                done = self._distributed.wait(list(pending),
+                                              return_when="FIRST_COMPLETED").done
+        except Exception as err:   # noqa: BLE001 - futures cancelled: the scheduler is gone
+            raise _lost(err) from None
         return set(done)
 
     def result(self, handle: Any) -> list[MemberOutcome]:
+        from concurrent.futures import CancelledError
+
         self.futures.discard(handle)
         try:
             out = handle.result()
+        except CancelledError as err:      # the scheduler went away, not the batch's doing
+            raise _lost(err) from None
         except Exception as err:     # noqa: BLE001 - KilledWorker, a worker without qseries
             name = type(err).__name__
             raise BatchLost(f"the cluster could not run this batch ({name}: {err})") from None
         finally:
-            handle.release()
+            try:
+                handle.release()
+            except Exception:  # noqa: BLE001 - the client may be closed already
+                pass
         return out
 
     def close(self, abort: bool = False) -> None:
@@ -279,4 +313,15 @@ class DaskEngine(Engine):
                 pass
         self.futures.clear()
         if self.own:
-            self.client.close()
+            # a client whose scheduler is gone logs its reconnection, cancelled by close,
+            # as an error with a traceback: not news to the user, who is told it is gone
+            logger = logging.getLogger("distributed.client")
+            level = logger.level
+            if abort:
+                logger.setLevel(logging.CRITICAL)
+            try:
+                self.client.close()
+            except Exception:  # noqa: BLE001 - a scheduler gone cannot be told goodbye
+                pass
+            finally:
+                logger.setLevel(level)

@@ -247,3 +247,30 @@ def test_the_out_file_of_a_scan_without_hits_is_read_by_verify(tmp_path):
     v = runner.invoke(app, ["verify", str(out)])
     assert v.exit_code == 2 and f"no identities in {out}" in v.stderr
 
+
+def test_a_scan_stopped_by_its_engine_keeps_what_finished(tmp_path, monkeypatch):
+    # the scheduler of a --cluster scan goes away (tests/discovery/test_engines.py): the
+    # hits so far are written, the command says how to resume, exit 2 without a traceback
+    import qseries.discovery as discovery
+    real = discovery.run_scan
+
+    def stopped(family, criteria, **kwargs):
+        report = real(family, criteria, **kwargs)
+        done = report.outcomes[:2]
+        cut = type(report)(family, criteria, report.members, done,
+                           tuple(discovery.group_hits([o for o in done if o.status == "hit"])))
+        raise discovery.ScanStopped("lost the Dask cluster (a test)", cut)
+
+    monkeypatch.setattr(discovery, "run_scan", stopped)
+    out = tmp_path / "rr.toml"
+    r = run(RR, "-p", "b=0..3", "-n", "100", "-j", "1", "-o", str(out))
+    assert r.exit_code == 2, r.output
+    assert "lost the Dask cluster (a test): 2 of 4 members finished" in r.stderr
+    assert f"--resume --out {out}" in r.stderr and "Traceback" not in r.output
+    assert [e["params"] for e in tomllib.loads(out.read_text())["identity"]] == [
+        {"b": "0..0"}, {"b": "1..1"}]
+    j = run(RR, "-p", "b=0..3", "-n", "100", "-j", "1", "--json")
+    assert j.exit_code == 2
+    data = json.loads(j.stdout)
+    assert data["interrupted"] is True and data["error"].startswith("lost the Dask cluster")
+

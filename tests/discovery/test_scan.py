@@ -226,6 +226,26 @@ def test_resume_recomputes_nothing_already_recorded(tmp_path, monkeypatch):
     assert _hits(resumed) == _hits(whole) and len(whole.groups) == 3
 
 
+def test_resume_runs_again_the_members_an_engine_lost(tmp_path, monkeypatch):
+    # a member listed as failed because its batch could not be run (stage "engine") has no
+    # outcome of its own: a resumed scan computes it
+    from qseries.discovery import MemberOutcome
+    criteria = Criteria(order=100)
+    path = tmp_path / "hits.toml.progress"
+    header = record_header(RR, criteria)
+    with ScanRecord.create(path, header) as record:
+        record.append([MemberOutcome(0, (("b", 0),), "", "failed", reason="worker lost",
+                                     stage="engine"),
+                       MemberOutcome(1, (("b", 1),), "", "failed", reason="no",
+                                     stage="evaluation")])
+    calls = _counting(monkeypatch)
+    with ScanRecord.resume(path, header) as record:
+        report = run_scan(RR, criteria, engine=InlineEngine(), record=record)
+    assert sorted(calls) == [0, 2, 3]
+    assert (report.resumed, report.computed) == (1, 3)
+    assert report.outcomes[0].status == "hit" and report.outcomes[1].status == "failed"
+
+
 def test_a_resumed_scan_must_be_the_same_scan(tmp_path):
     path = tmp_path / "x.progress"
     ScanRecord.create(path, record_header(RR, Criteria(order=100))).close()
