@@ -234,8 +234,8 @@ def scan(
         data = scan_json(report)
         if interrupted is not None:
             data["interrupted"] = True
-        if stopped is not None:
-            data["error"] = stopped
+        if stopped is not None:              # the shape of every command's error
+            data["error"] = {"message": stopped, "position": None}
         typer.echo(json.dumps(data))
     else:
         for line in scan_lines(report, interrupted):

@@ -272,5 +272,7 @@ def test_a_scan_stopped_by_its_engine_keeps_what_finished(tmp_path, monkeypatch)
     j = run(RR, "-p", "b=0..3", "-n", "100", "-j", "1", "--json")
     assert j.exit_code == 2
     data = json.loads(j.stdout)
-    assert data["interrupted"] is True and data["error"].startswith("lost the Dask cluster")
+    assert data["interrupted"] is True
+    assert data["error"]["message"].startswith("lost the Dask cluster")
+    assert len(data["hits"]) == 2
 
