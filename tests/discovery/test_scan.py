@@ -47,6 +47,16 @@ ROGERS4 = Family("sum_{n>=0} q^(n^2+$b n)/(q^4;q^4)_n", (("b", "0..3"),))
 ROGERS4_PRODUCTS = {(("b", 0),): "1/((-q^2;q^2)_inf (q;q^5)_inf (q^4;q^5)_inf)",
                     (("b", 2),): "1/((-q^2;q^2)_inf (q^2;q^5)_inf (q^3;q^5)_inf)"}
 
+# A double sum: the Andrews-Gordon identities for k = 3 (modulus 7), G. E. Andrews, Proc. Nat.
+# Acad. Sci. USA 71 (1974), 4082-4085; The Theory of Partitions, 1976, Thm. 7.8 (from
+# memory): with N_1 = i + j, N_2 = j, sum q^(N_1^2 + N_2^2 + N_r + ... + N_2)/((q;q)_i (q;q)_j)
+# = prod over n not = 0, +-r (mod 7) of 1/(1 - q^n), for r = 3, 2, 1
+AG7 = Family("sum_{i>=0} sum_{j>=0} q^(i^2+2 i j+2 j^2+$a i+$b j)/((q;q)_i (q;q)_j)",
+             (("a", "0..2"), ("b", "0..2")))
+AG7_PRODUCTS = {(("a", 0), ("b", 0)): "1/(q,q^2,q^5,q^6;q^7)_inf",
+                (("a", 0), ("b", 1)): "1/(q,q^3,q^4,q^6;q^7)_inf",
+                (("a", 1), ("b", 2)): "1/(q^2,q^3,q^4,q^5;q^7)_inf"}
+
 # Ramanujan's third-order mock theta functions f(q) = sum q^(n^2)/(-q;q)_n^2 and
 # phi(q) = sum q^(n^2)/(-q^2;q^2)_n (G. N. Watson, J. London Math. Soc. 11 (1936)) are not
 # modular (M. Griffin, K. Ono and L. Rolen, Ramanujan's mock theta functions, PNAS 110
@@ -65,7 +75,8 @@ def _agrees(found, published):
 
 @pytest.mark.parametrize("family, published", [(RR, RR_PRODUCTS), (MOD14, MOD14_PRODUCTS),
                                                (MOD20, MOD20_PRODUCTS),
-                                               (ROGERS4, ROGERS4_PRODUCTS)])
+                                               (ROGERS4, ROGERS4_PRODUCTS),
+                                               (AG7, AG7_PRODUCTS)])
 def test_rediscovers_published_identities(family, published):
     report = run_scan(family, Criteria(order=ORDER), engine=InlineEngine())
     hits = _hits(report)
