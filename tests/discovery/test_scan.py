@@ -63,6 +63,10 @@ AG7_PRODUCTS = {(("a", 0), ("b", 0)): "1/(q,q^2,q^5,q^6;q^7)_inf",
 # (2013), from memory), while c q^s times a product with periodic exponents is a
 # generalised eta product, which is (S. Robins, Contemp. Math. 166, 1994): no product form
 MOCK = Family("sum_{n>=0} q^(n^2)/(-q^$c;q^$c)_n^$(3-c)", (("c", "1..2"),))
+# and the fifth-order f_0(q) = sum q^(n^2)/(-q;q)_n and f_1(q) = sum q^(n^2+n)/(-q;q)_n
+# (G. N. Watson, Proc. London Math. Soc. (2) 42 (1937), 274-304, from memory), mock theta
+# functions too
+MOCK5 = Family("sum_{n>=0} q^(n^2+$b n)/(-q;q)_n", (("b", "0..1"),))
 
 
 def _hits(report):
@@ -97,10 +101,11 @@ def test_the_rogers_ramanujan_hits_confirmed_at_the_full_order_only():
 
 
 def test_mock_theta_functions_have_no_product_form():
-    report = run_scan(MOCK, Criteria(order=ORDER, max_period=40, max_exponent=20),
-                      engine=InlineEngine())
-    assert report.groups == ()
-    assert [o.status for o in report.outcomes] == ["rejected", "rejected"]
+    for family in (MOCK, MOCK5):
+        report = run_scan(family, Criteria(order=ORDER, max_period=40, max_exponent=20),
+                          engine=InlineEngine())
+        assert report.groups == ()
+        assert [o.status for o in report.outcomes] == ["rejected", "rejected"]
 
 
 def test_a_period_above_the_bound_is_no_hit():
