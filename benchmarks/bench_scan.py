@@ -5,7 +5,7 @@ up (one batch) before the clock runs: the figures are the throughput of a long s
     python benchmarks/bench_scan.py [--order N] [--repeat R]
 
 The family, sum_n q^(a n^2 + b n) / ((q;q)_n (q;q^2)_(n+c)) for a = 1..3, b = -6..14,
-c = 0..3 with a + b + c != 0 (251 members), holds Rogers' mod 14 identities among members
+c = 0..3 with a + b + c != 0 (240 members), holds Rogers' mod 14 identities among members
 that the filter rejects; the figures are best of R runs, and the speed-ups are relative to
 one worker process, measured in the same run.  The last column is the engine's cost per
 member: the time per member of a family of constants ($a for a = 1..2000), which the

@@ -760,6 +760,8 @@ def _load(paths: list[Path] | None, only: list[str]) -> list:
     from ..catalogue import SHIPPED, load_entries, select  # imported when a command needs it
 
     entries = _guarded(load_entries, paths or [SHIPPED])
+    if not entries:
+        _fail(f"no identities in {', '.join(str(p) for p in paths or [SHIPPED])}")
     chosen = select(entries, only)
     if not chosen:
         _fail(f"no entry matches {', '.join(only)}")

@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import json
 import os
+from itertools import islice
 from pathlib import Path
 from typing import Annotated, Any
 
@@ -14,7 +15,10 @@ from ..errors import QSeriesError
 from ..series import MAX_LENGTH
 from .main import DefineOption, JsonOption, _fail, _guarded, app
 
-__all__ = ["scan"]
+__all__ = ["PROBE_MEMBERS", "scan"]
+
+#: the template is bad input when none of its first this many members expands and parses
+PROBE_MEMBERS = 100
 
 
 def _write_atomically(path: Path, text: str) -> None:
@@ -24,6 +28,44 @@ def _write_atomically(path: Path, text: str) -> None:
         os.replace(tmp, path)
     except OSError as err:
         _fail(f"cannot write {path}: {err.strerror or err}")
+
+
+def _parse_member(text: str, typed: str, params: Any, defs: Any) -> None:
+    """Parse a member's side; a syntax error is placed in the template as typed when it
+    lies in text the two share, else named as the member's."""
+    from ..discovery.family import place_in_template
+    from ..errors import ParseError
+    from ..lang.parser import parse
+
+    try:
+        parse(text, definitions=defs)
+    except ParseError as err:
+        moved = place_in_template(err, typed)
+        if moved is not None:
+            raise moved from None
+        label = " ".join(f"{n}={v}" for n, v in params)
+        raise ParseError(f"in the member {label}: {err.message}", err.text,
+                         err.position) from None
+
+
+def _one_member_reads(family: Any, probe: list, defs: Any) -> None:
+    """Return when one of the members ``probe`` expands and parses (both sides); else
+    raise the first member's error."""
+    first: QSeriesError | None = None
+    for params in probe:
+        values = dict(params)
+        try:
+            for side, typed in ((family.expand, family.template),
+                                (family.expand_right, family.right)):
+                text = side(values)
+                if text is not None:
+                    _parse_member(text, typed, params, defs)
+        except QSeriesError as err:
+            first = first or err
+            continue
+        return
+    if first is not None:
+        raise first
 
 
 def _engine(cluster: str | None, jobs: int | None, timeout: float) -> Any:
@@ -117,7 +159,8 @@ def scan(
     and kept when its exponents repeat (period <= P, size <= E); the product found is then
     compared with the member to O(q^N) modulo random primes.  Hits that differ only by a
     constant, a power of q or q -> -q are grouped.  Exit 0 with hits, 1 without, 130 when
-    interrupted (resume with --resume).
+    interrupted, 2 on bad input or when the --cluster scheduler goes away (resume with
+    --resume).
 
     Example: qseries scan "sum_{n>=0} q^(n^2+$b n)/(q;q)_n" -p b=0..3 -n 500
     """
@@ -126,13 +169,14 @@ def scan(
         Family,
         ScanInterrupted,
         ScanRecord,
+        ScanStopped,
         hits_file_text,
         parse_param,
         progress_path,
         record_header,
         run_scan,
     )
-    from ..lang.parser import definitions_of, parse
+    from ..lang.parser import definitions_of
     from ..report import scan_json, scan_lines
 
     ranges = tuple(_guarded(parse_param, p) for p in param)
@@ -140,16 +184,16 @@ def scan(
     family = _guarded(lambda: Family(template, ranges, tuple(where or ()), right,
                                      tuple(define or ())))
     criteria = _guarded(lambda: Criteria(order, period, exponent, filter_order))
-    first = _guarded(lambda: next(iter(family.members()), None))   # ranges, constraints
-    if first is None:
+    probe = _guarded(lambda: list(islice(family.members(), PROBE_MEMBERS)))
+    if not probe:                                                  # ranges, constraints
         _fail("the parameter ranges and --where constraints leave no member to scan")
     # a template that does not read (an unknown $name, a syntax error) is bad input, not a
-    # scan whose every member fails: its first member must expand and parse
-    values, defs = dict(first), definitions_of(define or [])
-    for side in (family.expand, family.expand_right):
-        text = _guarded(lambda side=side: side(values))
-        if text is not None:
-            _guarded(lambda text=text: parse(text, definitions=defs))
+    # scan whose every member fails: one of its first members must expand and parse (the
+    # others that do not are listed as failed by the scan)
+    _guarded(_one_member_reads, family, probe, definitions_of(define or []))
+    if cluster is not None and jobs is not None:
+        _fail("--jobs counts local worker processes; with --cluster the cluster's workers run "
+              "the scan: give one or the other")
     record = None
     if resume and out is None:
         _fail("--resume continues the scan recorded next to --out FILE: give --out")
@@ -164,6 +208,7 @@ def scan(
 
     date = datetime.now(UTC).date().isoformat()
     interrupted = None
+    stopped: str | None = None
     try:
         engine = _engine(cluster, jobs, connect_timeout)
         try:
@@ -171,6 +216,8 @@ def scan(
                                    batch_size=batch, record=record)
         except ScanInterrupted as stop:
             report, interrupted = stop.report, len(stop.report.outcomes)
+        except ScanStopped as stop:      # the engine is gone: keep what finished
+            report, interrupted, stopped = stop.report, len(stop.report.outcomes), stop.reason
         except QSeriesError as err:
             _fail(str(err), err)
         finally:
@@ -187,10 +234,17 @@ def scan(
         data = scan_json(report)
         if interrupted is not None:
             data["interrupted"] = True
+        if stopped is not None:              # the shape of every command's error
+            data["error"] = {"message": stopped, "position": None}
         typer.echo(json.dumps(data))
     else:
         for line in scan_lines(report, interrupted):
             typer.echo(line)
+    if stopped is not None:
+        typer.echo(f"qseries: error: {stopped}: {interrupted} of {report.members} members "
+                   f"finished" + (f"; continue with --resume --out {out}" if out else ""),
+                   err=True)
+        raise typer.Exit(2)
     if interrupted is not None:
         typer.echo(f"qseries: interrupted: {interrupted} of {report.members} members finished"
                    + (f"; continue with --resume --out {out}" if out else ""), err=True)

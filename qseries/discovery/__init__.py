@@ -11,15 +11,23 @@ record a scan resumes from), :mod:`.scan` (the driver and the identity file of t
 ['(q, q^4;q^5)_inf^-1', '(q^2, q^3;q^5)_inf^-1']
 """
 
-from .engines import BatchLost, DaskEngine, Engine, InlineEngine, PoolEngine
+from .engines import BatchLost, DaskEngine, Engine, EngineLost, InlineEngine, PoolEngine
 from .examine import Criteria, MemberOutcome, ScanJob, examine_batch, examine_member
 from .family import MAX_SCAN_MEMBERS, Family, parse_param
 from .grouping import Group, Relation, group_hits, minus_q
 from .record import ScanRecord, progress_path
-from .scan import ScanInterrupted, ScanReport, hits_file_text, record_header, run_scan
+from .scan import (
+    ScanInterrupted,
+    ScanReport,
+    ScanStopped,
+    hits_file_text,
+    record_header,
+    run_scan,
+)
 
-__all__ = ["MAX_SCAN_MEMBERS", "BatchLost", "Criteria", "DaskEngine", "Engine", "Family",
-           "Group", "InlineEngine", "MemberOutcome", "PoolEngine", "Relation", "ScanInterrupted",
-           "ScanJob", "ScanRecord", "ScanReport", "examine_batch", "examine_member",
+__all__ = ["MAX_SCAN_MEMBERS", "BatchLost", "Criteria", "DaskEngine", "Engine", "EngineLost",
+           "Family", "Group", "InlineEngine", "MemberOutcome", "PoolEngine", "Relation",
+           "ScanInterrupted", "ScanJob", "ScanRecord", "ScanReport", "ScanStopped",
+           "examine_batch", "examine_member",
            "group_hits", "hits_file_text", "minus_q", "parse_param", "progress_path",
            "record_header", "run_scan"]

@@ -20,7 +20,11 @@ died, a batch that killed several Dask workers, a worker without qseries) comes 
 
 from __future__ import annotations
 
+import gc
 import hashlib
+import logging
+import re
+import sys
 from abc import ABC, abstractmethod
 from collections.abc import Iterable
 from concurrent.futures import FIRST_COMPLETED, Future
@@ -34,7 +38,14 @@ from .family import Params
 
 Batch = tuple[tuple[int, Params], ...]
 
-__all__ = ["BatchLost", "DaskEngine", "Engine", "InlineEngine", "PoolEngine", "batch_key"]
+#: a scheduler address: [SCHEME://]HOST:PORT, over a network transport of dask.distributed
+_ADDRESS = re.compile(r"^(?:(?:tcp|tls|ws|wss|ucx)://)?(?:\[[0-9A-Fa-f:.]+\]|[^\s:/\[\]]+)"
+                      r":(\d{1,5})$")
+#: the address of a cluster in this process (a LocalCluster with processes=False)
+_INPROC = re.compile(r"^inproc://\S+$")
+
+__all__ = ["BatchLost", "DaskEngine", "Engine", "EngineLost", "InlineEngine", "PoolEngine",
+           "batch_key", "check_address"]
 
 
 class BatchLost(Exception):
@@ -51,6 +62,25 @@ class BatchLost(Exception):
         self.retry = retry
 
 
+class EngineLost(QSeriesError):
+    """The engine can run nothing more (the Dask scheduler went away, or the client was
+    closed): the scan stops, and the members not finished are not failed but left for
+    ``--resume``.
+
+    >>> str(EngineLost("lost the Dask cluster"))
+    'lost the Dask cluster'
+    """
+
+
+def _lost(err: BaseException) -> EngineLost:
+    """EngineLost for Dask's ``err``: its ``Message:`` line when it has one (Dask lists
+    every future cancelled after it), else its first line."""
+    lines = [line.strip() for line in str(err).splitlines() if line.strip()]
+    said = next((line.removeprefix("Message:").strip() for line in lines
+                 if line.startswith("Message:")), lines[0] if lines else "")
+    return EngineLost(f"lost the Dask cluster ({type(err).__name__}: {said})")
+
+
 def batch_key(job: ScanJob, batch: Batch) -> str:
     """A name for a batch that depends only on what it computes (Dask's task key: the
     same batch submitted twice is one task).
@@ -63,6 +93,29 @@ def batch_key(job: ScanJob, batch: Batch) -> str:
     """
     digest = hashlib.sha256(repr((job, batch)).encode("utf-8")).hexdigest()[:24]
     return f"qseries-scan-{batch[0][0] if batch else 0}-{digest}"
+
+
+def check_address(address: str) -> str:
+    """``address`` if it is a scheduler address ``[SCHEME://]HOST:PORT`` (scheme tcp, tls,
+    ws, wss or ucx; tcp when none is given) or the ``inproc://`` address of a cluster in
+    this process, else a QSeriesError: checked before Dask sees it, since Dask's own
+    refusal is a ValueError from inside its connection code.
+
+    >>> check_address("tcp://10.0.0.5:8786")
+    'tcp://10.0.0.5:8786'
+    >>> check_address("10.0.0.5")  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    qseries.errors.QSeriesError: '10.0.0.5' is not a Dask scheduler address: write ...
+    """
+    if _INPROC.match(address):
+        return address
+    match = _ADDRESS.match(address)
+    if match is None or not 0 < int(match.group(1)) < 65536:
+        raise QSeriesError(f"{address!r} is not a Dask scheduler address: write "
+                           f"[SCHEME://]HOST:PORT, such as tcp://host:8786 (scheme tcp, tls, "
+                           f"ws, wss or ucx)")
+    return address
 
 
 class Engine(ABC):
@@ -166,6 +219,28 @@ class PoolEngine(InlineEngine):
             self.pool.shutdown(wait=True)
 
 
+def _connect(distributed: Any, address: str, timeout: float) -> Any:
+    """A client of the scheduler at ``address``, or a QSeriesError saying why not."""
+    try:
+        return distributed.Client(address, timeout=timeout, set_as_default=False)
+    except (OSError, TimeoutError) as err:
+        failure: BaseException = err
+        message = f"cannot reach the Dask scheduler at {address}: {err}"
+    except (ValueError, TypeError) as err:       # a TLS address without TLS settings
+        failure = err
+        message = f"cannot connect to the Dask scheduler at {address}: {err}"
+    # the half-made client, held by the failure's traceback, complains from its __del__
+    # when it cannot close: let it go now, its complaint not printed
+    hook = sys.unraisablehook
+    sys.unraisablehook = lambda _unraisable: None
+    try:
+        del failure
+        gc.collect()
+    finally:
+        sys.unraisablehook = hook
+    raise QSeriesError(message)
+
+
 class DaskEngine(Engine):
     """A Dask distributed cluster: the scheduler at ``address`` (``tcp://host:8786``), or
     an existing ``client`` (which is left open).  Needs the extra ``cluster``
@@ -189,35 +264,45 @@ class DaskEngine(Engine):
         if client is None:
             if not address:
                 raise QSeriesError("give the scheduler's address, such as tcp://host:8786")
-            try:
-                client = distributed.Client(address, timeout=timeout, set_as_default=False)
-            except (OSError, TimeoutError) as err:
-                raise QSeriesError(f"cannot reach the Dask scheduler at {address}: "
-                                   f"{err}") from None
+            client = _connect(distributed, check_address(address), timeout)
         self.client = client
         self.workers = max(1, sum(client.nthreads().values()))
         self.futures: set[Any] = set()
 
     def submit(self, job: ScanJob, batch: Batch) -> Any:
-        future = self.client.submit(examine_batch, job, batch, key=batch_key(job, batch),
-                                    pure=True)
+        try:
+            future = self.client.submit(examine_batch, job, batch, key=batch_key(job, batch),
+                                        pure=True)
+        except Exception as err:   # noqa: BLE001 - a closed client, a scheduler gone
+            raise _lost(err) from None
         self.futures.add(future)
         return future
 
     def wait_any(self, pending: Iterable[Any]) -> set[Any]:
-        with self.client.as_current():       # our client, not the process's default
-            done = self._distributed.wait(list(pending), return_when="FIRST_COMPLETED").done
+        try:
+            with self.client.as_current():       # our client, not the process's default
+                done = self._distributed.wait(list(pending),
+                                              return_when="FIRST_COMPLETED").done
+        except Exception as err:   # noqa: BLE001 - futures cancelled: the scheduler is gone
+            raise _lost(err) from None
         return set(done)
 
     def result(self, handle: Any) -> list[MemberOutcome]:
+        from concurrent.futures import CancelledError
+
         self.futures.discard(handle)
         try:
             out = handle.result()
+        except CancelledError as err:      # the scheduler went away, not the batch's doing
+            raise _lost(err) from None
         except Exception as err:     # noqa: BLE001 - KilledWorker, a worker without qseries
             name = type(err).__name__
             raise BatchLost(f"the cluster could not run this batch ({name}: {err})") from None
         finally:
-            handle.release()
+            try:
+                handle.release()
+            except Exception:  # noqa: BLE001 - the client may be closed already
+                pass
         return out
 
     def close(self, abort: bool = False) -> None:
@@ -228,4 +313,15 @@ class DaskEngine(Engine):
                 pass
         self.futures.clear()
         if self.own:
-            self.client.close()
+            # a client whose scheduler is gone logs its reconnection, cancelled by close,
+            # as an error with a traceback: not news to the user, who is told it is gone
+            logger = logging.getLogger("distributed.client")
+            level = logger.level
+            if abort:
+                logger.setLevel(logging.CRITICAL)
+            try:
+                self.client.close()
+            except Exception:  # noqa: BLE001 - a scheduler gone cannot be told goodbye
+                pass
+            finally:
+                logger.setLevel(level)

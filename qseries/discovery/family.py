@@ -26,7 +26,7 @@ from dataclasses import dataclass
 
 from ..catalogue.templates import Budget, expand_template
 from ..engine import Evaluator
-from ..errors import ArgumentError, QSeriesError
+from ..errors import ArgumentError, ParseError, QSeriesError
 from ..lang import Node, parse
 
 #: most assignments of the parameters (before constraints) in one scan
@@ -38,7 +38,7 @@ _NAME = re.compile(r"^[A-Za-z]+$")
 _COMPARISONS = ("<=", ">=", "==", "!=", "<", ">")
 Params = tuple[tuple[str, int], ...]
 
-__all__ = ["MAX_SCAN_MEMBERS", "Family", "Params", "parse_param"]
+__all__ = ["MAX_SCAN_MEMBERS", "Family", "Params", "parse_param", "place_in_template"]
 
 
 def parse_param(spec: str) -> tuple[str, str]:
@@ -62,6 +62,35 @@ def parse_param(spec: str) -> tuple[str, str]:
     return name, rng
 
 
+def place_in_template(err: ParseError, template: str) -> ParseError | None:
+    """The parse error ``err`` of a member (``err.text``, the template with values put in)
+    moved to the same place in ``template`` as typed, when the fault lies in text the
+    template and the member share (before the first substitution or after the last);
+    None when it lies in a substituted value.
+
+    >>> member = "sum_{n>=0} q^(n^2+0 n)/(q;q_n"
+    >>> err = ParseError("expected ')'", member, member.index("_n"))
+    >>> moved = place_in_template(err, "sum_{n>=0} q^(n^2+$b n)/(q;q_n")
+    >>> moved.text[moved.position:]
+    '_n'
+    """
+    member, at = err.text, err.position
+    if member == template:
+        return err
+    head = 0
+    while head < min(len(member), len(template)) and member[head] == template[head]:
+        head += 1
+    tail = 0
+    while tail < min(len(member), len(template)) - head and \
+            member[-1 - tail] == template[-1 - tail]:
+        tail += 1
+    if at <= head:
+        return ParseError(err.message, template, at)
+    if at >= len(member) - tail:
+        return ParseError(err.message, template, at - len(member) + len(template))
+    return None
+
+
 def _split_comparison(text: str) -> tuple[str, str, str]:
     for op in _COMPARISONS:
         left, sep, right = text.partition(op)
@@ -69,10 +98,21 @@ def _split_comparison(text: str) -> tuple[str, str, str]:
             if any(ch in left + right for ch in "<>=!") or not left.strip() \
                     or not right.strip():
                 break                # "b =< 2", "a <= b <= c": not one comparison
-            return left.strip(), op, right.strip()
+            return left, op, right
     raise ArgumentError(f"constraint {text!r}: write two integer expressions in the "
                         f"parameters joined by one of {' '.join(_COMPARISONS)}, such as "
                         f"\"a <= b\"")
+
+
+def _parse_part(whole: str, start: int, part: str, names: list[str], label: str) -> Node:
+    """``part``, the text of ``whole`` from ``start`` on, parsed so that positions (of a
+    syntax error, and the columns in later errors) count in ``whole``."""
+    try:
+        return parse(" " * start + part, bound=names)
+    except ParseError as err:
+        raise ParseError(f"{label}: {err.message}", whole, err.position) from None
+    except QSeriesError as err:
+        raise ArgumentError(f"{label}: {err}") from None
 
 
 def _holds(a: int, op: str, b: int) -> bool:
@@ -115,11 +155,10 @@ class Family:
         for i, (name, rng) in enumerate(self.ranges):
             earlier = [n for n, _ in self.ranges[:i]]
             lo, hi = rng.split("..", 1)
-            try:
-                out.append((name, parse(lo.strip(), bound=earlier),
-                            parse(hi.strip(), bound=earlier)))
-            except QSeriesError as err:
-                raise ArgumentError(f"--param {name}={rng}: {err}") from None
+            whole, label = f"{name}={rng}", f"--param {name}={rng}"
+            start = len(name) + 1
+            out.append((name, _parse_part(whole, start, lo, earlier, label),
+                        _parse_part(whole, start + len(lo) + 2, hi, earlier, label)))
         return out
 
     def _constraint_nodes(self) -> list[tuple[str, Node, str, Node]]:
@@ -127,10 +166,9 @@ class Family:
         out = []
         for text in self.constraints:
             left, op, right = _split_comparison(text)
-            try:
-                out.append((text, parse(left, bound=names), op, parse(right, bound=names)))
-            except QSeriesError as err:
-                raise ArgumentError(f"constraint {text!r}: {err}") from None
+            label = f"constraint {text!r}"
+            out.append((text, _parse_part(text, 0, left, names, label), op,
+                        _parse_part(text, len(left) + len(op), right, names, label)))
         return out
 
     def assignments(self) -> list[dict[str, int]]:
@@ -150,7 +188,8 @@ class Family:
                     lo = ev.integer(lo_node, dict(a), f"the lower end of {name}'s range")
                     hi = ev.integer(hi_node, dict(a), f"the upper end of {name}'s range")
                 except QSeriesError as err:
-                    raise ArgumentError(f"the range of {name}: {err}") from None
+                    raise ArgumentError(f"--param {name}={dict(self.ranges)[name]}: "
+                                        f"{err}") from None
                 total += max(0, hi - lo + 1)
                 if total > MAX_SCAN_MEMBERS:
                     raise ArgumentError(f"the family has more than {MAX_SCAN_MEMBERS} members; "

@@ -21,8 +21,9 @@ from itertools import islice
 from typing import Any
 
 from ..catalogue.writer import identity_file_text
+from ..errors import QSeriesError
 from ..report.scan import relation_text
-from .engines import Batch, BatchLost, Engine, InlineEngine, PoolEngine
+from .engines import Batch, BatchLost, Engine, EngineLost, InlineEngine, PoolEngine
 from .examine import Criteria, MemberOutcome, ScanJob
 from .family import Family, Params
 from .grouping import Group, group_hits
@@ -36,8 +37,8 @@ WINDOW_PER_WORKER = 2
 #: up to this many times each before they are listed as failed
 ALONE_ATTEMPTS = 2
 
-__all__ = ["MAX_BATCH", "ScanInterrupted", "ScanReport", "batch_size_for", "hits_file_text",
-           "record_header", "run_scan"]
+__all__ = ["MAX_BATCH", "ScanInterrupted", "ScanReport", "ScanStopped", "batch_size_for",
+           "hits_file_text", "record_header", "run_scan"]
 
 
 @dataclass(frozen=True)
@@ -93,6 +94,22 @@ class ScanInterrupted(KeyboardInterrupt):
         self.report = report
 
 
+class ScanStopped(QSeriesError):
+    """The engine could run nothing more (:class:`EngineLost`: the Dask scheduler went
+    away); ``report`` holds the members that finished (they are in the progress record),
+    the others are left for a resumed scan, not failed.
+
+    >>> err = ScanStopped("lost the Dask cluster", None)
+    >>> err.reason
+    'lost the Dask cluster'
+    """
+
+    def __init__(self, reason: str, report: ScanReport | None) -> None:
+        super().__init__(reason)
+        self.reason = reason
+        self.report = report
+
+
 def batch_size_for(todo: int, workers: int) -> int:
     """Members per batch: about four batches per worker, at most ``MAX_BATCH``.
 
@@ -141,14 +158,17 @@ def run_scan(family: Family, criteria: Criteria, engine: Engine | None = None,
     worker processes, or this process for one job), and each batch's outcomes go into
     ``record`` as they come back.  ``progress(outcomes, done, total)`` is called after
     each batch.  Ctrl-C (or a KeyboardInterrupt from ``progress``) stops the engine and
-    raises :class:`ScanInterrupted` with the members finished so far."""
+    raises :class:`ScanInterrupted` with the members finished so far; an engine that can
+    run nothing more raises :class:`ScanStopped` with them.  Members recorded as failed by
+    the engine (stage ``engine``) are run again."""
     t0 = time.perf_counter()
     members = list(enumerate(family.members()))
     outcomes: dict[int, MemberOutcome] = {}
     if record is not None:
         params = dict(members)
         for i, o in record.finished.items():
-            if params.get(i) == o.params:
+            # a member failed by the engine (its batch could not be run) is run again
+            if params.get(i) == o.params and o.stage != "engine":
                 outcomes[i] = o
     resumed = len(outcomes)
     todo = [(i, p) for i, p in members if i not in outcomes]
@@ -210,6 +230,13 @@ def run_scan(family: Family, criteria: Criteria, engine: Engine | None = None,
             own = False
         raise ScanInterrupted(_report(family, criteria, len(members), outcomes, resumed,
                                       computed, time.perf_counter() - t0)) from None
+    except EngineLost as lost:
+        if engine is not None and own:
+            engine.close(abort=True)
+            own = False
+        raise ScanStopped(str(lost), _report(family, criteria, len(members), outcomes,
+                                             resumed, computed,
+                                             time.perf_counter() - t0)) from None
     except BaseException:
         if engine is not None and own:
             engine.close(abort=True)

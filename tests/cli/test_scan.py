@@ -93,6 +93,7 @@ def test_resume_reads_the_record_and_computes_only_the_rest(tmp_path):
     (["-p", "b=0..10^9", "-p", "c=0..10^9"], "more than"),
     (["-p", "b=0..1", "--resume"], "give --out"),
     (["-p", "c=0..1", "--define", "G(q = 1"], "column"),
+    (["-p", "b=0..1", "-j", "2", "--cluster", "tcp://127.0.0.1:9"], "--jobs"),
 ])
 def test_bad_input_exits_2(args, message):
     r = run(RR, *args)
@@ -127,6 +128,15 @@ def test_an_unreachable_cluster_exits_2():
     pytest.importorskip("distributed")
     r = run(RR, "-p", "b=0..1", "--cluster", "tcp://127.0.0.1:9", "--connect-timeout", "1")
     assert r.exit_code == 2 and "cannot reach the Dask scheduler" in r.stderr
+
+
+@pytest.mark.parametrize("address", ["nonsense", "foo://x:8786"])
+def test_a_malformed_cluster_address_exits_2(address):
+    # found by a trial: a traceback from dask and exit 1
+    pytest.importorskip("distributed")
+    r = run(RR, "-p", "b=0..1", "--cluster", address, "--connect-timeout", "1")
+    assert r.exit_code == 2, r.output
+    assert "not a Dask scheduler address" in r.stderr and "Traceback" not in r.output
 
 
 def test_ctrl_c_then_resume(tmp_path):
@@ -190,3 +200,79 @@ def test_a_template_that_does_not_read_is_bad_input(template, spec, extra, said)
     # found by a trial: these scanned every member, failed each, and exited 1 ("no hits")
     r = run(template, "-p", spec, "-n", "30", *extra)
     assert r.exit_code == 2 and said in r.stderr
+
+
+@pytest.mark.parametrize(("template", "right", "at"), [
+    ("sum_{n>=0} q^(n^2+$b n)/(q;q_n", None, "_n"),
+    ("sum_{n>=0} q^(n^2+$b n))/(q;q)_n", None, ")/("),
+    ("sum_{n>=0} q^(n^2+$b n)/(q;q)_n", "1/((q^$(b+1);q^5)_inf (q^$(4-b);q^5)_inf", "$"),
+])
+def test_a_syntax_error_is_placed_in_the_template_as_typed(template, right, at):
+    # found by a trial: the column counted in the first member (b=0 put in), which is not
+    # the text typed
+    extra = ["--right", right] if right else []
+    r = run(template, "-p", "b=0..3", *extra, "--json")
+    assert r.exit_code == 2, r.output
+    error = json.loads(r.stdout)["error"]
+    typed = right or template
+    position = len(typed) if at == "$" else typed.index(at)
+    assert (error["text"], error["position"]) == (typed, position)
+    r = run(template, "-p", "b=0..3", *extra)
+    assert f"at column {position + 1}\n  {typed}\n" in r.stderr
+
+
+@pytest.mark.parametrize(("template", "spec", "code", "failed"), [
+    # $(6/b) divides by zero at b = 0 only; b = 6 is the first Rogers-Ramanujan identity
+    ("sum_{n>=0} q^(n^2+$(6/b) n)/(q;q)_n", "b=0..6", 0, {0, 4, 5}),
+    # the member b = 0 ends in "q^"; b = 1 reads
+    ("1/(q;q)_inf + q^$repeat(j=1..b;2;)", "b=0..1", 1, {0}),
+    # (q;q)_-1 does not read; (q;q)_0 and (q;q)_1 do
+    ("sum_{n>=0} q^n/(q;q)_$b", "b=-1..1", 1, {-1}),
+])
+def test_a_first_member_that_fails_is_listed_when_others_read(template, spec, code, failed):
+    # found by a trial: the scan was refused (exit 2) when its first member did not expand
+    # or parse, although other members did
+    r = run(template, "-p", spec, "-n", "100", "-j", "1", "--json")
+    assert r.exit_code == code, r.output
+    data = json.loads(r.stdout)
+    assert {f["params"]["b"] for f in data["failed"]} == failed
+
+
+def test_the_out_file_of_a_scan_without_hits_is_read_by_verify(tmp_path):
+    # found by a trial: verify said "no entry matches " (an empty list of names)
+    out = tmp_path / "none.toml"
+    r = run(RR, "-p", "b=2..3", "-n", "100", "-j", "1", "-o", str(out))
+    assert r.exit_code == 1 and "0 hits" in out.read_text()
+    assert tomllib.loads(out.read_text()) == {}
+    v = runner.invoke(app, ["verify", str(out)])
+    assert v.exit_code == 2 and f"no identities in {out}" in v.stderr
+
+
+def test_a_scan_stopped_by_its_engine_keeps_what_finished(tmp_path, monkeypatch):
+    # the scheduler of a --cluster scan goes away (tests/discovery/test_engines.py): the
+    # hits so far are written, the command says how to resume, exit 2 without a traceback
+    import qseries.discovery as discovery
+    real = discovery.run_scan
+
+    def stopped(family, criteria, **kwargs):
+        report = real(family, criteria, **kwargs)
+        done = report.outcomes[:2]
+        cut = type(report)(family, criteria, report.members, done,
+                           tuple(discovery.group_hits([o for o in done if o.status == "hit"])))
+        raise discovery.ScanStopped("lost the Dask cluster (a test)", cut)
+
+    monkeypatch.setattr(discovery, "run_scan", stopped)
+    out = tmp_path / "rr.toml"
+    r = run(RR, "-p", "b=0..3", "-n", "100", "-j", "1", "-o", str(out))
+    assert r.exit_code == 2, r.output
+    assert "lost the Dask cluster (a test): 2 of 4 members finished" in r.stderr
+    assert f"--resume --out {out}" in r.stderr and "Traceback" not in r.output
+    assert [e["params"] for e in tomllib.loads(out.read_text())["identity"]] == [
+        {"b": "0..0"}, {"b": "1..1"}]
+    j = run(RR, "-p", "b=0..3", "-n", "100", "-j", "1", "--json")
+    assert j.exit_code == 2
+    data = json.loads(j.stdout)
+    assert data["interrupted"] is True
+    assert data["error"]["message"].startswith("lost the Dask cluster")
+    assert len(data["hits"]) == 2
+

@@ -14,6 +14,7 @@ from qseries.discovery import (
     Family,
     InlineEngine,
     PoolEngine,
+    ScanStopped,
     run_scan,
 )
 from qseries.discovery.engines import batch_key
@@ -113,6 +114,15 @@ def test_a_batch_the_cluster_cannot_run_is_lost_not_fatal():
         engine.close()
 
 
+@pytest.mark.parametrize("address", ["nonsense", "tcp://localhost", "foo://x:8786",
+                                     "tcp://localhost:99999", "tcp://localhost:abc",
+                                     "tcp://localhost:8786/x", "tcp://localhost:0"])
+def test_a_malformed_scheduler_address_is_a_clear_error(address):
+    # found by a trial: --cluster nonsense ended in dask's ValueError, with a traceback
+    with pytest.raises(QSeriesError, match="not a Dask scheduler address"):
+        DaskEngine(address, timeout=1)
+
+
 def test_an_unreachable_scheduler_is_a_clear_error():
     with pytest.raises(QSeriesError, match="cannot reach the Dask scheduler"):
         DaskEngine("tcp://127.0.0.1:9", timeout=1)
@@ -158,3 +168,26 @@ def test_without_dask_cluster_is_a_clear_error(monkeypatch):
     monkeypatch.setitem(sys.modules, "distributed", None)
     with pytest.raises(QSeriesError, match=r"qseries\[cluster\]"):
         DaskEngine("tcp://127.0.0.1:8786")
+
+
+def test_a_cluster_that_goes_away_stops_the_scan_with_what_finished(inline):
+    # found by a trial: with the scheduler gone, the scan ended in Dask's
+    # FuturesCancelledError (a traceback), or would have listed the members not yet run as
+    # failed, so that --resume never ran them
+    cluster = _cluster(processes=False)
+    with distributed.Client(cluster) as client:
+        engine = DaskEngine(client=client)
+
+        def close_after_the_first_batches(got, done, total):
+            if done >= 4:
+                cluster.close()
+
+        with pytest.raises(ScanStopped, match="Dask cluster") as stop:
+            run_scan(FAMILY, CRITERIA, engine=engine, batch_size=2,
+                     progress=close_after_the_first_batches)
+        engine.close(abort=True)
+    finished = stop.value.report.outcomes
+    assert 4 <= len(finished) < 16
+    assert list(finished) == [o for o in inline.outcomes if o.index in
+                              {f.index for f in finished}]     # none failed
+

@@ -7,7 +7,7 @@ import pytest
 from qseries.catalogue.files import load_file
 from qseries.discovery import Family, parse_param
 from qseries.discovery import family as family_module
-from qseries.errors import ArgumentError
+from qseries.errors import ArgumentError, ParseError
 
 
 def test_members_follow_the_ranges_in_order_with_dependent_ends():
@@ -63,7 +63,7 @@ def test_a_template_without_parameters_is_refused():
 
 
 def test_a_range_end_with_an_unknown_name_is_refused():
-    with pytest.raises(ArgumentError, match="range"):
+    with pytest.raises(ArgumentError, match=r"--param a=0\.\.c"):
         Family("$a", (("a", "0..c"),)).assignments()
 
 
@@ -75,3 +75,26 @@ def test_huge_families_are_refused_before_any_member_is_made(monkeypatch):
     assert len(Family("$a", (("a", "1..6"),)).assignments()) == 6
     with pytest.raises(ArgumentError, match="more than 6"):
         Family("$a", (("a", "1..7"),)).assignments()
+
+
+@pytest.mark.parametrize(("ranges", "constraints", "text", "position"), [
+    ((("a", "0..3"), ("b", "0..(a")), (), "b=0..(a", 7),
+    ((("a", " 2*)..3"),), (), "a= 2*)..3", 5),
+    ((("a", "0..3"),), ("a + 1 <= (2 a",), "a + 1 <= (2 a", 13),
+    ((("a", "0..3"),), ("a +* 1 <= 2",), "a +* 1 <= 2", 3),
+])
+def test_a_syntax_error_is_placed_in_the_range_or_constraint_as_typed(ranges, constraints,
+                                                                       text, position):
+    # found by a trial: the column counted in one end of a range or one side of a
+    # constraint, not in the text given
+    with pytest.raises(ParseError) as caught:
+        list(Family("$a", ranges, constraints).members())
+    assert (caught.value.text, caught.value.position) == (text, position)
+
+
+def test_an_end_that_is_no_number_names_the_range_and_its_column():
+    with pytest.raises(ArgumentError, match=r"--param a=0\.\.x: .*column 6"):
+        Family("$a", (("a", "0..x"),)).assignments()
+    with pytest.raises(ArgumentError, match=r"constraint 'a <= 2 x' at .*column 8"):
+        list(Family("$a", (("a", "0..1"),), ("a <= 2 x",)).members())
+

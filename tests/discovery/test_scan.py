@@ -47,12 +47,26 @@ ROGERS4 = Family("sum_{n>=0} q^(n^2+$b n)/(q^4;q^4)_n", (("b", "0..3"),))
 ROGERS4_PRODUCTS = {(("b", 0),): "1/((-q^2;q^2)_inf (q;q^5)_inf (q^4;q^5)_inf)",
                     (("b", 2),): "1/((-q^2;q^2)_inf (q^2;q^5)_inf (q^3;q^5)_inf)"}
 
+# A double sum: the Andrews-Gordon identities for k = 3 (modulus 7), G. E. Andrews, Proc. Nat.
+# Acad. Sci. USA 71 (1974), 4082-4085; The Theory of Partitions, 1976, Thm. 7.8 (from
+# memory): with N_1 = i + j, N_2 = j, sum q^(N_1^2 + N_2^2 + N_r + ... + N_2)/((q;q)_i (q;q)_j)
+# = prod over n not = 0, +-r (mod 7) of 1/(1 - q^n), for r = 3, 2, 1
+AG7 = Family("sum_{i>=0} sum_{j>=0} q^(i^2+2 i j+2 j^2+$a i+$b j)/((q;q)_i (q;q)_j)",
+             (("a", "0..2"), ("b", "0..2")))
+AG7_PRODUCTS = {(("a", 0), ("b", 0)): "1/(q,q^2,q^5,q^6;q^7)_inf",
+                (("a", 0), ("b", 1)): "1/(q,q^3,q^4,q^6;q^7)_inf",
+                (("a", 1), ("b", 2)): "1/(q^2,q^3,q^4,q^5;q^7)_inf"}
+
 # Ramanujan's third-order mock theta functions f(q) = sum q^(n^2)/(-q;q)_n^2 and
 # phi(q) = sum q^(n^2)/(-q^2;q^2)_n (G. N. Watson, J. London Math. Soc. 11 (1936)) are not
 # modular (M. Griffin, K. Ono and L. Rolen, Ramanujan's mock theta functions, PNAS 110
 # (2013), from memory), while c q^s times a product with periodic exponents is a
 # generalised eta product, which is (S. Robins, Contemp. Math. 166, 1994): no product form
 MOCK = Family("sum_{n>=0} q^(n^2)/(-q^$c;q^$c)_n^$(3-c)", (("c", "1..2"),))
+# and the fifth-order f_0(q) = sum q^(n^2)/(-q;q)_n and f_1(q) = sum q^(n^2+n)/(-q;q)_n
+# (G. N. Watson, Proc. London Math. Soc. (2) 42 (1937), 274-304, from memory), mock theta
+# functions too
+MOCK5 = Family("sum_{n>=0} q^(n^2+$b n)/(-q;q)_n", (("b", "0..1"),))
 
 
 def _hits(report):
@@ -65,7 +79,8 @@ def _agrees(found, published):
 
 @pytest.mark.parametrize("family, published", [(RR, RR_PRODUCTS), (MOD14, MOD14_PRODUCTS),
                                                (MOD20, MOD20_PRODUCTS),
-                                               (ROGERS4, ROGERS4_PRODUCTS)])
+                                               (ROGERS4, ROGERS4_PRODUCTS),
+                                               (AG7, AG7_PRODUCTS)])
 def test_rediscovers_published_identities(family, published):
     report = run_scan(family, Criteria(order=ORDER), engine=InlineEngine())
     hits = _hits(report)
@@ -86,10 +101,11 @@ def test_the_rogers_ramanujan_hits_confirmed_at_the_full_order_only():
 
 
 def test_mock_theta_functions_have_no_product_form():
-    report = run_scan(MOCK, Criteria(order=ORDER, max_period=40, max_exponent=20),
-                      engine=InlineEngine())
-    assert report.groups == ()
-    assert [o.status for o in report.outcomes] == ["rejected", "rejected"]
+    for family in (MOCK, MOCK5):
+        report = run_scan(family, Criteria(order=ORDER, max_period=40, max_exponent=20),
+                          engine=InlineEngine())
+        assert report.groups == ()
+        assert [o.status for o in report.outcomes] == ["rejected", "rejected"]
 
 
 def test_a_period_above_the_bound_is_no_hit():
@@ -117,6 +133,15 @@ def test_trivially_related_members_are_grouped():
     # b = -1, c = 1 is (1;q^2)_inf = 0: no product form
     zero = next(o for o in report.outcomes if o.params == (("b", -1), ("c", 1)))
     assert zero.status == "rejected" and "vanishes" in zero.reason
+
+
+def test_equal_series_are_grouped():
+    # (q^a;q^5)_inf (q^(5-a);q^5)_inf is symmetric in a and 5 - a
+    family = Family("1/((q^$a;q^5)_inf (q^$(5-a);q^5)_inf)", (("a", "1..4"),))
+    report = run_scan(family, Criteria(order=200), engine=InlineEngine())
+    groups = {g.representative.params: [(r.member.params, r.equal) for r in g.related]
+              for g in report.groups}
+    assert groups == {(("a", 1),): [((("a", 4),), True)], (("a", 2),): [((("a", 3),), True)]}
 
 
 def test_a_q_shift_is_grouped():
@@ -215,6 +240,26 @@ def test_resume_recomputes_nothing_already_recorded(tmp_path, monkeypatch):
     assert len(calls) == 12
     assert resumed.outcomes == whole.outcomes
     assert _hits(resumed) == _hits(whole) and len(whole.groups) == 3
+
+
+def test_resume_runs_again_the_members_an_engine_lost(tmp_path, monkeypatch):
+    # a member listed as failed because its batch could not be run (stage "engine") has no
+    # outcome of its own: a resumed scan computes it
+    from qseries.discovery import MemberOutcome
+    criteria = Criteria(order=100)
+    path = tmp_path / "hits.toml.progress"
+    header = record_header(RR, criteria)
+    with ScanRecord.create(path, header) as record:
+        record.append([MemberOutcome(0, (("b", 0),), "", "failed", reason="worker lost",
+                                     stage="engine"),
+                       MemberOutcome(1, (("b", 1),), "", "failed", reason="no",
+                                     stage="evaluation")])
+    calls = _counting(monkeypatch)
+    with ScanRecord.resume(path, header) as record:
+        report = run_scan(RR, criteria, engine=InlineEngine(), record=record)
+    assert sorted(calls) == [0, 2, 3]
+    assert (report.resumed, report.computed) == (1, 3)
+    assert report.outcomes[0].status == "hit" and report.outcomes[1].status == "failed"
 
 
 def test_a_resumed_scan_must_be_the_same_scan(tmp_path):
