@@ -75,7 +75,7 @@ def main() -> None:
         distributed = None
     if distributed is not None:
         with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=True,
-                                      dashboard_address=None, silence_logs=50) as cluster, \
+                                      dashboard_address=":0", silence_logs=50) as cluster, \
                 distributed.Client(cluster) as client:
             with DaskEngine(client=client) as engine:
                 results.append(("Dask LocalCluster, 2 workers", *timed(engine, criteria,

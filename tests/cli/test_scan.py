@@ -110,7 +110,7 @@ def test_members_that_fail_are_listed_not_fatal():
 def test_a_dask_scheduler_address(tmp_path):
     distributed = pytest.importorskip("distributed")
     with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=False,
-                                  dashboard_address=None, silence_logs=50) as cluster:
+                                  dashboard_address=":0", silence_logs=50) as cluster:
         r = run(RR, "-p", "b=0..3", "-n", "200", "--cluster", cluster.scheduler_address,
                 "--json")
         import dask.config

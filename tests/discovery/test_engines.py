@@ -41,8 +41,10 @@ def _hits(report):
 
 
 def _cluster(processes):
+    # dashboard_address=None still serves the dashboard on port 8787 (a clash with any other
+    # cluster on the machine); ":0" lets the system choose a free port
     return distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=processes,
-                                    dashboard_address=None, silence_logs=50)
+                                    dashboard_address=":0", silence_logs=50)
 
 
 def test_the_family_has_the_three_mod_14_hits(inline):
