@@ -783,8 +783,7 @@ def test_the_command_line_does_not_load_what_its_command_does_not_use():
     # command line (a start-up cost of every command; README, Speed)
     probe = ("import sys, qseries.cli.main; "
              "print(sorted(m for m in sys.modules if m == 'html' or m.startswith("
-             "('qseries.modularity', 'qseries.report.notebook', 'qseries.report.proof', "
-             "'qseries.cli.demo'))))")
+             "('qseries.modularity', 'qseries.report.notebook', 'qseries.cli.demo'))))")
     done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True,
                           timeout=120, check=True)
     assert done.stdout.strip() == "[]"
