@@ -796,7 +796,7 @@ def verify(
 
     entries = _load(paths, only or [])
     t0 = time.perf_counter()
-    console = streams.stdout_console()
+    console = None if as_json else streams.stdout_console()    # rich: not for --json
     interrupted = streamed = False
     labels = {e.ident: e.label for e in entries}
     expects = {e.ident: e.expect for e in entries}
