@@ -54,7 +54,8 @@ def keep_heap_pad(pad: int = HEAP_PAD, block: int = HEAP_BLOCK) -> bool:
 
 def _libc_name() -> str:
     """"glibc" under glibc, else "": what ``platform.libc_ver()[0]`` reads first (from
-    ``confstr``), without importing :mod:`platform` (a millisecond of every start-up)."""
+    ``confstr``), without importing :mod:`platform` (a millisecond of ``import qseries``;
+    the command line's typer imports it all the same)."""
     try:
         name = os.confstr("CS_GNU_LIBC_VERSION")
     except (AttributeError, ValueError, OSError):
