@@ -31,6 +31,7 @@ from .analysis import (
                        product_form,
                        relations,
 )
+from .analysis.display import register_later
 from .backend import GF, QQ, ZZ, laurent_ring
 from .engine import evaluate
 from .errors import (
@@ -44,9 +45,30 @@ from .errors import (
                        UnableError,
 )
 from .lang import parse, show
-from .modularity import prove
-from .report import notebook as _notebook  # noqa: F401  (registers the notebook displays)
 from .series import Series
+
+
+def _notebook() -> None:
+    """Register the notebook displays of results (HTML, LaTeX, IPython's text)."""
+    from .report import notebook  # noqa: F401
+
+
+register_later(_notebook)      # at the first display, not now: the command line shows none
+
+
+def __getattr__(name: str) -> object:
+    """``prove`` is imported on first use: the modular-form machinery is needed by ``prove``
+    alone, not by ``import qseries`` or the other commands."""
+    if name == "prove":
+        from .modularity import prove
+
+        globals()["prove"] = prove
+        return prove
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
+
+def __dir__() -> list[str]:
+    return sorted({*globals(), "prove"})
 
 __version__ = "0.1.0"
 

@@ -5,8 +5,9 @@ The result classes of :mod:`qseries.analysis` (``CheckResult``, ``ProductForm``,
 (the methods Jupyter calls) and ``_repr_pretty_`` (IPython's plain text) look the renderer
 up in a table.  The renderers live in the
 report layer, below this one (:mod:`qseries.report.notebook`), which fills the table when it
-is imported; ``import qseries`` imports it.  With no renderer registered, the methods return
-None and Jupyter shows the plain text.
+is imported; ``import qseries`` asks for that import to happen before the first lookup
+(:func:`register_later`), so a program that displays nothing never loads it.  With no
+renderer registered, the methods return None and Jupyter shows the plain text.
 
 >>> class Answer(Displayed):
 ...     pass
@@ -26,6 +27,8 @@ from typing import Any
 KINDS = ("html", "latex", "text")
 
 _RENDERERS: dict[tuple[type, str], Callable[[Any], str]] = {}
+#: loaders of renderers not yet run (each registers some when called)
+_PENDING: list[Callable[[], object]] = []
 
 
 def register_display(cls: type, kind: str, render: Callable[[Any], str]) -> None:
@@ -42,6 +45,19 @@ def register_display(cls: type, kind: str, render: Callable[[Any], str]) -> None
     _RENDERERS[(cls, kind)] = render
 
 
+def register_later(load: Callable[[], object]) -> None:
+    """Call ``load()``, which registers renderers, once, before the next lookup of a
+    rendering (rather than now).
+
+    >>> class Later(Displayed):
+    ...     pass
+    >>> register_later(lambda: register_display(Later, "text", lambda x: "registered later"))
+    >>> rendered(Later(), "text")
+    'registered later'
+    """
+    _PENDING.append(load)
+
+
 def rendered(obj: object, kind: str) -> str | None:
     """The registered ``kind`` rendering of ``obj`` (by its class, then its bases), or
     None when there is none.
@@ -49,6 +65,8 @@ def rendered(obj: object, kind: str) -> str | None:
     >>> rendered(3, "html") is None
     True
     """
+    while _PENDING:
+        _PENDING.pop(0)()
     for cls in type(obj).__mro__:
         render = _RENDERERS.get((cls, kind))
         if render is not None:

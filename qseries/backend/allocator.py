@@ -18,7 +18,7 @@ True
 from __future__ import annotations
 
 import ctypes
-import platform
+import os
 import sys
 
 __all__ = ["HEAP_PAD", "keep_heap_pad"]
@@ -37,10 +37,11 @@ def keep_heap_pad(pad: int = HEAP_PAD, block: int = HEAP_BLOCK) -> bool:
     bytes at its top; True when it did (Linux with glibc), False elsewhere or when the
     call is not available.
 
+    >>> import platform
     >>> keep_heap_pad() == (sys.platform.startswith("linux") and platform.libc_ver()[0] == "glibc")
     True
     """
-    if not sys.platform.startswith("linux") or platform.libc_ver()[0] != "glibc":
+    if not sys.platform.startswith("linux") or _libc_name() != "glibc":
         return False
     try:
         mallopt = ctypes.CDLL(None).mallopt
@@ -49,3 +50,14 @@ def keep_heap_pad(pad: int = HEAP_PAD, block: int = HEAP_BLOCK) -> bool:
     mallopt.argtypes = [ctypes.c_int, ctypes.c_int]
     mallopt.restype = ctypes.c_int
     return mallopt(_M_MMAP_THRESHOLD, block) == 1 and mallopt(_M_TOP_PAD, pad) == 1
+
+
+def _libc_name() -> str:
+    """"glibc" under glibc, else "": what ``platform.libc_ver()[0]`` reads first (from
+    ``confstr``), without importing :mod:`platform` (a millisecond of ``import qseries``;
+    the command line's typer imports it all the same)."""
+    try:
+        name = os.confstr("CS_GNU_LIBC_VERSION")
+    except (AttributeError, ValueError, OSError):
+        return ""
+    return name.split()[0] if name else ""

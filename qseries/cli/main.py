@@ -8,6 +8,7 @@ coefficient could be compared.
 from __future__ import annotations
 
 import contextvars
+import copy
 import inspect
 import json
 import sys
@@ -18,6 +19,7 @@ from pathlib import Path
 from typing import Annotated, Any, NoReturn
 
 import typer
+import typer.main
 from typer.core import TyperGroup
 
 from ..analysis import diagnose, dissection, distributions, product_form
@@ -75,7 +77,6 @@ from ..report.distribution import counts_csv
 from ..report.latex import check_latex, expansion_latex, product_latex
 from ..series import GF, MAX_LENGTH, Series
 from . import streams
-from .demo import DEMO_CASES
 from .progress import counted_with_bar, run_with_bar
 
 
@@ -742,6 +743,8 @@ def notation() -> None:
 def demo() -> None:
     """Run the built-in example: a published identity that holds, and an invented
     colleague's conjecture that agrees for a while and then fails."""
+    from .demo import DEMO_CASES
+
     for case in DEMO_CASES:
         typer.echo(f"== {case.story}")
         typer.echo(f"   qseries check \"{case.lhs}\" \\")
@@ -797,7 +800,7 @@ def verify(
 
     entries = _load(paths, only or [])
     t0 = time.perf_counter()
-    console = streams.stdout_console()
+    console = None if as_json else streams.stdout_console()    # rich: not for --json
     interrupted = streamed = False
     labels = {e.ident: e.label for e in entries}
     expects = {e.ident: e.expect for e in entries}
@@ -872,12 +875,28 @@ app.command(name="prove")(prove_cmd)
 from . import scan as _scan  # noqa: E402, F401 - registers qseries scan on app
 
 
-def _run_for_json() -> None:
-    """``app()`` when --json is asked for: a usage error (an option out of range, a missing
+def _for_command(argv: list[str]) -> typer.Typer:
+    """The app to run for the arguments ``argv``: when the first names a command, a copy of
+    ``app`` that registers that command alone, else ``app``.  typer turns every registered
+    command into a click command (signature, types, help texts) on each run; one is enough
+    to run one, and the group's own help, its errors and a name that is no command still
+    see them all."""
+    if argv and not argv[0].startswith("-"):
+        for info in app.registered_commands:
+            name = info.name or typer.main.get_command_name(info.callback.__name__)
+            if name == argv[0]:
+                alone = copy.copy(app)
+                alone.registered_commands = [info]
+                return alone
+    return app
+
+
+def _run_for_json(which: typer.Typer) -> None:
+    """``which()`` when --json is asked for: a usage error (an option out of range, a missing
     argument) is JSON too, {"error": {"message", "position"}}, exit 2, as every other error
     under --json is."""
     try:
-        code = app(standalone_mode=False)
+        code = which(standalone_mode=False)
     except Exception as err:            # typer's copy of click's usage errors, by their shape
         if hasattr(err, "format_message") and hasattr(err, "exit_code"):
             typer.echo(json.dumps({"error": {"message": err.format_message(),
@@ -894,10 +913,11 @@ def _run_for_json() -> None:
 
 def run() -> None:
     """Console-script entry point."""
+    which = _for_command(sys.argv[1:])
     try:
         if "--json" in sys.argv[1:]:
-            _run_for_json()
-        app()
+            _run_for_json(which)
+        which()
     except KeyboardInterrupt:
         typer.echo("qseries: interrupted", err=True)
         sys.exit(130)

@@ -4,8 +4,8 @@ the JSON shapes shared by the command line and the catalogue (:mod:`.json_shapes
 expansions and dissections (:mod:`.expansion`), congruences (:mod:`.congruences`),
 relations (:mod:`.relations`), scans (:mod:`.scan`), product forms (:mod:`.product`),
 distributions (:mod:`.distribution`), the tables of ``verify`` and ``list`` (:mod:`.tables`),
-and the HTML and LaTeX that notebooks show for results (:mod:`.notebook`, registered on
-import).
+and the HTML and LaTeX that notebooks show for results (:mod:`.notebook`, imported at the
+first display of a result or the first use of its names here, not with this package).
 
 Each function returns text, lines or plain data; printing is the caller's business.
 
@@ -41,7 +41,6 @@ from .json_shapes import (
     verify_json,
 )
 from .neighbours import neighbour_table
-from .notebook import check_html, distribution_html, product_html
 from .product import no_product_line, product_lines
 from .relations import combination_lines, relation_lines
 from .scan import relation_text, scan_json, scan_lines
@@ -72,3 +71,15 @@ __all__ = ["check_html", "check_json", "check_lines", "combination_json", "combi
            "scan_json", "scan_lines", "slowest_line",
            "sources_lines", "trend_csv", "trend_json", "verify_json", "verify_line",
            "verify_summary", "verify_table"]
+
+#: names of :mod:`.notebook`, imported on first use (PEP 562): the command line never
+#: needs its HTML (nor the standard library's ``html``)
+_NOTEBOOK = ("check_html", "distribution_html", "product_html")
+
+
+def __getattr__(name: str) -> object:
+    if name in _NOTEBOOK:
+        from . import notebook
+
+        return getattr(notebook, name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")

@@ -47,3 +47,8 @@ def test_the_pad_stops_the_page_faults():
 
 def test_keep_heap_pad_says_whether_it_applied():
     assert allocator.keep_heap_pad() is GLIBC
+
+
+def test_the_libc_is_named_as_the_platform_module_names_it():
+    # the allocator reads confstr itself rather than import platform at every start-up
+    assert (allocator._libc_name() == "glibc") is (platform.libc_ver()[0] == "glibc")

@@ -768,3 +768,62 @@ def test_expand_suggests_a_weight_when_one_may_help():
     assert run("expand", "sum_{n>=0} z^n/(q;q)_n", "-n", "5", "-w", "z=1").exit_code == 0
     r = run("expand", "sum_{n>=0} 1/(q;q)_n", "-n", "5")        # no variable, no such hint
     assert r.exit_code == 2 and "-w" not in r.stderr
+
+
+def _command_names() -> list[str]:
+    import typer.main
+
+    return list(typer.main.get_command(app).commands)
+
+
+def test_a_command_alone_runs_and_helps_as_in_the_whole_app():
+    # run() builds only the command named first (typer turns every registered command into
+    # a click command on each run); the command's help, its parameters and a run are those
+    # of the whole app's, and anything else (no command, an option, a typo) gets the app
+    import typer.main
+
+    from qseries.cli.main import _for_command
+
+    whole = typer.main.get_command(app)
+    names = _command_names()
+    assert {"check", "expand", "verify", "prove", "scan", "list"} <= set(names)
+    for name in names:
+        alone = _for_command([name, "--help"])
+        built = typer.main.get_command(alone)
+        assert list(built.commands) == [name]
+        assert [p.name for p in built.commands[name].params] == \
+            [p.name for p in whole.commands[name].params]
+        assert runner.invoke(alone, [name, "--help"]).stdout == \
+            runner.invoke(app, [name, "--help"]).stdout
+    for argv in ([], ["--help"], ["--version"], ["chek", "q", "q"], ["q"]):
+        assert _for_command(argv) is app
+    one = runner.invoke(_for_command(["check", "q", "q"]), ["check", "q", "q", "-n", "5"])
+    whole = run("check", "q", "q", "-n", "5")          # the same but for the time taken
+    assert one.exit_code == whole.exit_code == 0
+    assert one.stdout.splitlines()[0] == whole.stdout.splitlines()[0]
+    assert one.stdout.splitlines()[0].startswith("AGREES")
+
+
+def test_the_command_line_does_not_load_what_its_command_does_not_use():
+    # the modular-form proofs (only prove needs them), the notebook renderers (with the
+    # standard library's html) and the demo's cases are imported when used, not with the
+    # command line (a start-up cost of every command; README, Speed)
+    probe = ("import sys, qseries.cli.main; "
+             "print(sorted(m for m in sys.modules if m == 'html' or m.startswith("
+             "('qseries.modularity', 'qseries.report.notebook', 'qseries.cli.demo'))))")
+    done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True,
+                          timeout=120, check=True)
+    assert done.stdout.strip() == "[]"
+    # verify --json prints no rich table, so it does not import rich (a third of its start)
+    probe = ("import sys, qseries.cli.main as m\n"
+             "sys.argv = ['qseries', 'verify', '--only', 'rogers-ramanujan-1', '-n', '20', "
+             "'-j', '1', '--json']\n"
+             "try:\n    m.run()\nexcept SystemExit as done:\n    code = done.code\n"
+             "print(code, 'rich' in sys.modules)\n")
+    done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True,
+                          timeout=120, check=True)
+    assert done.stdout.split()[-2:] == ["0", "False"]
+    # and they still load when used: prove's module, the demo
+    assert run("prove", "(q;q)_inf", "sum_{n=-inf}^{inf} (-1)^n q^(n(3n-1)/2)",
+               "--json").exit_code == 0
+    assert "Rogers-Ramanujan" in run("demo").stdout

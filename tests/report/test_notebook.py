@@ -132,3 +132,21 @@ def test_ipython_plain_text_is_what_the_command_line_prints():
     [d] = distributions("sum_{k>=0} w^k q^(k^2)/(q;q)_k^2", "w", [10])
     assert pretty(d) == "\n".join(distribution_lines(d, "w", 6))
     assert "<th>w</th>" in d._repr_html_()
+
+
+def test_import_qseries_registers_the_renderers_for_the_first_display():
+    # the renderers are imported at the first display (not with the package, which the
+    # command line imports too); a fresh process sees them registered all the same, and
+    # qseries.prove (the modular-form machinery) likewise loads on first use
+    import subprocess
+    import sys
+
+    probe = (
+        "import sys, qseries\n"
+        "print('qseries.report.notebook' in sys.modules, 'qseries.modularity' in sys.modules)\n"
+        "r = qseries.check('1/(1-q)', '1 + q', order=5)\n"
+        "print(r._repr_html_().startswith('<div'), 'qseries.report.notebook' in sys.modules)\n"
+        "print(qseries.prove is sys.modules['qseries.modularity.prove'].prove)\n")
+    done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True,
+                          timeout=120, check=True)
+    assert done.stdout.split() == ["False", "False", "True", "True", "True"]
