@@ -7,6 +7,23 @@ mu(n/d) C_d by Moebius inversion.  Everything is exact.  Periodic exponents
 (e_{n+m} = e_n) are printed as powers of (q^r;q^m)_inf, and as an eta quotient where e_n
 depends only on gcd(n, m).
 
+Two ways to the exponents, the same numbers:
+
+* :func:`exponents_of`, the reference: q g'/g by the exact inverse of g over ZZ (or QQ) and
+  one product, then the Moebius inversion.  The inverse of a series whose coefficients
+  have hundreds of bits costs several products at that size (at order 10^5, 3 s of the
+  7 s the whole recovery of the Rogers-Ramanujan product took).
+* :func:`exponents_verified`, used first at every order: the expression is evaluated as
+  numerator and unit denominator (``Evaluator.evaluate_parts``: a sum by binary splitting
+  or a product chain leaves its last division undone, so f itself is never divided out),
+  the log derivative of each modulo one prime near 2^62, lifted to the least integers and
+  checked exactly (``backend.logderiv.small_log_derivative``: q p' = c p over ZZ), and
+  C = C_num - C_den turned into n e_n by a divisor sieve on Python ints (the multiples of
+  each n with e_n != 0: O(N log N), fewer when exponents vanish).  When a lift fails the
+  check (the C_n are not integers of at most ``LIFT_BITS`` bits: no product with small
+  exponents), the reference is used; the answer is exact either way.  There is no order
+  threshold: the verified way is not slower at any order measured (100 .. 10^5).
+
 >>> pf = product_form("sum_{k>=0} q^(k^2)/(q;q)_k", 60)
 >>> pf.period, pf.expression
 (5, '(q, q^4;q^5)_inf^-1')
@@ -19,9 +36,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from ..engine import evaluate
-from ..errors import DomainError
-from ..lang import Node
+from ..backend.logderiv import small_log_derivative
+from ..engine import Evaluator, evaluate
+from ..errors import ArgumentTypeError, DomainError, integer_argument, typed_argument
+from ..lang import Node, parse
+from ..lang.ast import extra_variables
 from ..series import QQ, ZZ, Ring, Series
 from ..series.formatting import format_exponent, format_term, short_number_text
 from .display import Displayed
@@ -119,6 +138,54 @@ def exponents_of(g: Series, length: int) -> list[Fraction]:
                     out[n] -= m * cd
     return [Fraction(out[n], n) if isinstance(out[n], int) else out[n] / n
             for n in range(1, length)]
+
+
+def exponents_from_log_derivative(big_c: list[int], length: int) -> list[int | Fraction]:
+    """e_1..e_(length-1) from the integers C_1..C_(length-1) (``big_c[n]``; ``big_c[0]``
+    unused) with C_n = -sum_{d | n} d e_d: b_n = n e_n = -C_n - sum_{d | n, d < n} b_d by a
+    sieve over the multiples of each n with b_n != 0; e_n an int, or a Fraction where n
+    does not divide b_n.
+
+    >>> exponents_from_log_derivative([0, -1, -3, -4, -7, -6], 6)   # (q;q)_inf
+    [1, 1, 1, 1, 1]
+    """
+    s = [-x for x in big_c[:length]]
+    for n in range(1, length):
+        b = s[n]
+        if b:
+            for m in range(2 * n, length, n):
+                s[m] -= b
+    return [b // n if b % n == 0 else Fraction(b, n) for n, b in enumerate(s) if n]
+
+
+def exponents_verified(num: Series, length: int, den: Series | None = None
+                       ) -> list[int | Fraction] | None:
+    """e_1..e_(length-1) with num/den = c q^v prod (1 - q^n)^(e_n) + O(q^(v+length)), for
+    ``num`` over ZZ with integer exponents (leading term c q^v) and ``den`` over ZZ of
+    valuation 0 with constant term +-1 (or None), both known that far; None when the log
+    derivative of either has coefficients that are not small integers (then use
+    :func:`exponents_of`).  Exact: see ``backend.logderiv``.
+
+    >>> from qseries.engine import evaluate
+    >>> exponents_verified(evaluate("3 q^2 (q;q^2)_inf^2", 8), 6)
+    [2, 0, 2, 0, 2]
+    """
+    for x in (num, den):
+        if x is not None and (x.ring != ZZ or x.den != 1 or x.is_zero()):
+            return None
+    if den is not None and (den.start != 0 or den.offset != 0 or den.poly[0] not in (1, -1)):
+        return None
+    if length <= 1:
+        return []
+    big_c = small_log_derivative(num.poly, length)
+    if big_c is None:
+        return None
+    if den is not None:
+        c_den = small_log_derivative(den.poly, length)
+        if c_den is None:
+            return None
+        big_c = [a - b for a, b in zip(big_c, c_den, strict=True)]
+    return exponents_from_log_derivative(big_c, length)
 
 
 def find_period(ex: list[int], min_repetitions: int = MIN_REPETITIONS) -> int | None:
@@ -221,33 +288,53 @@ def _constant_text(c: Number) -> str:
     return f"({c}) " if isinstance(c, Fraction) and c.denominator != 1 else f"{c} "
 
 
-def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
-    """The product form of a series (or an expression evaluated to ``order``).
+def product_form(expr: str | Node | Series | tuple[Series, Series | None], order: int = 100
+                 ) -> ProductForm:
+    """The product form of a series (or an expression evaluated to ``order``, or what
+    :func:`product_parts` gave for it at ``order``).
 
     Raises DomainError when the series is zero to this order or its exponents are not all
     integers ("no product form of this kind to this order").
     """
-    f = expr if isinstance(expr, Series) else evaluate(expr, order)
-    if getattr(f.ring, "names", ()):
-        raise DomainError("product forms are recovered for series in q alone; this one has "
-                          f"coefficients in {', '.join(f.ring.names)}")  # type: ignore[attr-defined]
-    f.one_class("a product form prod (1-q^n)^(e_n)")
-    v = f.valuation
-    if v is None:
-        raise DomainError("the series vanishes to this order; it has no product form")
-    c = f.coefficient(v)
-    g = f * Series.monomial(-Fraction(v), f.ring)
-    if c != 1:
-        g = g * (Fraction(1) / Fraction(c))
-    known = g.precision
-    length = int(known) if known is not None else order
-    ex = exponents_of(g, length)
+    if isinstance(expr, tuple):
+        if (len(expr) != 2 or not isinstance(expr[0], Series)
+                or not isinstance(expr[1], (Series, type(None)))):
+            raise ArgumentTypeError("expr as a pair must be (numerator, denominator or None) "
+                                    "as product_parts gives")
+        num, den = expr
+    else:
+        num, den = product_parts(expr, order)
+    if den is not None:
+        v = num.valuation
+        if v is None:
+            raise DomainError("the series vanishes to this order; it has no product form")
+        c = num.coefficient(v) * den.coefficient(0)    # den(0) = +-1
+        known: Exponent | None = order - v
+        length = order - v
+        ex = exponents_verified(num, length, den)
+        if ex is None:
+            ex = exponents_of(_normalised(num * den.inverse(order=order), v, c), length)
+    else:
+        f = num
+        if getattr(f.ring, "names", ()):
+            raise DomainError("product forms are recovered for series in q alone; this one "
+                              f"has coefficients in {', '.join(f.ring.names)}")  # type: ignore[attr-defined]
+        f.one_class("a product form prod (1-q^n)^(e_n)")
+        v = f.valuation
+        if v is None:
+            raise DomainError("the series vanishes to this order; it has no product form")
+        c = f.coefficient(v)
+        known = _normalised(f, v, 1).precision
+        length = int(known) if known is not None else order
+        ex = exponents_verified(f, length) if f.ring == ZZ else None
+        if ex is None:
+            ex = exponents_of(_normalised(f, v, c), length)
     for n, e in enumerate(ex, start=1):
-        if e.denominator != 1:
+        if not isinstance(e, int) and e.denominator != 1:
             raise DomainError(f"no product form prod (1-q^n)^(e_n) with integer exponents to "
                               f"this order: the exponent of (1-q^{n}) would be "
                               f"{short_number_text(e)}")
-    ints = [int(e) for e in ex]
+    ints = [e if isinstance(e, int) else int(e) for e in ex]
     period = find_period(ints) if ints else None
     reps = len(ints) // period if period else 0
     prefix = _constant_text(c) + ("" if v == 0 else f"{_q(v)} ")
@@ -301,3 +388,36 @@ def product_form(expr: str | Node | Series, order: int = 100) -> ProductForm:
         expression += "1"
     return ProductForm(known if known is not None else order, c, v, ints, period, reps,
                        expression, eta_text, factors=short)
+
+
+def _normalised(f: Series, v: Exponent, c: Number) -> Series:
+    """g = f / (c q^v) = 1 + O(q)."""
+    g = f * Series.monomial(-Fraction(v), f.ring)
+    return g if c == 1 else g * (Fraction(1) / Fraction(c))
+
+
+def product_parts(expr: str | Node | Series, order: int) -> tuple[Series, Series | None]:
+    """What :func:`product_form` reads: the value of ``expr`` modulo q^order as (f, None),
+    or as (numerator, denominator) over ZZ when it evaluates so
+    (``Evaluator.evaluate_parts``: the denominator a unit with constant term +-1, both known
+    modulo q^order, integer exponents), so that f itself is never divided out; an
+    expression in extra variables is evaluated as a whole, a series is returned as it is.
+
+    >>> product_parts("1/((q;q^5)_inf (q^4;q^5)_inf)", 8)
+    (1 - q^5 + O(q^8), 1 - q - q^4 + q^7 + O(q^8))
+    """
+    typed_argument("expr", expr, (str, Node, Series),
+                   "a string, a syntax tree from qseries.parse or a series")
+    if isinstance(expr, Series):
+        return expr, None
+    integer_argument("order", order, 0)
+    node = parse(expr) if isinstance(expr, str) else expr
+    if extra_variables(node):
+        return evaluate(node, order), None
+    num, den = Evaluator(ZZ).evaluate_parts(node, order)
+    if den is None:
+        return num, None
+    if (num.ring != ZZ or den.ring != ZZ or num.den != 1 or den.den != 1 or num.offset != 0
+            or den.offset != 0 or den.start != 0 or den.poly[0] not in (1, -1)):
+        return evaluate(node, order), None
+    return num, den
