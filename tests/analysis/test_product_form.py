@@ -1,6 +1,10 @@
 """Product-form recovery against published product sides, with sources named."""
 
+from fractions import Fraction
+
 import pytest
+from hypothesis import given
+from hypothesis import strategies as st
 
 from qseries import check
 from qseries.analysis.product_form import find_period, mobius_table, product_form
@@ -121,3 +125,123 @@ def test_an_order_too_low_for_the_period_says_so():
     low = product_form("(q;q^37)_inf", 60)
     assert low.expression is None and "too low" in low.reason and "3m + 1" in low.reason
     assert product_form("(q;q^37)_inf", 112).period == 37
+
+
+# -- issue 19: the verified log derivative (exponents_verified) against the reference ----
+def _product_series(exponents, n):
+    """prod (1 - q^j)^(e_j) + O(q^n) built factor by factor (series arithmetic)."""
+    from qseries.series import Series
+    f = Series.constant(1).truncate(n)
+    for j, e in exponents.items():
+        factor = Series.from_coefficients([1] + [0] * (j - 1) + [-1])
+        f = f * (factor ** e if e >= 0 else factor.inverse(order=n) ** -e)
+        f = f.truncate(n)
+    return f
+
+
+@given(st.dictionaries(st.integers(1, 15), st.integers(-3, 3), max_size=5),
+       st.integers(1, 40), st.sampled_from([1, -1, 2]))
+def test_verified_exponents_equal_the_reference_on_products(exponents, n, c):
+    from qseries.analysis.product_form import exponents_of, exponents_verified
+    f = _product_series(exponents, n) * c
+    got = exponents_verified(f, n)
+    g = f * Fraction(1, c)
+    assert got == exponents_of(g, n)
+    assert got == [exponents.get(j, 0) for j in range(1, n)]
+
+
+@given(st.lists(st.integers(-50, 50), min_size=1, max_size=30), st.integers(1, 30))
+def test_verified_exponents_on_any_series_are_the_reference_or_none(rest, n):
+    from qseries.analysis.product_form import exponents_of, exponents_verified
+    from qseries.series import Series
+    g = Series.from_coefficients([1, *rest], prec=len(rest) + 1)
+    n = min(n, len(rest) + 1)
+    got = exponents_verified(g, n)
+    assert got is None or got == exponents_of(g, n)
+
+
+@given(st.lists(st.integers(-10**9, 10**9), max_size=40))
+def test_the_divisor_sieve_inverts_the_divisor_sums(c_tail):
+    # C_n = -sum_{d | n} d e_d: from any integers C the sieve's e_n (ints or Fractions)
+    # give them back
+    from qseries.analysis.product_form import exponents_from_log_derivative
+    big_c = [0, *c_tail]
+    ex = exponents_from_log_derivative(big_c, len(big_c))
+    for k in range(1, len(big_c)):
+        assert -sum(d * ex[d - 1] for d in range(1, k + 1) if k % d == 0) == big_c[k]
+
+
+def _forbid_reference(monkeypatch):
+    import sys
+    module = sys.modules["qseries.analysis.product_form"]
+
+    def refuse(*_args):
+        raise AssertionError("the reference exponents_of was called")
+
+    monkeypatch.setattr(module, "exponents_of", refuse)
+
+
+def test_published_products_by_the_verified_path(monkeypatch):
+    _forbid_reference(monkeypatch)
+    # Rogers-Ramanujan: exponents -1 exactly at n = 1, 4 mod 5 (first identity) and
+    # n = 2, 3 mod 5 (second); Andrews, The Theory of Partitions, Cor. 7.9
+    for text, residues in (("sum_{k>=0} q^(k^2)/(q;q)_k", {1, 4}),
+                           ("sum_{k>=0} q^(k^2+k)/(q;q)_k", {2, 3})):
+        pf = product_form(text, 2000)
+        assert pf.exponents == [-1 if n % 5 in residues else 0 for n in range(1, 2000)]
+    # Euler: (-q;q)_inf = 1/(q;q^2)_inf (Andrews, The Theory of Partitions, Cor. 1.2)
+    pf = product_form("(-q;q)_inf", 1500)
+    assert pf.exponents == [-1 if n % 2 else 0 for n in range(1, 1500)]
+    assert pf.expression == "(q;q^2)_inf^-1"
+    # Euler's generating function of partitions, 1/(q;q)_inf: every exponent -1
+    assert set(product_form("1/(q;q)_inf", 1500).exponents) == {-1}
+    assert set(product_form("sum_{n>=0} q^n/(q;q)_n", 800).exponents) == {-1}
+
+
+def test_exponents_too_large_to_lift_go_to_the_reference():
+    # (1 - q)^(2^60) (1 - q^2): C_n needs more than the second prime's 56 bits; the
+    # reference gives the exponents, the same as the verified path would
+    from math import comb
+
+    from qseries.series import Series
+    e, n = 2**60, 12
+    p = [(-1) ** k * comb(e, k) for k in range(n)]
+    f = Series.from_coefficients(p, prec=n) * Series.from_coefficients([1, 0, -1])
+    pf = product_form(f, n)
+    assert pf.exponents == [e, 1] + [0] * (n - 3)
+
+
+@pytest.mark.parametrize("expr", [
+    "sum_{k>=0} q^(k^2)/(q;q)_k",
+    "sum_{n>=0} q^(n^2) (-q;q^2)_n/(q^2;q^2)_n",
+    "1/((q;q^5)_inf (q^4;q^5)_inf)",
+    "-q^2 (q^2;q^7)_inf^2 (q^5;q^7)_inf^-1",
+    "2 q^3 (q;q^2)_inf",
+    "3 (q;q)_inf/(q^2;q^2)_inf",
+    "eta(q)^3/eta(q^2)",
+    "theta_3(q)",
+    "1/(q;q)_inf + q^40",
+    "1 + 2q",
+    "(1-q)(1-q^3)^2",
+    "sum_{k>=0} q^(k^2)/(q;q)_k^2",
+    "sum_{n>=0} q^n/(q;q)_n",
+    # numerator and denominator (binary splitting): valuation, sign and constant
+    "sum_{k>=1} q^(k^2)/(q;q)_k",
+    "-sum_{k>=0} q^(k^2+k)/(q;q)_k",
+    "sum_{k>=0} 2 q^(k^2+k)/(q;q)_k",
+    "sum_{k>=0} q^(k^2+3)/(q;q)_k",
+    "sum_{n>=0} q^(n^2+n)/((q;q)_n (q;q)_(n+1))",
+])
+def test_the_parts_give_the_same_product_form_as_the_series(expr):
+    # product_parts leaves the division undone; the result is the one of the value
+    from dataclasses import asdict
+
+    from qseries.engine import evaluate
+
+    def outcome(x):
+        try:
+            return asdict(product_form(x, 90))
+        except DomainError as err:
+            return str(err)
+
+    assert outcome(expr) == outcome(evaluate(expr, 90))
