@@ -245,3 +245,34 @@ def test_the_parts_give_the_same_product_form_as_the_series(expr):
             return str(err)
 
     assert outcome(expr) == outcome(evaluate(expr, 90))
+
+
+def test_periodic_break_against_the_definition():
+    # every 0/1/2 sequence of length 6 to 9 (and long ones below): the m <= n/3 whose first
+    # break e_i != e_(i-m) comes last, among those holding at least 3 periods (the scan of
+    # every m, which periodic_break replaced by the Z-function, issue 19)
+    from itertools import product
+
+    from qseries.analysis.product_form import periodic_break, z_function
+
+    def by_definition(ex):
+        best = None
+        for m in range(1, len(ex) // 3 + 1):
+            i = next((i for i in range(m, len(ex)) if ex[i] != ex[i - m]), None)
+            if i is None or i < 3 * m:
+                continue
+            if best is None or i + 1 > best[1]:
+                best = (m, i + 1)
+        return best
+
+    for n in range(6, 10):
+        for ex in product((0, 1, 2), repeat=n):
+            assert periodic_break(list(ex)) == by_definition(list(ex)), ex
+            assert z_function(list(ex)) == [
+                next((k for k in range(n - i) if ex[k] != ex[i + k]), n - i) for i in range(n)]
+    # a long period-5 sequence broken late, and one broken twice
+    ex = [-1 if n % 5 in (1, 4) else 0 for n in range(1, 3001)]
+    ex[2800] = 7
+    assert periodic_break(ex) == by_definition(ex) == (5, 2801)
+    ex[1500] = 3
+    assert periodic_break(ex) == by_definition(ex)
