@@ -231,6 +231,9 @@ def test_exponents_too_large_to_lift_go_to_the_reference():
     "sum_{k>=0} 2 q^(k^2+k)/(q;q)_k",
     "sum_{k>=0} q^(k^2+3)/(q;q)_k",
     "sum_{n>=0} q^(n^2+n)/((q;q)_n (q;q)_(n+1))",
+    "sum_{k=0}^{10} q^k/(q;q)_k",
+    "sum_{n>=0} (-1)^n q^(n^2)/(q;q)_n",
+    "sum_{k>=0} q^(k^2+k)/(q;q)_k/(1-q)",
 ])
 def test_the_parts_give_the_same_product_form_as_the_series(expr):
     # product_parts leaves the division undone; the result is the one of the value
