@@ -68,7 +68,7 @@ def test_any_series_gives_the_exact_answer_or_none(p, n):
 
 
 def test_the_second_prime_takes_coefficients_the_first_cannot_hold():
-    # (1 - q)^E with E = 2^30: c = -E q/(1 - q), beyond the first prime's 22 bits
+    # (1 - q)^E with E = 2^30: c = -E q/(1 - q), beyond the first prime's 26 bits
     e, n = 2**30, 12
     p = [(-1) ** k * comb(e, k) for k in range(n)]
     assert small_log_derivative(ZZ.poly(p), n) == [0] + [-e] * (n - 1)
