@@ -13,8 +13,20 @@ check (the residues of a larger c look random).  The check makes the result exac
 the size of c: a c that does not fit fails it, and None is returned (the caller computes c
 another way), never a wrong series.
 
+A second way, exact for any size of c (no prime, no check): the series quotient
+c = q p'/p modulo q^n read from one Euclidean division of polynomials over ZZ,
+rev(q p') x^(n-1) // rev(p) (``log_derivative_by_division``; rev reverses n coefficients:
+from q p' = c p + q^n R follows rev_(2n-2)(q p') = rev_(n-1)(c) rev_(n-1)(p) + rev_(n-2)(R),
+and the leading coefficient of rev_(n-1)(p) is p(0) = +-1, so the quotient is integral).
+FLINT divides by divide and conquer on products of quotient blocks, without the inverse of
+p: faster than the residues up to order about 20 000 on the Rogers-Ramanujan parts, slower
+beyond (at 10^5, 0.62 s against 0.39 s), and faster than the exact inverse where c is
+large (1/(q;q)_inf + q^2 at order 20 000: 1.6 s against 3.7 s).
+
 >>> from qseries.backend import ZZ
 >>> small_log_derivative(ZZ.poly([1, -1, -1, 0, 0, 1]), 6)   # (q;q)_inf to O(q^6)
+[0, -1, -3, -4, -7, -6]
+>>> log_derivative_by_division(ZZ.poly([1, -1, -1, 0, 0, 1]), 6)
 [0, -1, -3, -4, -7, -6]
 """
 
@@ -27,7 +39,7 @@ import flint
 from ..errors import ArgumentError, integer_argument
 from .integer import ZZ
 
-__all__ = ["LIFT_PRIMES", "theta", "small_log_derivative"]
+__all__ = ["LIFT_PRIMES", "theta", "small_log_derivative", "log_derivative_by_division"]
 
 #: (prime, bits): the primes modulo which the log derivative is computed, in turn (the
 #: largest below 2^30 and below 2^62), and the most bits a lifted coefficient may have
@@ -104,3 +116,49 @@ def _theta_mod(p: Any) -> Any:
     if p.length() <= 1:
         return p - p
     return p.derivative().left_shift(1)
+
+
+def log_derivative_by_division(p: Any, n: int) -> list[int] | None:
+    """c_0, ..., c_(n-1) (c_0 = 0) with q p' = c p + O(q^n) for a polynomial p over ZZ whose
+    constant term p(0) divides every coefficient (p / p(0) has constant term 1), exactly,
+    by one Euclidean division of the reversed polynomials; None when p(0) does not divide
+    them (c need not be integral then).
+
+    >>> from qseries.backend import ZZ
+    >>> log_derivative_by_division(ZZ.poly([3, -3]), 4)          # q (1-q)'/(1-q)
+    [0, -1, -1, -1]
+    >>> log_derivative_by_division(ZZ.poly([1, -2**40]), 4)[3]  # no limit on the size
+    -1329227995784915872903807060280344576
+    >>> log_derivative_by_division(ZZ.poly([2, 1]), 3) is None
+    True
+    """
+    ZZ._poly_argument("p", p)
+    integer_argument("n", n, 0)
+    if p.length() == 0 or p[0] == 0:
+        raise ArgumentError("p must have a nonzero constant term")
+    return _log_derivative_by_division(p, n)
+
+
+def _log_derivative_by_division(p: Any, n: int) -> list[int] | None:
+    if n <= 1:
+        return [0] * n
+    p = p.truncate(n)
+    c0 = p[0]
+    if c0 != 1 and c0 != -1:
+        if any(c % c0 for c in p.coeffs()):
+            return None
+        p = flint.fmpz_poly([c // c0 for c in p.coeffs()])
+    top = _reversed(_theta(p), n).left_shift(n - 1)        # rev_(2n-2)(q p')
+    quotient = top // _reversed(p, n)                      # rev_(n-1)(c)
+    c = [int(x) for x in quotient.coeffs()]
+    c += [0] * (n - len(c))
+    c.reverse()
+    return c
+
+
+def _reversed(p: Any, n: int) -> Any:
+    """x^(n-1) p(1/x) for p of length at most n."""
+    c = p.coeffs()
+    c += [0] * (n - len(c))
+    c.reverse()
+    return flint.fmpz_poly(c)

@@ -127,7 +127,7 @@ def test_an_order_too_low_for_the_period_says_so():
     assert product_form("(q;q^37)_inf", 112).period == 37
 
 
-# -- issue 19: the verified log derivative (exponents_verified) against the reference ----
+# -- issue 19: exponents from the parts (exponents_from_parts) against the reference -------
 def _product_series(exponents, n):
     """prod (1 - q^j)^(e_j) + O(q^n) built factor by factor (series arithmetic)."""
     from qseries.series import Series
@@ -139,25 +139,54 @@ def _product_series(exponents, n):
     return f
 
 
-@given(st.dictionaries(st.integers(1, 15), st.integers(-3, 3), max_size=5),
-       st.integers(1, 40), st.sampled_from([1, -1, 2]))
-def test_verified_exponents_equal_the_reference_on_products(exponents, n, c):
-    from qseries.analysis.product_form import exponents_of, exponents_verified
-    f = _product_series(exponents, n) * c
-    got = exponents_verified(f, n)
-    g = f * Fraction(1, c)
-    assert got == exponents_of(g, n)
+def _module():
+    import sys
+    return sys.modules["qseries.analysis.product_form"]
+
+
+#: DIVISION_MAX_LENGTH forced to 0 (residues modulo a prime, then the division) and beyond
+#: every length (the division alone): both sides of the threshold at any length
+BOTH_WAYS = pytest.mark.parametrize("division_below", [0, 10**9])
+
+
+@BOTH_WAYS
+@given(exponents=st.dictionaries(st.integers(1, 15), st.integers(-3, 3), max_size=5),
+       n=st.integers(1, 40), c=st.sampled_from([1, -1, 2]))
+def test_exponents_from_parts_equal_the_reference_on_products(division_below, exponents, n,
+                                                              c):
+    module = _module()
+    saved = module.DIVISION_MAX_LENGTH
+    module.DIVISION_MAX_LENGTH = division_below
+    try:
+        f = _product_series(exponents, n) * c
+        got = module.exponents_from_parts(f, n)
+    finally:
+        module.DIVISION_MAX_LENGTH = saved
+    assert got == module.exponents_of(f * Fraction(1, c), n)
     assert got == [exponents.get(j, 0) for j in range(1, n)]
 
 
-@given(st.lists(st.integers(-50, 50), min_size=1, max_size=30), st.integers(1, 30))
-def test_verified_exponents_on_any_series_are_the_reference_or_none(rest, n):
-    from qseries.analysis.product_form import exponents_of, exponents_verified
+@BOTH_WAYS
+@given(rest=st.lists(st.integers(-50, 50), min_size=1, max_size=30), n=st.integers(1, 30),
+       c=st.sampled_from([1, -1, 3]))
+def test_exponents_from_parts_on_any_series_are_the_reference(division_below, rest, n, c):
+    # any integer series, leading coefficient c: the reference's exponents, or None only
+    # where c does not divide the series (no integer exponents: the reference says why)
     from qseries.series import Series
-    g = Series.from_coefficients([1, *rest], prec=len(rest) + 1)
+    module = _module()
+    f = Series.from_coefficients([c, *rest], prec=len(rest) + 1)
     n = min(n, len(rest) + 1)
-    got = exponents_verified(g, n)
-    assert got is None or got == exponents_of(g, n)
+    saved = module.DIVISION_MAX_LENGTH
+    module.DIVISION_MAX_LENGTH = division_below
+    try:
+        got = module.exponents_from_parts(f, n)
+    finally:
+        module.DIVISION_MAX_LENGTH = saved
+    want = module.exponents_of(f * Fraction(1, c), n)
+    if got is None:
+        assert any(x % c for x in rest[:n - 1])
+    else:
+        assert got == want
 
 
 @given(st.lists(st.integers(-10**9, 10**9), max_size=40))
@@ -172,16 +201,13 @@ def test_the_divisor_sieve_inverts_the_divisor_sums(c_tail):
 
 
 def _forbid_reference(monkeypatch):
-    import sys
-    module = sys.modules["qseries.analysis.product_form"]
-
     def refuse(*_args):
         raise AssertionError("the reference exponents_of was called")
 
-    monkeypatch.setattr(module, "exponents_of", refuse)
+    monkeypatch.setattr(_module(), "exponents_of", refuse)
 
 
-def test_published_products_by_the_verified_path(monkeypatch):
+def test_published_products_from_the_parts(monkeypatch):
     _forbid_reference(monkeypatch)
     # Rogers-Ramanujan: exponents -1 exactly at n = 1, 4 mod 5 (first identity) and
     # n = 2, 3 mod 5 (second); Andrews, The Theory of Partitions, Cor. 7.9
@@ -198,12 +224,38 @@ def test_published_products_by_the_verified_path(monkeypatch):
     assert set(product_form("sum_{n>=0} q^n/(q;q)_n", 800).exponents) == {-1}
 
 
-def test_exponents_too_large_to_lift_go_to_the_reference():
-    # (1 - q)^(2^60) (1 - q^2): C_n needs more than the second prime's 56 bits; the
-    # reference gives the exponents, the same as the verified path would
+def test_the_first_rogers_ramanujan_product_across_the_division_threshold(monkeypatch):
+    # at lengths DIVISION_MAX_LENGTH - 1 (the division) and DIVISION_MAX_LENGTH (the
+    # residues modulo a prime): Andrews, The Theory of Partitions, Cor. 7.9
+    from qseries.backend import logderiv
+
+    _forbid_reference(monkeypatch)
+    calls = []
+    for name in ("log_derivative_by_division", "small_log_derivative"):
+        real = getattr(logderiv, name)
+
+        def spy(p, n, real=real, name=name):
+            calls.append(name)
+            return real(p, n)
+
+        monkeypatch.setattr(_module(), name, spy)
+    limit = _module().DIVISION_MAX_LENGTH
+    for order, used in ((limit - 1, "log_derivative_by_division"),
+                        (limit, "small_log_derivative")):
+        calls.clear()
+        pf = product_form("sum_{k>=0} q^(k^2)/(q;q)_k", order)
+        assert set(calls) == {used}
+        assert pf.exponents == [-1 if n % 5 in (1, 4) else 0 for n in range(1, order)]
+
+
+def test_exponents_too_large_to_lift_are_divided(monkeypatch):
+    # (1 - q)^(2^60) (1 - q^2): C_n needs more than the second prime's 56 bits; above the
+    # threshold the residues fail their check and the division gives the exponents
     from math import comb
 
     from qseries.series import Series
+    _forbid_reference(monkeypatch)
+    monkeypatch.setattr(_module(), "DIVISION_MAX_LENGTH", 0)
     e, n = 2**60, 12
     p = [(-1) ** k * comb(e, k) for k in range(n)]
     f = Series.from_coefficients(p, prec=n) * Series.from_coefficients([1, 0, -1])

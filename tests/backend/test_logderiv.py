@@ -1,5 +1,6 @@
-"""qseries.backend.logderiv: the verified log derivative q p'/p, against the pure-Python
-reference (q p' times the exact inverse of p) and divisor sums."""
+"""qseries.backend.logderiv: the log derivative q p'/p, modulo primes with the exact check
+and by the division of reversed polynomials, against the pure-Python reference (q p' times
+the exact inverse of p) and divisor sums."""
 
 from fractions import Fraction
 from math import comb
@@ -10,7 +11,12 @@ from hypothesis import strategies as st
 
 from qseries.backend import ZZ
 from qseries.backend import logderiv as ld
-from qseries.backend.logderiv import LIFT_PRIMES, small_log_derivative, theta
+from qseries.backend.logderiv import (
+    LIFT_PRIMES,
+    log_derivative_by_division,
+    small_log_derivative,
+    theta,
+)
 from qseries.errors import ArgumentError
 from qseries.series.reference import ref_inverse, ref_mul
 
@@ -109,3 +115,27 @@ def test_arguments():
     with pytest.raises(ArgumentError):
         small_log_derivative(ZZ.poly([1, 1]), -1)
     assert small_log_derivative(ZZ.poly([1, 1]), 0) == []
+
+
+@given(st.sampled_from([1, -1, 5]), st.lists(st.integers(-10**6, 10**6), max_size=25),
+       st.integers(0, 25))
+def test_the_division_is_the_reference(c0, rest, n):
+    # any size of c (no prime): exact wherever c0 divides the series (c0 = 5: 5 p)
+    p = [c0] + [c0 * x if c0 == 5 else x for x in rest]
+    assert log_derivative_by_division(ZZ.poly(p), n) == reference(p, n)
+
+
+@given(st.dictionaries(st.integers(1, 12), st.integers(-4, 4), max_size=5),
+       st.integers(0, 30))
+def test_the_division_and_the_residues_agree_on_products(exponents, n):
+    p = ZZ.poly(product_poly(exponents, max(n, 1)))
+    assert log_derivative_by_division(p, n) == small_log_derivative(p, n)
+
+
+def test_the_division_refuses_a_constant_term_that_does_not_divide():
+    # 2 + q: c = q/2 - ... is not integral; 2 + 2q has c = q/(1+q)
+    assert log_derivative_by_division(ZZ.poly([2, 1]), 4) is None
+    assert log_derivative_by_division(ZZ.poly([2, 2]), 4) == [0, 1, -1, 1]
+    assert log_derivative_by_division(ZZ.poly([7]), 3) == [0, 0, 0]
+    with pytest.raises(ArgumentError, match="nonzero constant term"):
+        log_derivative_by_division(ZZ.poly([0, 1]), 3)
