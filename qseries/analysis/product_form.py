@@ -23,8 +23,9 @@ Two ways to the exponents, the same numbers:
   C = C_num - C_den is turned into n e_n by a divisor sieve on Python ints (the multiples
   of each n with e_n != 0: O(N log N), fewer when exponents vanish).  The reference is
   left for a leading coefficient that does not divide the series (no integer exponents)
-  and series over QQ.  Neither way is slower than the reference at any order measured
-  (20 .. 10^5), products or not.
+  and series over QQ.  Not slower than the reference at any order measured: products
+  from order 20 to 10^5, and series without a product form (1/(q;q)_inf + q^2: 0.12 s
+  against 0.17 s at order 5000, 2.2 s against 4.0 s at 20 000).
 
 >>> pf = product_form("sum_{k>=0} q^(k^2)/(q;q)_k", 60)
 >>> pf.period, pf.expression
@@ -240,7 +241,7 @@ def periodic_break(ex: list[int], min_repetitions: int = MIN_REPETITIONS
     The first break of period m is at index m + z[m] (0-based), z the Z-function of the
     sequence (z[m]: the longest common prefix of ex and ex[m:]), so every m costs O(1)
     after O(n) work (a scan per m took O(n^2 / m0) on a sequence of period m0 broken late:
-    50 s at order 10^5).
+    0.8 s at order 10^4 for the Rogers-Ramanujan product plus a stray q^9900, 0.11 s now).
 
     >>> periodic_break([1, 0, 1, 0, 1, 0, 1, 0, 5, 0, 1])
     (2, 9)
