@@ -56,6 +56,28 @@ def _divisors(n: int) -> list[int]:
     return [d for d in range(1, n + 1) if n % d == 0]
 
 
+def _left_after(residual: list[int], now: int, f: Factor, period: int) -> int:
+    """How many of e_1 .. e_period stay nonzero once f's pattern is taken from
+    ``residual`` (``now`` of them nonzero before), reading only the residue classes f
+    touches: O(period/m), where building the pattern costs O(period) (the search tries
+    every class of every divisor m: O(period sigma(period)) a step that way, 0.8 s for the
+    period 1680; O(period d(period)) this way; issue 19).
+
+    >>> _left_after([1, 0, 1, 0, 1, 0], 3, Factor(1, 2, 1), 6)
+    0
+    """
+    delta: dict[int, int] = {}
+    for i in range(f.a - 1, period, f.m):
+        delta[i] = -f.k if f.minus else f.k
+    if f.minus:
+        for i in range(2 * f.a - 1, period, 2 * f.m):
+            delta[i] = delta.get(i, 0) + f.k
+    left = now
+    for i, d in delta.items():
+        left += (residual[i] != d) - (residual[i] != 0)
+    return left
+
+
 def _search(period: int, ex: list[int]) -> list[Factor] | None:
     residual = list(ex)
     chosen: list[Factor] = []
@@ -74,9 +96,7 @@ def _search(period: int, ex: list[int]) -> list[Factor] | None:
                         if minus and (period % (2 * m) or 2 * a > 2 * m):
                             continue
                         f = Factor(a, m, -k if minus else k, minus)
-                        after = [x - y for x, y in zip(residual, f.pattern(period),
-                                                       strict=True)]
-                        left = sum(1 for x in after if x)
+                        left = _left_after(residual, now, f, period)
                         if left >= now:
                             continue
                         key = (left, int(minus), m, f)

@@ -24,6 +24,7 @@ from typer.core import TyperGroup
 
 from ..analysis import diagnose, dissection, distributions, product_form
 from ..analysis.compare import MAX_PRIMES, CheckResult, check
+from ..analysis.product_form import product_parts
 from ..engine import evaluate
 from ..engine.chooser import (
     AUTO_MODULAR_ORDER,
@@ -476,13 +477,15 @@ def product(
               f"inverse series it needs holds coefficients of thousands of digits, gigabytes "
               f"at order 10^7); pass --allow-long to try order {order} anyway")
     _refuse_long(allow_long, [node], order, then=product_form)
-    series: Series = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,
-                              evaluate, node, order)
+    # numerator and denominator where the evaluation leaves its last division undone
+    parts = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,
+                     product_parts, node, order)
+    series: Series = parts[0]
     if getattr(series.ring, "names", ()):
         _fail("product forms are recovered for series in q alone; this expression has the "
               f"extra variables {', '.join(series.ring.names)}")  # type: ignore[attr-defined]
     try:
-        pf = product_form(series, order)
+        pf = product_form(parts, order)
     except QSeriesError as err:
         if as_json:
             typer.echo(json.dumps(no_product_json(order, str(err))))

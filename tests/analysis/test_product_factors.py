@@ -3,6 +3,8 @@ products built from known factors come back as those factors, and every presenta
 evaluates back to the series it came from."""
 
 import pytest
+from hypothesis import given
+from hypothesis import strategies as st
 
 from qseries import check, product_form
 from qseries.analysis.product_factors import Factor, simplest_factors, symbol_count
@@ -40,3 +42,18 @@ def test_patterns():
     assert simplest_factors(4, [-1, 1, -1, 0]) == "(-q;q^2)_inf"
     assert simplest_factors(3, [0, 0, 0]) == "1"
     assert simplest_factors(3, [1, 0]) is None            # not one period
+
+
+@given(st.data())
+def test_left_after_counts_as_the_whole_pattern_does(data):
+    # issue 19: the search counts what a factor leaves from the classes it touches; the
+    # count is the one of residual - pattern over the whole period
+    from qseries.analysis.product_factors import _left_after
+    period = data.draw(st.integers(1, 24))
+    residual = data.draw(st.lists(st.integers(-2, 2), min_size=period, max_size=period))
+    m = data.draw(st.sampled_from([d for d in range(1, period + 1) if period % d == 0]))
+    f = Factor(data.draw(st.integers(1, m)), m, data.draw(st.integers(-3, 3)),
+               data.draw(st.booleans()))
+    after = [x - y for x, y in zip(residual, f.pattern(period), strict=True)]
+    now = sum(1 for x in residual if x)
+    assert _left_after(residual, now, f, period) == sum(1 for x in after if x)

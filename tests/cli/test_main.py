@@ -238,6 +238,33 @@ def test_product_command():
     assert run("product", "1/(q", "-n", "30").exit_code == 2
 
 
+def test_product_reads_the_parts_and_refuses_extra_variables(monkeypatch):
+    # issue 19: the command hands product_form the numerator and denominator of the sum
+    # (binary splitting), whose exponents come by the verified log derivative: the exact
+    # inverse of the value (the reference) is never needed for a product form
+    import sys as _sys
+    module = _sys.modules["qseries.analysis.product_form"]
+
+    def refuse(*_args):
+        raise AssertionError("the reference exponents_of was called")
+
+    monkeypatch.setattr(module, "exponents_of", refuse)
+    import qseries.cli.main as cli_main
+    seen = []
+
+    def spy(expr, order):
+        seen.append(expr)
+        return module.product_form(expr, order)
+
+    monkeypatch.setattr(cli_main, "product_form", spy)
+    # Rogers-Ramanujan's second identity (Andrews, The Theory of Partitions, Cor. 7.9)
+    r = run("product", "sum_{k>=0} q^(k^2+k)/(q;q)_k", "-n", "400", "--json")
+    assert r.exit_code == 0 and json.loads(r.stdout)["expression"] == "(q^2, q^3;q^5)_inf^-1"
+    assert isinstance(seen[0], tuple) and seen[0][1] is not None
+    r = run("product", "(z q;q)_inf", "-n", "10")
+    assert r.exit_code == 2 and "extra variables z" in r.output
+
+
 def test_check_prints_hints_at_a_mismatch():
     r = run("check", "(-q;q)_inf", "1/(q^2;q^4)_inf", "-n", "100")
     assert r.exit_code == 1 and "hint (dilation)" in r.stdout
