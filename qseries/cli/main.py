@@ -473,9 +473,10 @@ def product(
     """
     [node] = _parsed([expr], define)
     if order > PRODUCT_MAX_ORDER and not allow_long:
-        _fail(f"product recovers exponents up to order {PRODUCT_MAX_ORDER} (beyond it the "
-              f"inverse series it needs holds coefficients of thousands of digits, gigabytes "
-              f"at order 10^7); pass --allow-long to try order {order} anyway")
+        _fail(f"product recovers exponents up to order {PRODUCT_MAX_ORDER} (beyond it a "
+              f"series without a product form of small exponents needs an exact division "
+              f"whose coefficients have thousands of digits, gigabytes at order 10^7); pass "
+              f"--allow-long to try order {order} anyway")
     _refuse_long(allow_long, [node], order, then=product_form)
     # numerator and denominator where the evaluation leaves its last division undone
     parts = _guarded(_busy, quiet or as_json, f"evaluating to O(q^{order})", order,

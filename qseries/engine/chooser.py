@@ -92,9 +92,10 @@ PARALLEL_ORDER = 50_000
 COST_CHECK_ORDER = 50_000
 PROBE_FIRST_ORDER = 1024
 PROBE_SECONDS = 0.25
-#: ``product`` refuses orders above this unless --allow-long is given: recovering the
-#: exponents inverts the series, whose coefficients grow to thousands of digits, and the
-#: probes of the estimate do not see that working memory
+#: ``product`` refuses orders above this unless --allow-long is given: a series whose log
+#: derivative has large coefficients (no product form with small exponents) falls back to an
+#: exact division or inverse whose coefficients grow to thousands of digits, and the probes
+#: of the estimate do not see that working memory
 PRODUCT_MAX_ORDER = 200_000
 #: a run estimated above these is refused on the command line unless --allow-long is given
 COST_LIMIT_SECONDS = 600.0
