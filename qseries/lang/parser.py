@@ -219,8 +219,23 @@ class _Parser:
         base = self.atom()
         if self.at("^") and not self.tail_taken:
             t = self.take()
+            sign = self.tok.text if self.at("-", "+") else ""
+            self.refuse_glued_number(1 if sign else 0, lambda num, word: (
+                f"q^{sign}{num}{word} is ambiguous: write q^({sign}{num}{word}) for the "
+                f"power, or q^{sign}{num} {word} for the product"))
             base = BinOp("^", base, self.signed(), t.pos)  # q^-2: a signed exponent
         return base
+
+    def refuse_glued_number(self, offset: int, message) -> None:
+        """Refuse a number written against a letter (``2n``) where one token is read: an
+        exponent or a subscript takes the number alone, so ``q^2n`` would be q^2 n and
+        ``(q;q)_2n`` would be (q;q)_2 n, never what a paper's q^{2n} means."""
+        if self.i + offset + 1 >= len(self.toks):
+            return
+        t, u = self.toks[self.i + offset], self.toks[self.i + offset + 1]
+        if t.kind == "num" and u.kind == "name" and u.pos == t.pos + len(t.text) \
+                and self.text[u.pos].isalpha():  # q^2\eta(q) is LaTeX's q^{2} eta(q)
+            raise ParseError(message(t.text, u.text), self.text, t.pos)
 
     def atom(self) -> Node:
         t = self.tok
@@ -539,6 +554,9 @@ class _Parser:
             self.take()
             return None
         if t.kind == "num":
+            self.refuse_glued_number(0, lambda num, word: (
+                f"_{num}{word} is ambiguous: write _({num}{word}) or _{{{num}{word}}} for the "
+                f"subscript {num}{word}, or _{num} {word} for the product"))
             self.take()
             return Num(Fraction(int(t.text)), t.pos)
         joined = self.bound_subscripted()

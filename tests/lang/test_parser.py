@@ -185,3 +185,27 @@ def test_an_identity_pasted_as_one_text_is_split_at_its_one_equals_sign():
             split_identity(bad)
     with pytest.raises(ParseError, match="two arguments"):
         parse("1 = 1")
+
+
+@pytest.mark.parametrize("text, column, words", [
+    # q^2n and (q;q)_2n read as q^2 * n and (q;q)_2 * n would silently change the identity
+    # typed (papers print q^{2n} and (q;q)_{2n}): refused, with both unambiguous spellings
+    ("sum_{n=0}^{5} q^2n", 17, "q^(2n)"),
+    ("q^-3k", 4, "q^(-3k)"),
+    ("sum_{n>=0} q^(n^2)/(q;q)_2n", 26, "(2n)"),
+    ("sum_{n>=0} q^n/(q^2;q^2)_10n", 26, "(10n)"),
+    (r"\sum_{n\ge0} q^2n", 16, "q^2 n"),
+])
+def test_a_number_glued_to_a_letter_in_an_exponent_or_subscript_is_refused(text, column, words):
+    with pytest.raises(ParseError) as err:
+        parse(text)
+    assert words in str(err.value)
+    assert f"column {column}" in str(err.value)
+
+
+def test_exponents_and_subscripts_written_unambiguously_still_read():
+    assert parse("q^2 n") == parse("q^2*n")
+    assert parse("q^(2n)") == parse("q^{2n}")
+    assert parse("sum_{n>=0} q^(n^2)/(q;q)_(2n)") == parse("sum_{n>=0} q^(n^2)/(q;q)_{2n}")
+    assert parse("q^n^2") == parse("q^(n^2)")
+    assert parse("2q^3") == parse("2*q^3")
