@@ -824,9 +824,12 @@ def verify(
                 for r in results:
                     console.print(verify_line(r, expects[r.ident], labels.get(r.ident)),
                                   markup=False, highlight=False, soft_wrap=True)
-        console.print(verify_summary(results, elapsed, interrupted))
+        # whole lines (rich would fold them at 80 columns on a pipe, where grep reads them)
+        console.print(verify_summary(results, elapsed, interrupted), markup=False,
+                      highlight=False, soft_wrap=True)
         if len(results) > 1:
-            console.print(slowest_line(results, 5, labels), markup=False)
+            console.print(slowest_line(results, 5, labels), markup=False, highlight=False,
+                          soft_wrap=True)
     if interrupted:
         typer.echo(f"qseries: interrupted: {len(results)} of {job_count(entries)} entries "
                    f"finished", err=True)
@@ -861,7 +864,7 @@ def list_cmd(
     else:                                 # a pipe or a file: whole lines, never wrapped
         for row in rows:
             console.print(listing_line(row), markup=False, highlight=False, soft_wrap=True)
-    console.print(listing_summary(rows))
+    console.print(listing_summary(rows), markup=False, highlight=False, soft_wrap=True)
 
 
 from .prove import mention_prove, prove_cmd  # noqa: E402  (the command lives in its own module)

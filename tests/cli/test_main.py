@@ -203,6 +203,19 @@ def test_verify_and_list_into_a_pipe_print_whole_lines():
     assert "┃" not in listing.stdout and "│" not in r.stdout
 
 
+def test_verify_summary_and_slowest_lines_into_a_pipe_are_whole_lines():
+    # the lines under the entries were still folded at 80 columns on a pipe
+    # ("... is evidence, not" / "a proof"), so grep saw half of them
+    r = run("verify", "--only", "durfee-rectangle", "--order", "20", "-j", "1")
+    assert r.exit_code == 0, r.output
+    lines = r.stdout.splitlines()
+    summary = [line for line in lines if "entries behave as recorded" in line]
+    assert len(summary) == 1 and summary[0].endswith("evidence, not a proof")
+    slowest = [line for line in lines if line.startswith("slowest: ")]
+    assert len(slowest) == 1
+    assert all(f"durfee-rectangle m={m} (" in slowest[0] for m in range(1, 6))
+
+
 def test_verify_malformed_file_exits_2_with_file_and_line(tmp_path):
     bad = tmp_path / "bad.toml"
     bad.write_text('[[identity]]\nkey = "x"\ntitle = "t"\nleft = "q"\nright = "q"\n'
