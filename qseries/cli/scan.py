@@ -119,7 +119,7 @@ def scan(
     constant, a power of q or q -> -q are grouped.  Exit 0 with hits, 1 without, 130 when
     interrupted (resume with --resume).
 
-    Example: qseries scan "sum_{n>=0} q^(n^2+$b n)/(q;q)_n" -p b=0..3 -n 500
+    Example: qseries scan 'sum_{n>=0} q^(n^2+$b n)/(q;q)_n' -p b=0..3 -n 500
     """
     from ..discovery import (
         Criteria,
