@@ -107,6 +107,20 @@ def test_division_by_zero(text):
         evaluate(text, 10)
 
 
+@pytest.mark.parametrize("text, column", [
+    # a term of a sum that divides by zero (k = 0 in a Lambert series started at 0) was
+    # "division by zero" with no position at all: the sum at fault is named
+    ("sum_{k>=0} q^k/(1-q^k)", 1),
+    ("1 + sum_{k=0}^{3} q^k/(1-q^k)", 5),
+    ("(q;q)_inf + sum_{n>=0} q^n/(q;q)_(n-1)^(-1)", 13),
+])
+def test_a_division_by_zero_in_a_sum_names_the_sum(text, column):
+    with pytest.raises(DomainError) as err:
+        evaluate(text, 10)
+    assert err.value.position == column - 1
+    assert f"column {column}" in str(err.value) and "in a term of sum_" in str(err.value)
+
+
 # errors.py: DomainError for what has no meaning, UnableError for what is too large or not
 # supported (an irrational number, a non-integer power of a series)
 @pytest.mark.parametrize("text, error, message", [
