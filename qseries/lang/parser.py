@@ -752,7 +752,10 @@ def _linear(node: Node, var: str) -> tuple[Fraction, Fraction] | None:
 
 
 def _suggestion(name: str, defined: list[str]) -> str | None:
-    """The known name closest to ``name`` (``Sum`` -> ``sum``, ``infty`` -> ``inf``)."""
+    """The known name closest to ``name`` (``Sum`` -> ``sum``, ``infty`` -> ``inf``;
+    ``infinity`` and ``oo``, other spellings of infinity, -> ``inf``)."""
+    if name.lower() in ("infinity", "oo"):
+        return "inf"
     known = ["sum", "prod", "inf", *FUNCTIONS, *defined]
     lowered = {k.lower(): k for k in known}
     close = difflib.get_close_matches(name.lower(), list(lowered), n=1, cutoff=0.6)

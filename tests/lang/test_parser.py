@@ -209,3 +209,17 @@ def test_exponents_and_subscripts_written_unambiguously_still_read():
     assert parse("sum_{n>=0} q^(n^2)/(q;q)_(2n)") == parse("sum_{n>=0} q^(n^2)/(q;q)_{2n}")
     assert parse("q^n^2") == parse("q^(n^2)")
     assert parse("2q^3") == parse("2*q^3")
+
+
+@pytest.mark.parametrize("text, column", [
+    # other spellings of infinity: 'oo' was read as the product o*o of an extra variable
+    # ("involves the extra variable o"), 'infinity' named no known name at all
+    ("(q;q)_infinity", 7),
+    ("(q;q)_oo", 7),
+    ("sum_{n=0}^{oo} q^n", 12),
+    ("sum_{n=0}^{infinity} q^n", 12),
+])
+def test_other_spellings_of_infinity_suggest_inf(text, column):
+    with pytest.raises(ParseError) as err:
+        parse(text)
+    assert "did you mean inf?" in str(err.value) and f"column {column}" in str(err.value)
