@@ -22,3 +22,9 @@ def test_combination_lines():
     none = combination_lines(express("(q;q)_inf", ["1"], 30))
     assert none == ["no combination of the 1 basis series gives the target below q^30 "
                     "(30 coefficients for 2 unknowns)"]
+
+
+def test_one_unknown_is_singular():
+    # "200 coefficients for 1 unknowns" (qseries relations with one series)
+    lines = relation_lines(relations(["theta_3(q)"], 30))
+    assert lines == ["no integer relation below q^30 (30 coefficients for 1 unknown)"]
