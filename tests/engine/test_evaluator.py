@@ -121,6 +121,26 @@ def test_a_division_by_zero_in_a_sum_names_the_sum(text, column):
     assert f"column {column}" in str(err.value) and "in a term of sum_" in str(err.value)
 
 
+@pytest.mark.parametrize("text, value", [
+    # a rational power of a number that is rational was refused as "4^1/2 is not rational"
+    ("4^(1/2)", Fraction(2)), ("(1/8)^(-1/3)", Fraction(2)), ("(-8)^(1/3)", Fraction(-2)),
+    ("(9/4)^(3/2)", Fraction(27, 8)), ("0^(1/2)", Fraction(0)),
+])
+def test_a_rational_power_with_a_rational_value(text, value):
+    assert evaluate(f"{text} q", 3) == evaluate(f"({value.numerator}/{value.denominator}) q", 3)
+
+
+@pytest.mark.parametrize("text, shown", [
+    ("2^(1/2)", "2^(1/2) is not rational"), ("(-4)^(1/2)", "(-4)^(1/2) is not rational"),
+    ("(1/8)^(-1/2)", "(1/8)^(-1/2) is not rational"),
+    ("4^(1/10^15)", "is not rational"),       # a root of a huge degree: refused at once
+])
+def test_an_irrational_power_is_refused_as_written(text, shown):
+    with pytest.raises(UnableError) as err:
+        evaluate(text, 3)
+    assert shown in str(err.value)
+
+
 # errors.py: DomainError for what has no meaning, UnableError for what is too large or not
 # supported (an irrational number, a non-integer power of a series)
 @pytest.mark.parametrize("text, error, message", [
