@@ -522,8 +522,10 @@ def distribution(
     trend_upto: Annotated[int | None, typer.Option(
         "--trend-upto", min=1, max=100_000,
         help="Also export the mean and variance for every n = 1 .. N.")] = None,
-    fmt: Annotated[ExportFormat, typer.Option(
-        "--format", help="Format of the --trend-upto table.")] = ExportFormat.csv,
+    fmt: Annotated[ExportFormat | None, typer.Option(
+        "--format", show_default=False,
+        help="Format of the --trend-upto table (and of --out).  [default: csv; json with "
+             "--json]")] = None,
     out: Annotated[Path | None, typer.Option(
         "--out", help="Write the --trend-upto table to this file (default: standard output); "
                       "without --trend-upto, every count of the --at sizes (CSV with the "
@@ -551,6 +553,8 @@ def distribution(
     """
     if not at and trend_upto is None:
         _fail("give a size with --at N, or --trend-upto N for the mean/variance table")
+    if fmt is None:
+        fmt = ExportFormat.json if as_json else ExportFormat.csv
     sizes = list(at or [])
     trend = list(range(1, trend_upto + 1)) if trend_upto else []
     [node] = _parsed([expr], define)

@@ -324,6 +324,18 @@ def test_distribution_command(tmp_path):
         assert r.exit_code == 2 and "Traceback" not in r.output
 
 
+def test_distribution_trend_under_json_is_json():
+    # --trend-upto with --json printed the CSV table (--format defaulted to csv)
+    durfee = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"
+    r = run("distribution", durfee, "--trend-upto", "4", "--json")
+    assert r.exit_code == 0
+    rows = json.loads(r.stdout)
+    # of the 5 partitions of 4, four have a Durfee square of side 1 and one of side 2
+    assert rows[3]["n"] == 4 and rows[3]["mean"] == "6/5" and rows[3]["variance"] == "4/25"
+    r = run("distribution", durfee, "--trend-upto", "4", "--json", "--format", "csv")
+    assert r.stdout.startswith("n,total,mean,variance")          # asked for by name
+
+
 def test_weighted_mismatch_exit_1():
     # the rendering in q and z: tests/report/test_verdict.py
     r = run("check", "1/(1-z)", "1/(1-z) + z^3 q", "-n", "10", "--weight", "z=2")
