@@ -80,7 +80,7 @@ def distribution_lines(d: Distribution, var: str, moments: int) -> list[str]:
       standardised moments (normal distribution in brackets):
        1: 0.0000 [0]  2: 1.0000 [1]
     """
-    lines = [f"n = {d.n}: {number_text(d.total)} objects"]
+    lines = [f"n = {d.n}: {number_text(d.total)} object{'' if d.total == 1 else 's'}"]
     counts = list(d.counts.items())
     if len(counts) <= SHOWN_VALUES:
         lines.extend("  " + _row(var, j, c, d.total) for j, c in counts)

@@ -71,4 +71,5 @@ def test_a_single_value_has_no_standardised_moments():
     lines = distribution_lines(distributions("sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "z", [1])[0],
                                "z", 6)
     assert not any("nan" in line for line in lines)
+    assert lines[0] == "n = 1: 1 object"
     assert lines[-1].strip() == "standardised moments: none (the variance is 0)"
