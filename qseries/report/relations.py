@@ -19,12 +19,16 @@ def relation_lines(r: Relations) -> list[str]:
     ['no integer relation below q^20 (20 coefficients for 2 unknowns)']
     """
     evidence = f"{r.equations} coefficients for {_unknowns(r.unknowns)}"
-    kind = "integer relation" if r.degree == 1 else f"polynomial relation of degree <= {r.degree}"
+    def kind(n: int) -> str:
+        noun = "relation" if n == 1 else "relations"
+        return f"integer {noun}" if r.degree == 1 else \
+            f"polynomial {noun} of degree <= {r.degree}"
+
     if not r.relations:
-        return [f"no {kind} below q^{r.order} ({evidence})"]
+        return [f"no {kind(1)} below q^{r.order} ({evidence})"]
     n = len(r.relations)
     note = "" if r.stable else "; not yet stable: raise the order"
-    lines = [f"{n} {kind}{'s' if n > 1 else ''} below q^{r.order} (a reduced basis; "
+    lines = [f"{n} {kind(n)} below q^{r.order} (a reduced basis; "
              f"{evidence}, {r.confirmed} beyond the unknowns confirm {'them' if n > 1 else 'it'}"
              f"{note}):"]
     lines += [r.text(v) for v in r.relations]

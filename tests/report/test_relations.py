@@ -28,3 +28,10 @@ def test_one_unknown_is_singular():
     # "200 coefficients for 1 unknowns" (qseries relations with one series)
     lines = relation_lines(relations(["theta_3(q)"], 30))
     assert lines == ["no integer relation below q^30 (30 coefficients for 1 unknown)"]
+
+
+def test_polynomial_relations_are_plural_in_the_right_place():
+    # "9 polynomial relation of degree <= 2s below ..."
+    lines = relation_lines(relations(["theta_3(q)^2", "theta_3(q^2)^2", "theta_2(q^2)^2"], 60,
+                                     degree=2))
+    assert lines[0].split(" (")[0].endswith("polynomial relations of degree <= 2 below q^60")
