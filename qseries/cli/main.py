@@ -32,7 +32,7 @@ from ..engine.chooser import (
 from ..engine.cost import CostEstimate, estimate_cost
 from ..errors import ParseError, QSeriesError
 from ..lang import Node, parse
-from ..lang.ast import extra_variables
+from ..lang.ast import children, extra_variables
 from ..lang.parser import NOTATION_FORMS, definitions_of, is_extra_variable, split_identity
 from ..products import FUNCTIONS
 from ..report import (
@@ -144,6 +144,34 @@ def _json_mode(value: bool) -> bool:
     return value
 
 
+#: the expressions of the running command as typed, with their trees (set by ``_parsed``): an
+#: evaluation error knows only its position, and is shown in the one text it points into
+_SOURCES: contextvars.ContextVar[tuple[tuple[str, Node], ...]] = \
+    contextvars.ContextVar("sources", default=())
+
+
+def _text_at(position: int, side: str | None = None) -> str | None:
+    """The text of the expression of the command that ``position`` points into: the side
+    of check named by ``side``, else the one expression with a node at ``position`` (the
+    sides of check both start at 0: a position held by both names neither)."""
+    sources = _SOURCES.get()
+    if side in ("left", "right") and len(sources) == 2:
+        text = sources[0 if side == "left" else 1][0]
+        return text if position < len(text) else None
+
+    def positions(node: Node) -> set[int]:
+        out, stack = set(), [node]
+        while stack:
+            n = stack.pop()
+            out.add(getattr(n, "pos", -1))
+            stack.extend(children(n))
+        return out
+
+    found = [text for text, node in sources
+             if position < len(text) and position in positions(node)]
+    return found[0] if len(found) == 1 else None
+
+
 LatexOption = Annotated[bool, typer.Option(
     "--latex", help="Print the result as LaTeX a paper can include (the parser reads it back).")]
 QuietOption = Annotated[bool, typer.Option(
@@ -203,7 +231,9 @@ def _parsed(exprs: list[str], defines: list[str] | None) -> list[Node]:
     """The expressions' syntax trees, with the --define functions expanded (exit 2 with the
     position on an error)."""
     defs = _guarded(definitions_of, defines or [])
-    return [_guarded(parse, e, (), defs) for e in exprs]
+    nodes = [_guarded(parse, e, (), defs) for e in exprs]
+    _SOURCES.set(tuple(zip(exprs, nodes, strict=True)))
+    return nodes
 
 
 WeightOption = Annotated[list[str] | None, typer.Option(
@@ -232,14 +262,20 @@ def _weights(items: list[str] | None) -> dict[str, int] | None:
 
 
 def _fail(message: str, err: QSeriesError | None = None) -> None:
+    position = getattr(err, "position", None)
+    text = err.text if isinstance(err, ParseError) else \
+        None if position is None else _text_at(position, getattr(err, "side", None))
     if _JSON_ERRORS.get():
-        position = getattr(err, "position", None)
         error: dict[str, Any] = {"message": getattr(err, "message", message),
                                  "position": position}
-        if isinstance(err, ParseError):
-            error["text"] = err.text       # the text the position points into
+        if text is not None:
+            error["text"] = text           # the text the position points into
         typer.echo(json.dumps({"error": error}))
         raise typer.Exit(2)
+    if text is not None and not isinstance(err, ParseError):
+        # an evaluation error names its column; show it in the text, as a parse error does
+        caret = str(ParseError("", text, position)).split("\n")[1:]
+        message = "\n".join([message, *caret])
     typer.echo(f"qseries: error: {message}", err=True)
     raise typer.Exit(2)
 

@@ -495,10 +495,11 @@ def test_an_undefined_function_exits_2_and_says_how_to_define_it():
     (["expand", "1/(q"], 4, "1/(q"),
     (["check", "Sum_{k>=0} q", "q"], 0, "Sum_{k>=0} q"),
     (["product", "q + G(q)"], 4, "q + G(q)"),
-    # undefined rather than malformed: the evaluator's error carries the position too
-    (["expand", "1/0"], 2, None),
-    (["expand", "q + q^(q)"], 7, None),
-    (["expand", "sum_{n>=0} q^n/(1-1)"], 17, None),
+    # undefined rather than malformed: the evaluator's error carries the position too (and
+    # the text it points into)
+    (["expand", "1/0"], 2, "1/0"),
+    (["expand", "q + q^(q)"], 7, "q + q^(q)"),
+    (["expand", "sum_{n>=0} q^n/(1-1)"], 17, "sum_{n>=0} q^n/(1-1)"),
 ])
 def test_with_json_an_error_is_json_with_its_position(args, position, text):
     r = run(*args, "--json")
@@ -509,6 +510,26 @@ def test_with_json_an_error_is_json_with_its_position(args, position, text):
     # the same command without --json: the text form, on standard error
     r = run(*args)
     assert r.exit_code == 2 and r.stdout == "" and "qseries: error:" in r.output
+
+
+@pytest.mark.parametrize(("args", "position", "text"), [
+    # an identity pasted as one argument: the column of an evaluation error counted into the
+    # right side, while the user sees one text ("division by zero at column 12" pointed into
+    # the left side); the side's text now comes with it, as for a parse error
+    (["check", "sum_{n>=0} q^n = 1/(1-q)/(1-1)"], 11, " 1/(1-q)/(1-1)"),
+    (["check", "1/(1-1)", "1"], 4, "1/(1-1)"),
+    (["check", "1", "q + 1/(1-1)"], 8, "q + 1/(1-1)"),
+    (["expand", "q + 1/(q-q)"], 8, "q + 1/(q-q)"),
+])
+def test_an_evaluation_error_comes_with_the_text_it_points_into(args, position, text):
+    r = run(*args, "--json")
+    assert r.exit_code == 2
+    err = json.loads(r.stdout)["error"]
+    assert err["position"] == position and err["text"] == text
+    r = run(*args)
+    lines = r.stderr.splitlines()
+    assert r.exit_code == 2 and lines[1] == "  " + text
+    assert lines[2] == "  " + " " * position + "^"
 
 
 def test_latex_output_of_expand_product_and_check():
