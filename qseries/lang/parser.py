@@ -417,6 +417,15 @@ class _Parser:
         if isinstance(name, tuple):
             name, t = name
         assert t is not None
+        if self.at("^"):
+            # phi^2(q), f^3(-q), \vartheta_3^4(q): papers put the power before the argument
+            caret = self.take()
+            exponent = self.signed()
+            return BinOp("^", self.call_body(name, t), exponent, caret.pos)
+        return self.call_body(name, t)
+
+    def call_body(self, name: str, t: Token) -> Node:
+        """A call after its name: the arguments in parentheses, expanded in place."""
         entry = FUNCTIONS.get(name)
         self.expect("(", f" after {name}")
         tau = self.tau_argument() if name == "eta" else None

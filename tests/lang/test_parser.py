@@ -223,3 +223,20 @@ def test_other_spellings_of_infinity_suggest_inf(text, column):
     with pytest.raises(ParseError) as err:
         parse(text)
     assert "did you mean inf?" in str(err.value) and f"column {column}" in str(err.value)
+
+
+def test_a_power_written_before_the_argument_of_a_function():
+    # papers write phi^2(q), f^3(-q), \vartheta_3^4(q), \eta^3(\tau) for phi(q)^2, ...: these
+    # were "expected '(' after phi but found '^'"
+    assert parse("f^3(-q)") == parse("f(-q)^3")
+    assert parse(r"\varphi^2(q)") == parse("phi(q)^2")
+    assert parse("theta_3^4(q)") == parse("theta_3(q)^4")
+    assert parse(r"\vartheta_{3}^{4}(q)") == parse("theta_3(q)^4")
+    assert parse(r"\eta^{3}(\tau)") == parse("eta(q)^3")
+    assert parse("psi^-1(q^2)") == parse("psi(q^2)^(-1)")
+    g = ["G(q) = 1/(1-q)"]
+    assert parse("G^2(q^5)", definitions=g) == parse("G(q^5)^2", definitions=g)
+    # the power applies to the call alone, before a product or a second power
+    assert parse("2 phi^2(q) q") == parse("2 (phi(q)^2) q")
+    with pytest.raises(ParseError, match="expected '\\(' after theta_3"):
+        parse(r"\theta_3^4")
