@@ -617,14 +617,19 @@ class _Parser:
         elif self.at("="):
             self.take()
             lower = self.bound_expr(allow_minus_inf=True)
+        elif self.at("∈"):                       # n \in \mathbb{Z}: every integer
+            self.take()
+            self.expect("ℤ", " after \\in (a sum over the integers: n \\in \\mathbb{Z})")
+            lower = None
+            has_upper_allowed = False
         else:
             raise self.error(f"expected '>=' or '=' after the variable {var!r}")
         self.expect("}")
         explicit_upper = False
         if self.at("^"):
             if not has_upper_allowed:
-                raise self.error(f"{kind}_{{{var}>=...}} has no upper limit; "
-                                 f"write {kind}_{{{var}=...}}^{{...}}")
+                raise self.error(f"{kind}_{{{var}>=...}} and {kind}_{{{var} in Z}} have no "
+                                 f"upper limit; write {kind}_{{{var}=...}}^{{...}}")
             self.take()
             upper = self.upper_bound()
             explicit_upper = True

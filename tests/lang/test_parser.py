@@ -240,3 +240,17 @@ def test_a_power_written_before_the_argument_of_a_function():
     assert parse("2 phi^2(q) q") == parse("2 (phi(q)^2) q")
     with pytest.raises(ParseError, match="expected '\\(' after theta_3"):
         parse(r"\theta_3^4")
+
+
+def test_a_sum_over_the_integers_as_papers_write_it():
+    # \sum_{n\in\mathbb{Z}} was "unknown LaTeX command \in"
+    bilateral = parse("sum_{n=-inf}^{inf} q^(n^2)")
+    assert parse(r"\sum_{n\in\mathbb{Z}} q^{n^2}") == bilateral
+    assert parse(r"\sum_{n \in \mathbb Z} q^{n^2}") == bilateral
+    assert parse("Σ_{n∈ℤ} q^(n^2)") == bilateral
+    assert parse(r"\sum_{m,n\in\mathbb{Z}} q^{m^2+n^2}") == \
+        parse("sum_{m,n=-inf}^{inf} q^(m^2+n^2)")
+    with pytest.raises(ParseError, match="no upper limit"):
+        parse(r"\sum_{n\in\mathbb{Z}}^{5} q^n")
+    with pytest.raises(ParseError, match=r"\\mathbb\{N\}"):
+        parse(r"\sum_{n\in\mathbb{N}} q^n")
