@@ -933,8 +933,54 @@ def _run_for_json() -> None:
     sys.exit(code if isinstance(code, int) else 0)
 
 
+def _expression_as_option(args: list[str]) -> str | None:
+    """An argument before ``--`` that starts with a minus sign and is an expression (it
+    holds a bracket, a power or a fraction: ``-1/(q;q)_inf``), which the option parser
+    would refuse as an unknown option; None when there is none.
+
+    >>> _expression_as_option(["product", "-1/(q;q)_inf"]), _expression_as_option(["-n", "5"])
+    ('-1/(q;q)_inf', None)
+    >>> _expression_as_option(["scan", "-p", "b=0..1", "--right", "-1/(q;q)_inf", "$b"])
+    """
+    valued: set[str] | None = None
+    for i, arg in enumerate(args):
+        if arg == "--":
+            return None
+        if arg.startswith("-") and not arg.startswith("--") and len(arg) > 1 \
+                and any(ch in arg for ch in "()^/;_{}\\"):
+            if valued is None:
+                valued = _options_with_values(args[0] if args else "")
+            if i == 0 or args[i - 1] not in valued:     # not the value of --right and such
+                return arg
+    return None
+
+
+def _options_with_values(command: str) -> set[str]:
+    """The option names of ``command`` that take a value (the next argument, even one that
+    starts with a minus sign)."""
+    import typer.main
+
+    group = typer.main.get_command(app)
+    cmd = getattr(group, "commands", {}).get(command)
+    return {name for p in getattr(cmd, "params", ())
+            if getattr(p, "param_type_name", "") == "option" and not getattr(p, "is_flag", True)
+            for name in p.opts}
+
+
 def run() -> None:
     """Console-script entry point."""
+    leading = _expression_as_option(sys.argv[1:])
+    if leading is not None:
+        command = sys.argv[1] if len(sys.argv) > 1 and not sys.argv[1].startswith("-") \
+            else "expand"
+        message = (f"the expression {leading!r} starts with a minus sign, which reads as an "
+                   f"option: put it after -- with the options before it, as in qseries "
+                   f"{command} -n 10 -- {leading!r}")
+        if "--json" in sys.argv[1:]:
+            typer.echo(json.dumps({"error": {"message": message, "position": None}}))
+        else:
+            typer.echo(f"qseries: error: {message}", err=True)
+        sys.exit(2)
     try:
         if "--json" in sys.argv[1:]:
             _run_for_json()

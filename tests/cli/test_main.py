@@ -162,6 +162,24 @@ def test_module_entry_point_and_real_process_exit_codes():
     assert unknown.returncode == 3 and "INCONCLUSIVE" in unknown.stdout
 
 
+@pytest.mark.parametrize("args", [
+    ["product", "-1/(q;q)_inf", "-n", "20"],
+    ["check", "-q/(1-q)", "q/(q-1)"],
+    ["expand", "-n", "5", "-(q;q)_inf", "--json"],
+])
+def test_an_expression_starting_with_a_minus_sign_is_told_to_follow_the_double_dash(args):
+    # "Error: No such option: -1", with nothing about the documented cure
+    r = subprocess.run([sys.executable, "-m", "qseries", *args], capture_output=True, text=True)
+    assert r.returncode == 2 and "Traceback" not in r.stderr
+    message = json.loads(r.stdout)["error"]["message"] if "--json" in args else r.stderr
+    assert f"'{args[1] if args[0] != 'expand' else args[3]}'" in message
+    assert "--" in message and "minus sign" in message
+    # as documented, after -- it reads (qseries expand -n 10 -- "-q/(1-q)")
+    ok = subprocess.run([sys.executable, "-m", "qseries", "expand", "-n", "3", "--", "-q"],
+                        capture_output=True, text=True)
+    assert ok.returncode == 0 and ok.stdout.startswith("-q")
+
+
 def test_verify_shipped_catalogue_subset_and_json():
     # the command line's path through verify (selection by tag, --order, JSON); every entry is
     # verified at its recorded order in-process by tests/catalogue/test_verify.py, so this
