@@ -676,6 +676,7 @@ def _placed(err: DomainError, node: BigOp) -> DomainError:
     """
     if err.position is not None:
         return err
-    placed = DomainError(f"{err} in a term of {label(node)} at column {node.pos + 1}",
-                         weights_may_help=err.weights_may_help, position=node.pos)
-    return placed
+    name = label(node)
+    text = str(err) if name in str(err) else f"{err} in a term of {name}"   # named already
+    return DomainError(f"{text} at column {node.pos + 1}", weights_may_help=err.weights_may_help,
+                       position=node.pos)

@@ -139,15 +139,26 @@ def fraction_text(v: Fraction) -> str:
 
 
 def poly_text(p: sym.Poly, var: str, sign: int) -> str:
+    """The polynomial p(m) in m = sign * var as a polynomial in ``var``.
+
+    >>> poly_text([0, -1], "n", 1), poly_text([0, -1], "k", -1), poly_text([3, 1, 2], "k", -1)
+    ('-n', 'k', '2k^2 - k + 3')
+    """
     if not p:
         return "0"
-    m = var if sign > 0 else f"(-{var})"
     parts = []
     for i in range(len(p) - 1, -1, -1):
-        if p[i]:
-            power = "" if i == 0 else f"*{m}" + ("" if i == 1 else f"^{i}")
-            parts.append(f"{fraction_text(p[i])}{power}")
-    return " + ".join(parts)
+        c = p[i] * (sign ** i)
+        if not c:
+            continue
+        power = "" if i == 0 else var + ("" if i == 1 else f"^{i}")
+        size = fraction_text(abs(c))
+        term = size if i == 0 else (power if abs(c) == 1 else f"{size}{power}")
+        if not parts:
+            parts.append(term if c > 0 else f"-{term}")
+        else:
+            parts.append(f"+ {term}" if c > 0 else f"- {term}")
+    return " ".join(parts)
 
 
 def factors_of(node: Node, p: int = 1) -> list[tuple[Node, int]]:
