@@ -563,9 +563,13 @@ class _Parser:
             self.take()
             return None
         if t.kind == "num":
+            mark = self.toks[self.i - 1].text if self.i else "_"       # '_' or '^'
+            what, other = ("subscript", "the product") if mark == "_" else \
+                ("upper limit", "the limit and then the term")
             self.refuse_glued_number(0, lambda num, word: (
-                f"_{num}{word} is ambiguous: write _({num}{word}) or _{{{num}{word}}} for the "
-                f"subscript {num}{word}, or _{num} {word} for the product"))
+                f"{mark}{num}{word} is ambiguous: write {mark}({num}{word}) or "
+                f"{mark}{{{num}{word}}} for the {what} {num}{word}, or {mark}{num} {word} for "
+                f"{other}"))
             self.take()
             return Num(Fraction(int(t.text)), t.pos)
         joined = self.bound_subscripted()

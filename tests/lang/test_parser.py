@@ -195,6 +195,7 @@ def test_an_identity_pasted_as_one_text_is_split_at_its_one_equals_sign():
     ("sum_{n>=0} q^(n^2)/(q;q)_2n", 26, "(2n)"),
     ("sum_{n>=0} q^n/(q^2;q^2)_10n", 26, "(10n)"),
     (r"\sum_{n\ge0} q^2n", 16, "q^2 n"),
+    ("sum_{k=0}^10q^k", 11, "^(10q)"),        # an upper limit: the caret, not '_'
 ])
 def test_a_number_glued_to_a_letter_in_an_exponent_or_subscript_is_refused(text, column, words):
     with pytest.raises(ParseError) as err:
