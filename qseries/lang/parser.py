@@ -541,14 +541,34 @@ class _Parser:
             self.expect(";", " in a q-Pochhammer symbol (a;q)_n")
             base = self.expr()
             self.expect(")")
+            power = self.power_before_subscript(True)
             length = self.subscript("a q-Pochhammer symbol")
-            return Poch(tuple(params), base, length, open_tok.pos)
+            return self.raised(Poch(tuple(params), base, length, open_tok.pos), power)
         self.expect(")")
+        power = self.power_before_subscript(False)
         if self.at("_"):
             # (a)_n is the usual shorthand for (a;q)_n
             length = self.subscript("a q-Pochhammer symbol")
-            return Poch((first,), Q(open_tok.pos), length, open_tok.pos)
+            return self.raised(Poch((first,), Q(open_tok.pos), length, open_tok.pos), power)
         return first
+
+    def power_before_subscript(self, always: bool) -> tuple[Node, int] | None:
+        """``^e`` written between a q-Pochhammer symbol's ')' and its subscript, as LaTeX
+        prints (q;q)^2_\\infty: (the exponent, the caret's position), or None.  After
+        ``(a)`` only when a subscript follows (``(1-q)^2`` is a power of a bracket)."""
+        if not self.at("^"):
+            return None
+        save = self.i
+        caret = self.take()
+        exponent = self.signed()
+        if always or self.at("_"):
+            return exponent, caret.pos
+        self.i = save
+        return None
+
+    @staticmethod
+    def raised(node: Node, power: tuple[Node, int] | None) -> Node:
+        return node if power is None else BinOp("^", node, power[0], power[1])
 
     def subscript(self, what: str) -> Node | None:
         """After ``_``: None for infinity, else the length expression."""

@@ -255,3 +255,14 @@ def test_a_sum_over_the_integers_as_papers_write_it():
         parse(r"\sum_{n\in\mathbb{Z}}^{5} q^n")
     with pytest.raises(ParseError, match=r"\\mathbb\{N\}"):
         parse(r"\sum_{n\in\mathbb{N}} q^n")
+
+
+def test_a_power_written_before_the_subscript_of_a_q_pochhammer_symbol():
+    # LaTeX prints (q;q)^2_\infty as (q;q)_\infty^2; it was "expected '_' after a
+    # q-Pochhammer symbol but found '^'"
+    assert parse(r"\frac{(q^2;q^2)^2_\infty}{(q;q)_\infty}") == \
+        parse("(q^2;q^2)_inf^2/(q;q)_inf")
+    assert parse(r"(q;q)^{-1}_{\infty}") == parse("(q;q)_inf^(-1)")
+    assert parse("sum_{n>=0} q^n/(q;q)^2_n") == parse("sum_{n>=0} q^n/(q;q)_n^2")
+    assert parse("(q)^3_inf") == parse("(q)_inf^3")
+    assert parse("(1-q)^2") == BinOp("^", parse("1-q"), Num(Fraction(2)))   # no subscript
