@@ -110,6 +110,8 @@ class _Parser:
         self.params = frozenset(params)
         # set when a sum or product has just taken the rest of the term as its body
         self.tail_taken = False
+        #: a Gaussian binomial written as a matrix whose _q follows the closing bracket
+        self.bracketed_gaussian: Node | None = None
 
     # -- helpers ------------------------------------------------------------------------
     @property
@@ -493,10 +495,16 @@ class _Parser:
                 raise self.error("expected \\end{bmatrix} after the two rows of a Gaussian "
                                  "binomial")
             self.take()
-            if not self.gaussian_subscript():
-                raise self.error("a matrix stands for a Gaussian binomial here: write "
-                                 "\\begin{bmatrix} n \\\\ k \\end{bmatrix}_q")
-            return Call("gaussian", (top, bottom), t.pos)
+            gaussian = Call("gaussian", (top, bottom), t.pos)
+            if self.gaussian_subscript():
+                return gaussian
+            if self.at(")") and self.toks[self.i + 1].text == "_":
+                # \left[\begin{matrix} n \\ k \end{matrix}\right]_q: the bracket's _q, taken
+                # by ``paren`` when the matrix is all the bracket holds
+                self.bracketed_gaussian = gaussian
+                return gaussian
+            raise self.error("a matrix stands for a Gaussian binomial here: write "
+                             "\\begin{bmatrix} n \\\\ k \\end{bmatrix}_q")
         raise self.error(f"unexpected {t.text}")
 
     def gaussian_subscript(self) -> bool:
@@ -545,6 +553,16 @@ class _Parser:
             length = self.subscript("a q-Pochhammer symbol")
             return self.raised(Poch(tuple(params), base, length, open_tok.pos), power)
         self.expect(")")
+        if first is self.bracketed_gaussian:
+            self.bracketed_gaussian = None
+            if not self.gaussian_subscript():
+                raise self.error("a matrix stands for a Gaussian binomial here: write "
+                                 "\\left[\\begin{matrix} n \\\\ k \\end{matrix}\\right]_q")
+            return first
+        if self.bracketed_gaussian is not None:
+            raise self.error("a matrix in square brackets stands for a Gaussian binomial: "
+                             "write \\left[\\begin{matrix} n \\\\ k \\end{matrix}\\right]_q "
+                             "with nothing else inside the brackets")
         power = self.power_before_subscript(False)
         if self.at("_"):
             # (a)_n is the usual shorthand for (a;q)_n

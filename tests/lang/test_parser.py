@@ -266,3 +266,15 @@ def test_a_power_written_before_the_subscript_of_a_q_pochhammer_symbol():
     assert parse("sum_{n>=0} q^n/(q;q)^2_n") == parse("sum_{n>=0} q^n/(q;q)_n^2")
     assert parse("(q)^3_inf") == parse("(q)_inf^3")
     assert parse("(1-q)^2") == BinOp("^", parse("1-q"), Num(Fraction(2)))   # no subscript
+
+
+def test_a_gaussian_binomial_as_a_matrix_in_square_brackets():
+    # \left[\begin{matrix} n \\ k \end{matrix}\right]_q, as many papers print the q-binomial
+    # coefficient: it was "a matrix stands for a Gaussian binomial here: write \begin{bmatrix}"
+    expected = parse("gaussian(6, 3)")
+    assert parse(r"\left[\begin{matrix} 6 \\ 3 \end{matrix}\right]_q") == expected
+    assert parse(r"\left[\begin{matrix} 6 \\ 3 \end{matrix}\right]_{q}") == expected
+    assert parse(r"2\left[\begin{matrix} 6 \\ 3 \end{matrix}\right]_q q") == \
+        parse("2 gaussian(6, 3) q")
+    with pytest.raises(ParseError, match="Gaussian binomial"):
+        parse(r"\left[1 + \begin{matrix} 6 \\ 3 \end{matrix}\right]_q")
