@@ -801,9 +801,28 @@ def _load(paths: list[Path] | None, only: list[str]) -> list:
 
     entries = _guarded(load_entries, paths or [SHIPPED])
     chosen = select(entries, only)
+    for wanted in only:                   # each value must select something, not just one
+        if not select(entries, [wanted]):
+            _fail(f"no entry matches {wanted}{_near_entries(entries, wanted)}")
     if not chosen:
         _fail(f"no entry matches {', '.join(only)}")
     return chosen
+
+
+def _near_entries(entries: list, wanted: str) -> str:
+    """A hint for an --only value that selects nothing: the members whose label starts with
+    it (a family named with part of its parameters), else the closest key, label or tag."""
+    import difflib
+
+    want = " ".join(wanted.split())
+    labels = [e.label for e in entries]
+    members = [x for x in labels if x.startswith(want + " ")]
+    if members:
+        shown = ", ".join(members[:5]) + (", ..." if len(members) > 5 else "")
+        return f" (its members: {shown})"
+    names = {e.key for e in entries} | set(labels) | {t for e in entries for t in e.tags}
+    close = difflib.get_close_matches(want, sorted(names), n=1, cutoff=0.8)
+    return f" (did you mean {close[0]}?)" if close else ""
 
 
 @app.command()

@@ -234,6 +234,16 @@ def test_verify_summary_and_slowest_lines_into_a_pipe_are_whole_lines():
     assert all(f"durfee-rectangle m={m} (" in slowest[0] for m in range(1, 6))
 
 
+def test_verify_only_with_a_value_that_matches_nothing_is_refused():
+    # two --only values, one mistyped: verify ran the other and reported success
+    r = run("verify", "--only", "euler-pentagonal", "--only", "euler-pentagonl", "-n", "20")
+    assert r.exit_code == 2
+    assert "euler-pentagonl" in r.stderr and "did you mean euler-pentagonal?" in r.stderr
+    # a family named with part of a member's parameters: the members it may mean
+    r = run("verify", "--only", "andrews-gordon k=3", "-n", "20")
+    assert r.exit_code == 2 and "andrews-gordon k=3 i=1" in r.stderr
+
+
 def test_verify_malformed_file_exits_2_with_file_and_line(tmp_path):
     bad = tmp_path / "bad.toml"
     bad.write_text('[[identity]]\nkey = "x"\ntitle = "t"\nleft = "q"\nright = "q"\n'
