@@ -76,7 +76,7 @@ NOTATION_FORMS = [
     ("(a;q)_inf  (a;q)_∞", "infinite q-Pochhammer product"),
     ("(a,b,c;q)_inf", "the product (a;q)_inf (b;q)_inf (c;q)_inf"),
     ("sum_{k>=0} T   sum_{k=0}^{10} T", "sums; the body T is the product term that follows"),
-    ("sum_{k=-inf}^{inf} T", "bilateral sum"),
+    ("sum_{k=-inf}^{inf} T   \\sum_{k\\in\\mathbb{Z}} T", "bilateral sum"),
     ("prod_{n>=1} T   prod_{n=1}^{inf} T", "products"),
     ("O(q^N)", "an unknown remainder of order N"),
     ("sum_{i,j>=0} T   sum_{n1>=n2>=0} T", "multi-sums: indices over one range, or a chain "
@@ -86,6 +86,8 @@ NOTATION_FORMS = [
                                                    "the ones defined by a sum at any argument"),
     ("\\sum_{n\\ge0}\\frac{q^{n^2}}{(q;q)_n}", "LaTeX as papers print it (\\frac, \\binom{n}{k}_q, "
                                            "\\infty, \\eta(\\tau), \\theta_3, ...)"),
+    ("phi^2(q)  (q;q)^2_\\infty", "a power written before the argument or the subscript, as "
+                                 "papers print it: phi(q)^2, (q;q)_inf^2"),
     ("Σ ∏ ≥ ≤ η θ φ ψ χ τ", "Unicode as PDFs print it"),
     ("[q^(5n+4)] F   [q^{5n+4}] F", "dissection: the series sum_n [q^(5n+4)]F q^n; F is the "
                                     "product term that follows; any fresh index letter; "

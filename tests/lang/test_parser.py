@@ -278,3 +278,14 @@ def test_a_gaussian_binomial_as_a_matrix_in_square_brackets():
         parse("2 gaussian(6, 3) q")
     with pytest.raises(ParseError, match="Gaussian binomial"):
         parse(r"\left[1 + \begin{matrix} 6 \\ 3 \end{matrix}\right]_q")
+
+
+def test_the_notation_lists_the_forms_papers_print():
+    # what `qseries notation` lists reads, including the forms added for papers' LaTeX
+    from qseries.lang.parser import NOTATION_FORMS
+
+    forms = " ".join(f for f, _ in NOTATION_FORMS)
+    for form in (r"\sum_{k\in\mathbb{Z}} T", "phi^2(q)", r"(q;q)^2_\infty"):
+        assert form in forms
+    parse(r"\sum_{k\in\mathbb{Z}} q^(k^2)")
+    parse(r"phi^2(q) (q;q)^2_\infty")
