@@ -615,10 +615,32 @@ def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[st
             left = (quotient(*left, order), None)
         return left, right
     except DomainError as err:
+        if not names and _undefined_exactly(err, lnode, rnode, order):
+            raise                 # as undefined over the integers: the prime is not to blame
         again = DomainError(f"{err} (modulo the prime {p}; try --method exact)",
                             weights_may_help=err.weights_may_help, position=err.position)
         again.side = err.side
         raise again from None
+
+
+#: the order of the exact evaluation that tells whether an error of the modular method
+#: is the expression's own (1/(1-1)) or the prime's (a denominator divisible by it)
+EXACT_RETRY_ORDER = 64
+
+
+def _undefined_exactly(err: DomainError, lnode: Node, rnode: Node, order: int) -> bool:
+    """Whether the side ``err`` came from fails at the same place over the integers (at a
+    small order), so that the error is the expression's own."""
+    node = {"left": lnode, "right": rnode}.get(err.side or "")
+    if node is None or err.position is None:
+        return False
+    try:
+        evaluate(node, min(order, EXACT_RETRY_ORDER))
+    except DomainError as exact:
+        return exact.position == err.position
+    except QSeriesError:
+        return False
+    return False
 
 
 def _below_one(s: Series) -> bool:
