@@ -874,20 +874,23 @@ def split_identity(text: str) -> tuple[str, str]:
     >>> split_identity(r"\[ 1/(1-q) = \sum_{n\ge0} q^n \]")
     (' 1/(1-q) ', ' \\sum_{n\\ge0} q^n ')
     """
-    depth, cuts = 0, []
+    depth, cuts, width = 0, [], 1
     for t in tokenize(text):
         if t.kind == "sym" and t.text in ("(", "{", "["):
             depth += 1
         elif t.kind == "sym" and t.text in (")", "}", "]"):
             depth -= 1
         elif t.kind == "sym" and t.text == "=" and depth == 0:
+            if cuts and cuts[-1] + width == t.pos and width == 1:
+                width = 2                  # '==', as programmers write it: one sign
+                continue
             cuts.append(t.pos)
     if len(cuts) != 1:
         raise ParseError("give the two sides as two arguments (LHS RHS), or one text with "
                          "one '=' between them" + (f" (this one has {len(cuts)})" if cuts
                                                    else ""), text, cuts[1] if cuts else 0)
     start, end = display_body(text)
-    return text[start:cuts[0]], text[cuts[0] + 1:end]
+    return text[start:cuts[0]], text[cuts[0] + width:end]
 
 
 def parse(text: str, bound: Iterable[str] = (),

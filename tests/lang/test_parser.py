@@ -289,3 +289,11 @@ def test_the_notation_lists_the_forms_papers_print():
         assert form in forms
     parse(r"\sum_{k\in\mathbb{Z}} q^(k^2)")
     parse(r"phi^2(q) (q;q)^2_\infty")
+
+
+def test_an_identity_written_with_a_double_equals_sign():
+    # programmers type ==: "one text with one '=' between them (this one has 2)"
+    from qseries.lang.parser import split_identity
+    assert split_identity("1/(1-q) == sum_{n>=0} q^n") == ("1/(1-q) ", " sum_{n>=0} q^n")
+    with pytest.raises(ParseError, match="has 2"):
+        split_identity("a == b = c")
