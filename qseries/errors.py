@@ -32,6 +32,9 @@ class QSeriesError(Exception):
     #: where in the expression's text the fault lies (0-based), when it is known: the parser
     #: always knows it; the evaluator knows it for the node it was evaluating
     position: int | None = None
+    #: which side of a check the fault lies in ("left" or "right"), when it is known: the
+    #: position then counts into that side's text
+    side: str | None = None
 
     def __init__(self, *args: object, weights_may_help: bool = False,
                  position: int | None = None) -> None:

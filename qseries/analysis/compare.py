@@ -29,6 +29,7 @@ import time
 from collections.abc import Callable, Iterable, Mapping
 from dataclasses import dataclass, field
 from fractions import Fraction
+from typing import Any
 
 from ..engine import Evaluator, Parts, check_weights, evaluate, quotient
 from ..engine.chooser import (
@@ -542,10 +543,10 @@ def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
                  ) -> CheckResult:
     ring = ring_for(names, ring)
     say("evaluating the left side")
-    left = evaluate(lnode, order, ring, _own(weights, lnode),
+    left = _on_side("left", evaluate, lnode, order, ring, _own(weights, lnode),
                     progress=_part_stages(say, "left side"))
     say("evaluating the right side")
-    right = evaluate(rnode, order, ring, _own(weights, rnode),
+    right = _on_side("right", evaluate, rnode, order, ring, _own(weights, rnode),
                      progress=_part_stages(say, "right side"))
     verified, mismatch = compare_series(left, right, order)
     holds = None if mismatch is None and _nothing_compared(verified, left, right) else \
@@ -557,6 +558,25 @@ def _check_exact(lnode: Node, rnode: Node, order: int, ring: Ring, t0: float,
                        weights=tuple(weights.get(v, 0) for v in names), shortfall=shortfall)
 
 
+
+
+def _on_side(side: str, fn: Callable[..., Any], *args: Any, **options: Any) -> Any:
+    """``fn(*args, **options)``, the evaluation of one side of a check: an error it raises
+    says which side (``QSeriesError.side``), so that its position can be read in that text.
+
+    >>> from qseries.errors import DomainError
+    >>> try:
+    ...     _on_side("right", evaluate, parse("1/(1-1)"), 5)
+    ... except DomainError as err:
+    ...     print(err.side, err.position)
+    right 4
+    """
+    try:
+        return fn(*args, **options)
+    except QSeriesError as err:
+        if err.side is None:
+            err.side = side
+        raise
 
 
 def _silent(_text: str) -> None:
@@ -584,7 +604,8 @@ def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[st
                          progress=_part_stages(say, "left side"))
         ev_r = Evaluator(ring, values=values, weights=weights,
                          progress=_part_stages(say, "right side"))
-        left, right = ev_l.evaluate_parts(lnode, order), ev_r.evaluate_parts(rnode, order)
+        left = _on_side("left", ev_l.evaluate_parts, lnode, order)
+        right = _on_side("right", ev_r.evaluate_parts, rnode, order)
         # a side of negative valuation times the other side's denominator (known modulo
         # q^order) would be known to less than the order: that side is divided out instead
         # (its numerator has valuation >= 0, so the quotient is known modulo q^order)
@@ -594,8 +615,32 @@ def _modular_sides(lnode: Node, rnode: Node, order: int, p: int, names: tuple[st
             left = (quotient(*left, order), None)
         return left, right
     except DomainError as err:
-        raise DomainError(f"{err} (modulo the prime {p}; try --method exact)",
-                          weights_may_help=err.weights_may_help) from None
+        if not names and _undefined_exactly(err, lnode, rnode, order):
+            raise                 # as undefined over the integers: the prime is not to blame
+        again = DomainError(f"{err} (modulo the prime {p}; try --method exact)",
+                            weights_may_help=err.weights_may_help, position=err.position)
+        again.side = err.side
+        raise again from None
+
+
+#: the order of the exact evaluation that tells whether an error of the modular method
+#: is the expression's own (1/(1-1)) or the prime's (a denominator divisible by it)
+EXACT_RETRY_ORDER = 64
+
+
+def _undefined_exactly(err: DomainError, lnode: Node, rnode: Node, order: int) -> bool:
+    """Whether the side ``err`` came from fails at the same place over the integers (at a
+    small order), so that the error is the expression's own."""
+    node = {"left": lnode, "right": rnode}.get(err.side or "")
+    if node is None or err.position is None:
+        return False
+    try:
+        evaluate(node, min(order, EXACT_RETRY_ORDER))
+    except DomainError as exact:
+        return exact.position == err.position
+    except QSeriesError:
+        return False
+    return False
 
 
 def _below_one(s: Series) -> bool:

@@ -4,7 +4,9 @@
 coefficient that is not divisible.  ``find_congruences`` searches every step m <= max_m,
 every residue 0 <= r < m and every modulus M of a list (the primes up to 13 by default), and
 keeps those not implied by another one found: (m, r, M) follows from (m', r', M') when
-m' divides m, r ≡ r' (mod m') and M divides M'.
+m' divides m, r ≡ r' (mod m') and M divides M'.  A series divisible by M from some exponent s
+on (overpartitions modulo 2 from s = 1) gives the one congruence a(n + s) = 0 (mod M) instead
+of every class in that tail.
 
 A prime modulus is worked modulo that prime directly (the series is evaluated over GF(p),
 so order 10^5 takes seconds); another modulus, or a prime whose field cannot hold a
@@ -259,7 +261,10 @@ def find_congruences(f: str | Node | Series, order: int, *, max_m: int = 30,
                      definitions: Definitions = None) -> CongruenceSearch:
     """Every (m, r, M) with m <= ``max_m``, 0 <= r < m and M in ``moduli`` such that
     a(m n + r) ≡ 0 (mod M) for all m n + r below the order, except those implied by
-    another one found (see the module docstring).  f must have integer exponents (multiply
+    another one found (see the module docstring).  When the coefficients not divisible by
+    M all lie at the start (theta_3(q) = 1 + 2q + ... modulo 2), the tail from the next
+    exponent s is one congruence a(n + s) = 0 (mod M) (m = 1, r = s), which implies every
+    class that starts at or after s.  f must have integer exponents (multiply
     q^(-1/24) normalisations away first); negative exponents take part.  A residue class
     with no coefficient below the order is not reported.
 
@@ -298,6 +303,7 @@ def find_congruences(f: str | Node | Series, order: int, *, max_m: int = 30,
     # every series read on the same window q^lo .. q^(known - 1)
     residues = {mod: _residues(s, mod, lo, max(known - lo, 0)) for mod, s in series.items()}
     found: dict[tuple[int, int, int], int] = {}
+    tails: dict[int, int] = {}
     for mod in mods:
         values = residues[mod]
         for m in range(1, max_m + 1):
@@ -305,8 +311,37 @@ def find_congruences(f: str | Node | Series, order: int, *, max_m: int = 30,
                 cls = values[(r - lo) % m::m]
                 if cls and not any(cls):
                     found[(m, r, mod)] = len(cls)
+        start = _tail_start(values, lo)
+        if start is not None and (1, 0, mod) not in found:
+            tails[mod] = start
+            found[(1, start, mod)] = len(values) - (start - lo)
     keys = set(found)
     kept = [Congruence(m, r, mod, found[(m, r, mod)])
             for (m, r, mod) in sorted(found, key=lambda c: (c[0], c[1], c[2]))
-            if not _implied((m, r, mod), keys, mods)]
+            if not _implied((m, r, mod), keys, mods)
+            and not _in_a_tail((m, r, mod), tails)]
     return CongruenceSearch(known, max_m, mods, tuple(kept))
+
+
+def _tail_start(values: list[int], lo: int) -> int | None:
+    """The exponent s from which every coefficient read is divisible, when the ones that
+    are not all lie at the start (1 + 2q + 2q^4 + ...: s = 1) and the tail from s holds at
+    least ``FEW`` coefficients and half of those read; else None.
+
+    >>> _tail_start([1] + [0] * 40, 0), _tail_start([1] * 41, 0)
+    (1, None)
+    """
+    last = next((i for i in range(len(values) - 1, -1, -1) if values[i]), None)
+    if last is None:
+        return None
+    tail = len(values) - last - 1
+    return lo + last + 1 if tail >= FEW and 2 * tail >= len(values) else None
+
+
+def _in_a_tail(c: tuple[int, int, int], tails: Mapping[int, int]) -> bool:
+    """Whether (m, r, M) follows from a tail a(n + s) = 0 (mod M'), M | M': when the class
+    starts inside it, r >= s (a class that starts before s is the tail and a finite check,
+    and is kept)."""
+    m, r, mod = c
+    return any(big % mod == 0 and (m > 1 or big != mod) and r >= start
+               for big, start in tails.items())

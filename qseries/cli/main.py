@@ -35,7 +35,7 @@ from ..engine.chooser import (
 from ..engine.cost import CostEstimate, estimate_cost
 from ..errors import ParseError, QSeriesError
 from ..lang import Node, parse
-from ..lang.ast import extra_variables
+from ..lang.ast import children, extra_variables
 from ..lang.parser import NOTATION_FORMS, definitions_of, is_extra_variable, split_identity
 from ..products import FUNCTIONS
 from ..report import (
@@ -146,6 +146,34 @@ def _json_mode(value: bool) -> bool:
     return value
 
 
+#: the expressions of the running command as typed, with their trees (set by ``_parsed``): an
+#: evaluation error knows only its position, and is shown in the one text it points into
+_SOURCES: contextvars.ContextVar[tuple[tuple[str, Node], ...]] = \
+    contextvars.ContextVar("sources", default=())
+
+
+def _text_at(position: int, side: str | None = None) -> str | None:
+    """The text of the expression of the command that ``position`` points into: the side
+    of check named by ``side``, else the one expression with a node at ``position`` (the
+    sides of check both start at 0: a position held by both names neither)."""
+    sources = _SOURCES.get()
+    if side in ("left", "right") and len(sources) == 2:
+        text = sources[0 if side == "left" else 1][0]
+        return text if position < len(text) else None
+
+    def positions(node: Node) -> set[int]:
+        out, stack = set(), [node]
+        while stack:
+            n = stack.pop()
+            out.add(getattr(n, "pos", -1))
+            stack.extend(children(n))
+        return out
+
+    found = [text for text, node in sources
+             if position < len(text) and position in positions(node)]
+    return found[0] if len(found) == 1 else None
+
+
 LatexOption = Annotated[bool, typer.Option(
     "--latex", help="Print the result as LaTeX a paper can include (the parser reads it back).")]
 QuietOption = Annotated[bool, typer.Option(
@@ -205,7 +233,9 @@ def _parsed(exprs: list[str], defines: list[str] | None) -> list[Node]:
     """The expressions' syntax trees, with the --define functions expanded (exit 2 with the
     position on an error)."""
     defs = _guarded(definitions_of, defines or [])
-    return [_guarded(parse, e, (), defs) for e in exprs]
+    nodes = [_guarded(parse, e, (), defs) for e in exprs]
+    _SOURCES.set(tuple(zip(exprs, nodes, strict=True)))
+    return nodes
 
 
 WeightOption = Annotated[list[str] | None, typer.Option(
@@ -234,14 +264,20 @@ def _weights(items: list[str] | None) -> dict[str, int] | None:
 
 
 def _fail(message: str, err: QSeriesError | None = None) -> None:
+    position = getattr(err, "position", None)
+    text = err.text if isinstance(err, ParseError) else \
+        None if position is None else _text_at(position, getattr(err, "side", None))
     if _JSON_ERRORS.get():
-        position = getattr(err, "position", None)
         error: dict[str, Any] = {"message": getattr(err, "message", message),
                                  "position": position}
-        if isinstance(err, ParseError):
-            error["text"] = err.text       # the text the position points into
+        if text is not None:
+            error["text"] = text           # the text the position points into
         typer.echo(json.dumps({"error": error}))
         raise typer.Exit(2)
+    if text is not None and not isinstance(err, ParseError):
+        # an evaluation error names its column; show it in the text, as a parse error does
+        caret = str(ParseError("", text, position)).split("\n")[1:]
+        message = "\n".join([message, *caret])
     typer.echo(f"qseries: error: {message}", err=True)
     raise typer.Exit(2)
 
@@ -527,8 +563,10 @@ def distribution(
     trend_upto: Annotated[int | None, typer.Option(
         "--trend-upto", min=1, max=100_000,
         help="Also export the mean and variance for every n = 1 .. N.")] = None,
-    fmt: Annotated[ExportFormat, typer.Option(
-        "--format", help="Format of the --trend-upto table.")] = ExportFormat.csv,
+    fmt: Annotated[ExportFormat | None, typer.Option(
+        "--format", show_default=False,
+        help="Format of the --trend-upto table (and of --out).  [default: csv; json with "
+             "--json]")] = None,
     out: Annotated[Path | None, typer.Option(
         "--out", help="Write the --trend-upto table to this file (default: standard output); "
                       "without --trend-upto, every count of the --at sizes (CSV with the "
@@ -556,6 +594,8 @@ def distribution(
     """
     if not at and trend_upto is None:
         _fail("give a size with --at N, or --trend-upto N for the mean/variance table")
+    if fmt is None:
+        fmt = ExportFormat.json if as_json else ExportFormat.csv
     sizes = list(at or [])
     trend = list(range(1, trend_upto + 1)) if trend_upto else []
     [node] = _parsed([expr], define)
@@ -770,9 +810,28 @@ def _load(paths: list[Path] | None, only: list[str]) -> list:
     if not entries:
         _fail(f"no identities in {', '.join(str(p) for p in paths or [SHIPPED])}")
     chosen = select(entries, only)
+    for wanted in only:                   # each value must select something, not just one
+        if not select(entries, [wanted]):
+            _fail(f"no entry matches {wanted}{_near_entries(entries, wanted)}")
     if not chosen:
         _fail(f"no entry matches {', '.join(only)}")
     return chosen
+
+
+def _near_entries(entries: list, wanted: str) -> str:
+    """A hint for an --only value that selects nothing: the members whose label starts with
+    it (a family named with part of its parameters), else the closest key, label or tag."""
+    import difflib
+
+    want = " ".join(wanted.split())
+    labels = [e.label for e in entries]
+    members = [x for x in labels if x.startswith(want + " ")]
+    if members:
+        shown = ", ".join(members[:5]) + (", ..." if len(members) > 5 else "")
+        return f" (its members: {shown})"
+    names = {e.key for e in entries} | set(labels) | {t for e in entries for t in e.tags}
+    close = difflib.get_close_matches(want, sorted(names), n=1, cutoff=0.8)
+    return f" (did you mean {close[0]}?)" if close else ""
 
 
 @app.command()
@@ -833,9 +892,12 @@ def verify(
                 for r in results:
                     console.print(verify_line(r, expects[r.ident], labels.get(r.ident)),
                                   markup=False, highlight=False, soft_wrap=True)
-        console.print(verify_summary(results, elapsed, interrupted))
+        # whole lines (rich would fold them at 80 columns on a pipe, where grep reads them)
+        console.print(verify_summary(results, elapsed, interrupted), markup=False,
+                      highlight=False, soft_wrap=True)
         if len(results) > 1:
-            console.print(slowest_line(results, 5, labels), markup=False)
+            console.print(slowest_line(results, 5, labels), markup=False, highlight=False,
+                          soft_wrap=True)
     if interrupted:
         typer.echo(f"qseries: interrupted: {len(results)} of {job_count(entries)} entries "
                    f"finished", err=True)
@@ -870,7 +932,7 @@ def list_cmd(
     else:                                 # a pipe or a file: whole lines, never wrapped
         for row in rows:
             console.print(listing_line(row), markup=False, highlight=False, soft_wrap=True)
-    console.print(listing_summary(rows))
+    console.print(listing_summary(rows), markup=False, highlight=False, soft_wrap=True)
 
 
 from .prove import mention_prove, prove_cmd  # noqa: E402  (the command lives in its own module)
@@ -915,8 +977,54 @@ def _run_for_json(which: typer.Typer) -> None:
     sys.exit(code if isinstance(code, int) else 0)
 
 
+def _expression_as_option(args: list[str]) -> str | None:
+    """An argument before ``--`` that starts with a minus sign and is an expression (it
+    holds a bracket, a power or a fraction: ``-1/(q;q)_inf``), which the option parser
+    would refuse as an unknown option; None when there is none.
+
+    >>> _expression_as_option(["product", "-1/(q;q)_inf"]), _expression_as_option(["-n", "5"])
+    ('-1/(q;q)_inf', None)
+    >>> _expression_as_option(["scan", "-p", "b=0..1", "--right", "-1/(q;q)_inf", "$b"])
+    """
+    valued: set[str] | None = None
+    for i, arg in enumerate(args):
+        if arg == "--":
+            return None
+        if arg.startswith("-") and not arg.startswith("--") and len(arg) > 1 \
+                and any(ch in arg for ch in "()^/;_{}\\"):
+            if valued is None:
+                valued = _options_with_values(args[0] if args else "")
+            if i == 0 or args[i - 1] not in valued:     # not the value of --right and such
+                return arg
+    return None
+
+
+def _options_with_values(command: str) -> set[str]:
+    """The option names of ``command`` that take a value (the next argument, even one that
+    starts with a minus sign)."""
+    import typer.main
+
+    group = typer.main.get_command(app)
+    cmd = getattr(group, "commands", {}).get(command)
+    return {name for p in getattr(cmd, "params", ())
+            if getattr(p, "param_type_name", "") == "option" and not getattr(p, "is_flag", True)
+            for name in p.opts}
+
+
 def run() -> None:
     """Console-script entry point."""
+    leading = _expression_as_option(sys.argv[1:])
+    if leading is not None:
+        command = sys.argv[1] if len(sys.argv) > 1 and not sys.argv[1].startswith("-") \
+            else "expand"
+        message = (f"the expression {leading!r} starts with a minus sign, which reads as an "
+                   f"option: put it after -- with the options before it, as in qseries "
+                   f"{command} -n 10 -- {leading!r}")
+        if "--json" in sys.argv[1:]:
+            typer.echo(json.dumps({"error": {"message": message, "position": None}}))
+        else:
+            typer.echo(f"qseries: error: {message}", err=True)
+        sys.exit(2)
     which = _for_command(sys.argv[1:])
     try:
         if "--json" in sys.argv[1:]:

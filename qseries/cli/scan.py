@@ -162,7 +162,7 @@ def scan(
     interrupted, 2 on bad input or when the --cluster scheduler goes away (resume with
     --resume).
 
-    Example: qseries scan "sum_{n>=0} q^(n^2+$b n)/(q;q)_n" -p b=0..3 -n 500
+    Example: qseries scan 'sum_{n>=0} q^(n^2+$b n)/(q;q)_n' -p b=0..3 -n 500
     """
     from ..discovery import (
         Criteria,

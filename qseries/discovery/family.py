@@ -148,7 +148,9 @@ class Family:
             parse_param(f"{name}={rng}")
         if names and "$" not in self.template + (self.right or ""):
             raise ArgumentError("the template uses no parameter: write $NAME where a "
-                                "parameter's value goes, such as q^(n^2+$b n)")
+                                "parameter's value goes, such as q^(n^2+$b n), and put the "
+                                "template in single quotes (in double quotes the shell "
+                                "replaces $b before qseries sees it)")
 
     def _bound_nodes(self) -> list[tuple[str, Node, Node]]:
         out = []

@@ -105,6 +105,9 @@ def apply_parts(ev: Evaluator, acc: Series, factors: list[tuple[Node, int]], env
                                   position=getattr(node, "pos", 0))
             acc = acc * rational_power(v, Fraction(p))
             continue
+        if p < 0 and v.is_zero() and v.is_exact:      # 1/(q - q): the divisor is 0
+            raise DomainError(f"division by zero at column {getattr(node, 'pos', 0) + 1}",
+                              position=getattr(node, "pos", 0))
         b = binomial_parts(v)
         if b is not None:
             binoms.append((b[0], b[1], p))

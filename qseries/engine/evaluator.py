@@ -510,6 +510,12 @@ class Evaluator:
         return hit[1]
 
     def _sum(self, node: BigOp, env: dict[str, int], order: int) -> Value:
+        try:
+            return self._sum_value(node, env, order)
+        except DomainError as err:
+            raise _placed(err, node) from None
+
+    def _sum_value(self, node: BigOp, env: dict[str, int], order: int) -> Value:
         new = self._reordered(node)
         if not isinstance(new, BigOp):
             return self.value(new, env, order)
@@ -546,7 +552,10 @@ class Evaluator:
                 return self.value(new, env, order), None
             node = new
             ks, cut = ranges.term_range(self, node, env, order, deviation=False)
-            got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
+            try:
+                got = sums.sum_value(self, node, ks, env, order, parts=True, cut=cut)
+            except DomainError as err:
+                raise _placed(err, node) from None
             hit = got if isinstance(got, tuple) else (got, None)
             if closed:
                 self._cache[key] = hit
@@ -656,3 +665,18 @@ def check_weights(weights: dict[str, int] | None, names: frozenset[str] | set[st
             raise ArgumentError(f"a weight is given for {name!r}, which is not an extra "
                                 f"variable of the expression")
         integer_argument(f"the weight of {name!r}", w, 0, MAX_INTEGER)
+
+
+def _placed(err: DomainError, node: BigOp) -> DomainError:
+    """``err`` raised by a term of the sum ``node`` (by a strategy that evaluates the terms
+    itself, without the nodes' positions) with the sum's position, when it has none.
+
+    >>> str(_placed(DomainError("division by zero"), parse("1 + sum_{k=0}^{3} q^k").right))
+    'division by zero in a term of sum_{k=...} at column 5'
+    """
+    if err.position is not None:
+        return err
+    name = label(node)
+    text = str(err) if name in str(err) else f"{err} in a term of {name}"   # named already
+    return DomainError(f"{text} at column {node.pos + 1}", weights_may_help=err.weights_may_help,
+                       position=node.pos)

@@ -153,7 +153,7 @@ def _cutoff(ev: Evaluator, node: BigOp, env: dict[str, int], order: int, sign: i
             raise weight_may_help(DomainError(
                 f"{name} does not converge as a formal power series: the valuation of "
                 f"its {var}-th {what} is {poly_text(poly, var, sign)}, which does not "
-                f"grow"))
+                f"grow" + (f" as {var} runs to -inf" if sign < 0 else "")))
         raise weight_may_help(UnableError(
             f"cannot show that {name} converges as a formal power series: the valuation "
             f"of its {var}-th {what} is only known to be at least "

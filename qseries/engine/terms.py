@@ -41,10 +41,19 @@ def ceil_int(x: Fraction | int) -> int:
 
 
 def rational_power(base: Fraction, e: Fraction) -> Fraction:
+    """base^e when it is rational: 4^(1/2) = 2, (-8)^(1/3) = -2; an irrational value such as
+    2^(1/2) is refused.
+
+    >>> rational_power(Fraction(9, 4), Fraction(3, 2)), rational_power(Fraction(-8), Fraction(1, 3))
+    (Fraction(27, 8), Fraction(-2, 1))
+    """
     if e.denominator != 1:
-        if base == 1:
-            return Fraction(1)
-        raise UnableError(f"{base}^{e} is not rational; only integer powers of numbers")
+        root = _exact_root(base, e.denominator)
+        if root is None:
+            shown = str(base) if base >= 0 and base.denominator == 1 else f"({base})"
+            raise UnableError(f"{shown}^({e}) is not rational; only integer powers of numbers "
+                              f"and rational roots of them")
+        base, e = root, Fraction(e.numerator)
     n = e.numerator
     if n < 0 and base == 0:
         raise DomainError("division by zero (0 to a negative power)")
@@ -53,6 +62,38 @@ def rational_power(base: Fraction, e: Fraction) -> Fraction:
         raise UnableError(f"the number {short_number_text(base)}^{short_number_text(n)} is "
                           f"too large")
     return base ** n
+
+
+def _exact_root(x: Fraction, k: int) -> Fraction | None:
+    """The rational k-th root of x (real; of a negative x only for odd k), or None."""
+    if x < 0:
+        if k % 2 == 0:
+            return None
+        root = _exact_root(-x, k)
+        return None if root is None else -root
+    if max(x.numerator.bit_length(), x.denominator.bit_length()) > MAX_BITS:
+        return None
+    parts = []
+    for v in (x.numerator, x.denominator):
+        r = _integer_root(v, k)
+        if r ** k != v:
+            return None
+        parts.append(r)
+    return Fraction(parts[0], parts[1])
+
+
+def _integer_root(v: int, k: int) -> int:
+    """floor(v^(1/k)) for v >= 0, by Newton's method on integers."""
+    if v < 2:
+        return v
+    if k >= v.bit_length():                   # 1 <= root < 2
+        return 1
+    r = 1 << -(-v.bit_length() // k)          # an upper bound
+    while True:
+        s = ((k - 1) * r + v // r ** (k - 1)) // k
+        if s >= r:
+            return r
+        r = s
 
 
 def scalar_power(c: LaurentPoly, n: int) -> LaurentPoly:
@@ -98,15 +139,26 @@ def fraction_text(v: Fraction) -> str:
 
 
 def poly_text(p: sym.Poly, var: str, sign: int) -> str:
+    """The polynomial p(m) in m = sign * var as a polynomial in ``var``.
+
+    >>> poly_text([0, -1], "n", 1), poly_text([0, -1], "k", -1), poly_text([3, 1, 2], "k", -1)
+    ('-n', 'k', '2k^2 - k + 3')
+    """
     if not p:
         return "0"
-    m = var if sign > 0 else f"(-{var})"
     parts = []
     for i in range(len(p) - 1, -1, -1):
-        if p[i]:
-            power = "" if i == 0 else f"*{m}" + ("" if i == 1 else f"^{i}")
-            parts.append(f"{fraction_text(p[i])}{power}")
-    return " + ".join(parts)
+        c = p[i] * (sign ** i)
+        if not c:
+            continue
+        power = "" if i == 0 else var + ("" if i == 1 else f"^{i}")
+        size = fraction_text(abs(c))
+        term = size if i == 0 else (power if abs(c) == 1 else f"{size}{power}")
+        if not parts:
+            parts.append(term if c > 0 else f"-{term}")
+        else:
+            parts.append(f"+ {term}" if c > 0 else f"- {term}")
+    return " ".join(parts)
 
 
 def factors_of(node: Node, p: int = 1) -> list[tuple[Node, int]]:

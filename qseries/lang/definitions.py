@@ -61,6 +61,13 @@ def split_head(text: str) -> tuple[str, tuple[str, ...], int, list[Token]]:
     from .parser import is_extra_variable  # the parser imports this module
 
     toks = tokenize(text)
+    if len(toks) > 2 and toks[0].kind == "name" and toks[1].text == "_":
+        sub = toks[3].text if toks[2].text == "{" and len(toks) > 3 else toks[2].text
+        if toks[0].text == "theta":
+            raise ParseError(f"'theta_{sub}' is already a name of the notation; choose another "
+                             f"name", text, toks[0].pos)
+        raise ParseError(f"a defined name carries no subscript: write {toks[0].text}{sub}(q) = "
+                         f"... and call it as {toks[0].text}{sub}(q)", text, toks[1].pos)
     if len(toks) < 5 or toks[0].kind != "name" or toks[1].text != "(":
         raise ParseError("a definition reads NAME(q) = EXPRESSION, e.g. "
                          "G(q) = 1/((q;q^5)_inf (q^4;q^5)_inf)", text, toks[0].pos)

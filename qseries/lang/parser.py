@@ -76,7 +76,7 @@ NOTATION_FORMS = [
     ("(a;q)_inf  (a;q)_∞", "infinite q-Pochhammer product"),
     ("(a,b,c;q)_inf", "the product (a;q)_inf (b;q)_inf (c;q)_inf"),
     ("sum_{k>=0} T   sum_{k=0}^{10} T", "sums; the body T is the product term that follows"),
-    ("sum_{k=-inf}^{inf} T", "bilateral sum"),
+    ("sum_{k=-inf}^{inf} T   \\sum_{k\\in\\mathbb{Z}} T", "bilateral sum"),
     ("prod_{n>=1} T   prod_{n=1}^{inf} T", "products"),
     ("O(q^N)", "an unknown remainder of order N"),
     ("sum_{i,j>=0} T   sum_{n1>=n2>=0} T", "multi-sums: indices over one range, or a chain "
@@ -86,6 +86,8 @@ NOTATION_FORMS = [
                                                    "the ones defined by a sum at any argument"),
     ("\\sum_{n\\ge0}\\frac{q^{n^2}}{(q;q)_n}", "LaTeX as papers print it (\\frac, \\binom{n}{k}_q, "
                                            "\\infty, \\eta(\\tau), \\theta_3, ...)"),
+    ("phi^2(q)  (q;q)^2_\\infty", "a power written before the argument or the subscript, as "
+                                 "papers print it: phi(q)^2, (q;q)_inf^2"),
     ("Σ ∏ ≥ ≤ η θ φ ψ χ τ", "Unicode as PDFs print it"),
     ("[q^(5n+4)] F   [q^{5n+4}] F", "dissection: the series sum_n [q^(5n+4)]F q^n; F is the "
                                     "product term that follows; any fresh index letter; "
@@ -110,6 +112,8 @@ class _Parser:
         self.params = frozenset(params)
         # set when a sum or product has just taken the rest of the term as its body
         self.tail_taken = False
+        #: a Gaussian binomial written as a matrix whose _q follows the closing bracket
+        self.bracketed_gaussian: Node | None = None
 
     # -- helpers ------------------------------------------------------------------------
     @property
@@ -219,8 +223,23 @@ class _Parser:
         base = self.atom()
         if self.at("^") and not self.tail_taken:
             t = self.take()
+            sign = self.tok.text if self.at("-", "+") else ""
+            self.refuse_glued_number(1 if sign else 0, lambda num, word: (
+                f"q^{sign}{num}{word} is ambiguous: write q^({sign}{num}{word}) for the "
+                f"power, or q^{sign}{num} {word} for the product"))
             base = BinOp("^", base, self.signed(), t.pos)  # q^-2: a signed exponent
         return base
+
+    def refuse_glued_number(self, offset: int, message) -> None:
+        """Refuse a number written against a letter (``2n``) where one token is read: an
+        exponent or a subscript takes the number alone, so ``q^2n`` would be q^2 n and
+        ``(q;q)_2n`` would be (q;q)_2 n, never what a paper's q^{2n} means."""
+        if self.i + offset + 1 >= len(self.toks):
+            return
+        t, u = self.toks[self.i + offset], self.toks[self.i + offset + 1]
+        if t.kind == "num" and u.kind == "name" and u.pos == t.pos + len(t.text) \
+                and self.text[u.pos].isalpha():  # q^2\eta(q) is LaTeX's q^{2} eta(q)
+            raise ParseError(message(t.text, u.text), self.text, t.pos)
 
     def atom(self) -> Node:
         t = self.tok
@@ -402,6 +421,15 @@ class _Parser:
         if isinstance(name, tuple):
             name, t = name
         assert t is not None
+        if self.at("^"):
+            # phi^2(q), f^3(-q), \vartheta_3^4(q): papers put the power before the argument
+            caret = self.take()
+            exponent = self.signed()
+            return BinOp("^", self.call_body(name, t), exponent, caret.pos)
+        return self.call_body(name, t)
+
+    def call_body(self, name: str, t: Token) -> Node:
+        """A call after its name: the arguments in parentheses, expanded in place."""
         entry = FUNCTIONS.get(name)
         self.expect("(", f" after {name}")
         tau = self.tau_argument() if name == "eta" else None
@@ -469,10 +497,16 @@ class _Parser:
                 raise self.error("expected \\end{bmatrix} after the two rows of a Gaussian "
                                  "binomial")
             self.take()
-            if not self.gaussian_subscript():
-                raise self.error("a matrix stands for a Gaussian binomial here: write "
-                                 "\\begin{bmatrix} n \\\\ k \\end{bmatrix}_q")
-            return Call("gaussian", (top, bottom), t.pos)
+            gaussian = Call("gaussian", (top, bottom), t.pos)
+            if self.gaussian_subscript():
+                return gaussian
+            if self.at(")") and self.toks[self.i + 1].text == "_":
+                # \left[\begin{matrix} n \\ k \end{matrix}\right]_q: the bracket's _q, taken
+                # by ``paren`` when the matrix is all the bracket holds
+                self.bracketed_gaussian = gaussian
+                return gaussian
+            raise self.error("a matrix stands for a Gaussian binomial here: write "
+                             "\\begin{bmatrix} n \\\\ k \\end{bmatrix}_q")
         raise self.error(f"unexpected {t.text}")
 
     def gaussian_subscript(self) -> bool:
@@ -517,14 +551,44 @@ class _Parser:
             self.expect(";", " in a q-Pochhammer symbol (a;q)_n")
             base = self.expr()
             self.expect(")")
+            power = self.power_before_subscript(True)
             length = self.subscript("a q-Pochhammer symbol")
-            return Poch(tuple(params), base, length, open_tok.pos)
+            return self.raised(Poch(tuple(params), base, length, open_tok.pos), power)
         self.expect(")")
+        if first is self.bracketed_gaussian:
+            self.bracketed_gaussian = None
+            if not self.gaussian_subscript():
+                raise self.error("a matrix stands for a Gaussian binomial here: write "
+                                 "\\left[\\begin{matrix} n \\\\ k \\end{matrix}\\right]_q")
+            return first
+        if self.bracketed_gaussian is not None:
+            raise self.error("a matrix in square brackets stands for a Gaussian binomial: "
+                             "write \\left[\\begin{matrix} n \\\\ k \\end{matrix}\\right]_q "
+                             "with nothing else inside the brackets")
+        power = self.power_before_subscript(False)
         if self.at("_"):
             # (a)_n is the usual shorthand for (a;q)_n
             length = self.subscript("a q-Pochhammer symbol")
-            return Poch((first,), Q(open_tok.pos), length, open_tok.pos)
+            return self.raised(Poch((first,), Q(open_tok.pos), length, open_tok.pos), power)
         return first
+
+    def power_before_subscript(self, always: bool) -> tuple[Node, int] | None:
+        """``^e`` written between a q-Pochhammer symbol's ')' and its subscript, as LaTeX
+        prints (q;q)^2_\\infty: (the exponent, the caret's position), or None.  After
+        ``(a)`` only when a subscript follows (``(1-q)^2`` is a power of a bracket)."""
+        if not self.at("^"):
+            return None
+        save = self.i
+        caret = self.take()
+        exponent = self.signed()
+        if always or self.at("_"):
+            return exponent, caret.pos
+        self.i = save
+        return None
+
+    @staticmethod
+    def raised(node: Node, power: tuple[Node, int] | None) -> Node:
+        return node if power is None else BinOp("^", node, power[0], power[1])
 
     def subscript(self, what: str) -> Node | None:
         """After ``_``: None for infinity, else the length expression."""
@@ -539,6 +603,13 @@ class _Parser:
             self.take()
             return None
         if t.kind == "num":
+            mark = self.toks[self.i - 1].text if self.i else "_"       # '_' or '^'
+            what, other = ("subscript", "the product") if mark == "_" else \
+                ("upper limit", "the limit and then the term")
+            self.refuse_glued_number(0, lambda num, word: (
+                f"{mark}{num}{word} is ambiguous: write {mark}({num}{word}) or "
+                f"{mark}{{{num}{word}}} for the {what} {num}{word}, or {mark}{num} {word} for "
+                f"{other}"))
             self.take()
             return Num(Fraction(int(t.text)), t.pos)
         joined = self.bound_subscripted()
@@ -590,14 +661,19 @@ class _Parser:
         elif self.at("="):
             self.take()
             lower = self.bound_expr(allow_minus_inf=True)
+        elif self.at("∈"):                       # n \in \mathbb{Z}: every integer
+            self.take()
+            self.expect("ℤ", " after \\in (a sum over the integers: n \\in \\mathbb{Z})")
+            lower = None
+            has_upper_allowed = False
         else:
             raise self.error(f"expected '>=' or '=' after the variable {var!r}")
         self.expect("}")
         explicit_upper = False
         if self.at("^"):
             if not has_upper_allowed:
-                raise self.error(f"{kind}_{{{var}>=...}} has no upper limit; "
-                                 f"write {kind}_{{{var}=...}}^{{...}}")
+                raise self.error(f"{kind}_{{{var}>=...}} and {kind}_{{{var} in Z}} have no "
+                                 f"upper limit; write {kind}_{{{var}=...}}^{{...}}")
             self.take()
             upper = self.upper_bound()
             explicit_upper = True
@@ -734,7 +810,10 @@ def _linear(node: Node, var: str) -> tuple[Fraction, Fraction] | None:
 
 
 def _suggestion(name: str, defined: list[str]) -> str | None:
-    """The known name closest to ``name`` (``Sum`` -> ``sum``, ``infty`` -> ``inf``)."""
+    """The known name closest to ``name`` (``Sum`` -> ``sum``, ``infty`` -> ``inf``;
+    ``infinity`` and ``oo``, other spellings of infinity, -> ``inf``)."""
+    if name.lower() in ("infinity", "oo"):
+        return "inf"
     known = ["sum", "prod", "inf", *FUNCTIONS, *defined]
     lowered = {k.lower(): k for k in known}
     close = difflib.get_close_matches(name.lower(), list(lowered), n=1, cutoff=0.6)
@@ -795,20 +874,23 @@ def split_identity(text: str) -> tuple[str, str]:
     >>> split_identity(r"\[ 1/(1-q) = \sum_{n\ge0} q^n \]")
     (' 1/(1-q) ', ' \\sum_{n\\ge0} q^n ')
     """
-    depth, cuts = 0, []
+    depth, cuts, width = 0, [], 1
     for t in tokenize(text):
         if t.kind == "sym" and t.text in ("(", "{", "["):
             depth += 1
         elif t.kind == "sym" and t.text in (")", "}", "]"):
             depth -= 1
         elif t.kind == "sym" and t.text == "=" and depth == 0:
+            if cuts and cuts[-1] + width == t.pos and width == 1:
+                width = 2                  # '==', as programmers write it: one sign
+                continue
             cuts.append(t.pos)
     if len(cuts) != 1:
         raise ParseError("give the two sides as two arguments (LHS RHS), or one text with "
                          "one '=' between them" + (f" (this one has {len(cuts)})" if cuts
                                                    else ""), text, cuts[1] if cuts else 0)
     start, end = display_body(text)
-    return text[start:cuts[0]], text[cuts[0] + 1:end]
+    return text[start:cuts[0]], text[cuts[0] + width:end]
 
 
 def parse(text: str, bound: Iterable[str] = (),

@@ -35,7 +35,7 @@ UNICODE = {
     "Σ": ("name", "sum"), "∑": ("name", "sum"), "Π": ("name", "prod"), "∏": ("name", "prod"),
     "η": ("name", "eta"), "θ": ("name", "theta"), "ϑ": ("name", "theta"),
     "φ": ("name", "phi"), "ϕ": ("name", "phi"), "ψ": ("name", "psi"), "χ": ("name", "chi"),
-    "τ": ("name", "tau"),
+    "τ": ("name", "tau"), "∈": ("sym", "∈"), "ℤ": ("sym", "ℤ"),
 }
 
 #: LaTeX commands, as the token their plain spelling gives
@@ -49,7 +49,7 @@ LATEX = {
     "chi": ("name", "chi"), "tau": ("name", "tau"),
     "frac": ("cmd", "frac"), "dfrac": ("cmd", "frac"), "tfrac": ("cmd", "frac"),
     "binom": ("cmd", "binom"), "dbinom": ("cmd", "binom"), "tbinom": ("cmd", "binom"),
-    "{": ("sym", "("), "}": ("sym", ")"),
+    "{": ("sym", "("), "}": ("sym", ")"), "in": ("sym", "∈"),
 }
 #: LaTeX commands that only space or size what follows: dropped
 LATEX_IGNORED = frozenset({
@@ -122,6 +122,18 @@ def _command(text: str, i: int) -> tuple[list[Token], int]:
                              f"binomial is written \\begin{{bmatrix}} n \\\\ k "
                              f"\\end{{bmatrix}}_q or \\binom{{n}}{{k}}_q", text, i)
         return [Token("cmd", f"{name}-matrix", i)], close + 1
+    if name == "mathbb":                             # \mathbb{Z}, \mathbb Z: the integers
+        k = j
+        while k < n and text[k].isspace():
+            k += 1
+        braced = k < n and text[k] == "{"
+        letter = text[k + 1:text.find("}", k)].strip() if braced else text[k:k + 1]
+        after = text.find("}", k) + 1 if braced else k + 1
+        if letter != "Z" or (braced and after == 0):
+            raise ParseError(f"\\mathbb{{{letter}}} is not read here: a sum over the integers "
+                             f"is written n \\in \\mathbb{{Z}}; over the naturals write n \\ge 0 "
+                             f"or n \\ge 1", text, i)
+        return [Token("sym", "ℤ", i)], after
     if name in ("ldots", "dots", "cdots", "dotsc", "dotsb"):
         raise ParseError("'...' cannot be evaluated: write every parameter out", text, i)
     if name in LATEX:

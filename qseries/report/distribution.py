@@ -80,7 +80,7 @@ def distribution_lines(d: Distribution, var: str, moments: int) -> list[str]:
       standardised moments (normal distribution in brackets):
        1: 0.0000 [0]  2: 1.0000 [1]
     """
-    lines = [f"n = {d.n}: {number_text(d.total)} objects"]
+    lines = [f"n = {d.n}: {number_text(d.total)} object{'' if d.total == 1 else 's'}"]
     counts = list(d.counts.items())
     if len(counts) <= SHOWN_VALUES:
         lines.extend("  " + _row(var, j, c, d.total) for j, c in counts)
@@ -107,6 +107,9 @@ def distribution_lines(d: Distribution, var: str, moments: int) -> list[str]:
                  ", ".join(f"{name}: {quantile(d, p)}" for p, name in QUANTILES))
     lines.append(f"  mean      {number_text(d.mean)}  = {decimal_text(d.mean)}")
     lines.append(f"  variance  {number_text(d.variance)}  = {decimal_text(d.variance)}")
+    if d.variance == 0:                   # one value: E[(X - mean)^r] / 0^r is undefined
+        lines.append("  standardised moments: none (the variance is 0)")
+        return lines
     lines.append("  standardised moments (normal distribution in brackets):")
     lines.append("   " + "  ".join(f"{r}: {d.standardised_moment(r):.4f} [{normal_moment(r)}]"
                                    for r in range(1, moments + 1)))

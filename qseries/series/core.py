@@ -595,7 +595,15 @@ class Series:
     def _in(self, d: int) -> Series:
         """The series G with self = G(q^(1/d)), for d a multiple of ``den``."""
         k = d // self.den
-        return self._base() if k == 1 else self._base().inflate(k)
+        if k == 1:
+            return self._base()
+        span = self.ring._length(self.poly) - 1 if self.prec is None else \
+            self.prec - self.start
+        if span > 0 and span * k + 1 > MAX_LENGTH:
+            raise UnableError(f"the fractional exponents need the common power q^(1/{d}), in "
+                              f"which this series spans {span * k + 1} terms, beyond the "
+                              f"limit {MAX_LENGTH}")
+        return self._base().inflate(k)
 
     def _capped(self, absolute: Exponent | None) -> Series:
         """self with its absolute precision at most ``absolute`` where the class of its

@@ -234,3 +234,13 @@ def test_auto_choice_weighs_the_number_of_primes():
     assert auto_method(lhs, rhs, 6000, ZZ, primes=10) == "exact"
     assert check("1/(q;q)_inf", "1/(q;q)_inf", order=6000, method="auto",
                  primes=10).method == "exact"
+
+
+def test_an_undefined_side_under_the_modular_method_is_not_blamed_on_the_prime():
+    # 1/(1-1) is undefined exactly: the modular check's error said "(modulo the prime p; try
+    # --method exact)", which fails the same way; it now names the side and its column
+    from qseries.errors import DomainError
+    with pytest.raises(DomainError) as err:
+        check("1/(1-q)", "q + 1/(1-1)", order=100, method="modular")
+    assert "modulo the prime" not in str(err.value) and "try --method exact" not in str(err.value)
+    assert err.value.side == "right" and err.value.position == 8

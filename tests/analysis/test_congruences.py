@@ -92,6 +92,38 @@ def test_overpartitions_modulo_4():
     assert (8, 5, 4) in minimal and (3, 2, 4) in minimal
 
 
+def test_overpartitions_are_even_from_n_1_on_in_one_line():
+    """p̄(n) is even for n >= 1 (each overpartition of n >= 1 pairs off with the one whose
+    first occurrence of its largest part is overlined or not; Corteel and Lovejoy, from
+    memory; here also 1/phi(-q) = 1 mod 2, derived above).  The search listed 132 classes
+    a(mn + r) = 0 (mod 2), r >= 1, each implied by that one statement; it is now the one
+    congruence a(n + 1) = 0 (mod 2), and none of those it implies is listed."""
+    overpartitions = _overpartitions_by_enumeration(25)
+    assert all(c % 2 == 0 for c in overpartitions[1:]) and overpartitions[0] == 1
+    s = find_congruences("(-q;q)_inf/(q;q)_inf", 3000)
+    mod2 = [c for c in _found(s) if c[2] == 2]
+    assert mod2 == [(1, 1, 2)]
+    tail = next(c for c in s.congruences if (c.m, c.r, c.modulus) == (1, 1, 2))
+    assert tail.checked == 2999
+    # theta_3(q) = 1 + 2 sum_{n>=1} q^(n^2) (DLMF 20.2.3): the same, modulo 2 only
+    t = find_congruences("theta_3(q)", 1000, moduli=[2, 3])
+    assert [c for c in _found(t) if c[2] == 2] == [(1, 1, 2)]
+    assert (3, 2, 3) in _found(t)            # a square is never 2 mod 3: a class of zeros
+
+
+def test_a_tail_implies_only_the_classes_that_start_inside_it():
+    """1 + q^2 + 2q/(1 - q) = 1 + 2q + 3q^2 + 2q^3 + 2q^4 + ...: odd only at q^0 and q^2, so
+    a(n + 3) = 0 (mod 2); a(2n + 1), a(3n + 1) and a(5n + 1) start at q^1, before the tail,
+    and are not implied by it; a(5n + 3) and a(5n + 4) are."""
+    s = find_congruences("1 + q^2 + 2q/(1-q)", 400, max_m=5, moduli=[2])
+    found = _found(s)
+    assert {(1, 3, 2), (2, 1, 2), (3, 1, 2), (5, 1, 2)} <= set(found)
+    assert (5, 3, 2) not in found and (5, 4, 2) not in found
+    # a tail resting on few coefficients is not one: odd up to q^389
+    late = find_congruences("1/(1-q) - q^390/(1-q)", 400, max_m=2, moduli=[2])
+    assert all(c.m != 1 for c in late.congruences)
+
+
 def test_divisible_reports_the_first_counterexample():
     d = divisible("1/(q;q)_inf", 7, 50, m=5, r=4)
     assert not d.holds and not d

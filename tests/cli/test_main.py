@@ -162,6 +162,24 @@ def test_module_entry_point_and_real_process_exit_codes():
     assert unknown.returncode == 3 and "INCONCLUSIVE" in unknown.stdout
 
 
+@pytest.mark.parametrize("args", [
+    ["product", "-1/(q;q)_inf", "-n", "20"],
+    ["check", "-q/(1-q)", "q/(q-1)"],
+    ["expand", "-n", "5", "-(q;q)_inf", "--json"],
+])
+def test_an_expression_starting_with_a_minus_sign_is_told_to_follow_the_double_dash(args):
+    # "Error: No such option: -1", with nothing about the documented cure
+    r = subprocess.run([sys.executable, "-m", "qseries", *args], capture_output=True, text=True)
+    assert r.returncode == 2 and "Traceback" not in r.stderr
+    message = json.loads(r.stdout)["error"]["message"] if "--json" in args else r.stderr
+    assert f"'{args[1] if args[0] != 'expand' else args[3]}'" in message
+    assert "--" in message and "minus sign" in message
+    # as documented, after -- it reads (qseries expand -n 10 -- "-q/(1-q)")
+    ok = subprocess.run([sys.executable, "-m", "qseries", "expand", "-n", "3", "--", "-q"],
+                        capture_output=True, text=True)
+    assert ok.returncode == 0 and ok.stdout.startswith("-q")
+
+
 def test_verify_shipped_catalogue_subset_and_json():
     # the command line's path through verify (selection by tag, --order, JSON); every entry is
     # verified at its recorded order in-process by tests/catalogue/test_verify.py, so this
@@ -201,6 +219,29 @@ def test_verify_and_list_into_a_pipe_print_whole_lines():
     assert any(line.startswith("durfee-rectangle m=1..5  5  ")
                for line in listing.stdout.splitlines())
     assert "┃" not in listing.stdout and "│" not in r.stdout
+
+
+def test_verify_summary_and_slowest_lines_into_a_pipe_are_whole_lines():
+    # the lines under the entries were still folded at 80 columns on a pipe
+    # ("... is evidence, not" / "a proof"), so grep saw half of them
+    r = run("verify", "--only", "durfee-rectangle", "--order", "20", "-j", "1")
+    assert r.exit_code == 0, r.output
+    lines = r.stdout.splitlines()
+    summary = [line for line in lines if "entries behave as recorded" in line]
+    assert len(summary) == 1 and summary[0].endswith("evidence, not a proof")
+    slowest = [line for line in lines if line.startswith("slowest: ")]
+    assert len(slowest) == 1
+    assert all(f"durfee-rectangle m={m} (" in slowest[0] for m in range(1, 6))
+
+
+def test_verify_only_with_a_value_that_matches_nothing_is_refused():
+    # two --only values, one mistyped: verify ran the other and reported success
+    r = run("verify", "--only", "euler-pentagonal", "--only", "euler-pentagonl", "-n", "20")
+    assert r.exit_code == 2
+    assert "euler-pentagonl" in r.stderr and "did you mean euler-pentagonal?" in r.stderr
+    # a family named with part of a member's parameters: the members it may mean
+    r = run("verify", "--only", "andrews-gordon k=3", "-n", "20")
+    assert r.exit_code == 2 and "andrews-gordon k=3 i=1" in r.stderr
 
 
 def test_verify_malformed_file_exits_2_with_file_and_line(tmp_path):
@@ -336,6 +377,18 @@ def test_distribution_command(tmp_path):
                 ["distribution", durfee, "--var", "a", "--at", "3"]):
         r = run(*bad)
         assert r.exit_code == 2 and "Traceback" not in r.output
+
+
+def test_distribution_trend_under_json_is_json():
+    # --trend-upto with --json printed the CSV table (--format defaulted to csv)
+    durfee = "sum_{k>=0} z^k q^(k^2)/(q;q)_k^2"
+    r = run("distribution", durfee, "--trend-upto", "4", "--json")
+    assert r.exit_code == 0
+    rows = json.loads(r.stdout)
+    # of the 5 partitions of 4, four have a Durfee square of side 1 and one of side 2
+    assert rows[3]["n"] == 4 and rows[3]["mean"] == "6/5" and rows[3]["variance"] == "4/25"
+    r = run("distribution", durfee, "--trend-upto", "4", "--json", "--format", "csv")
+    assert r.stdout.startswith("n,total,mean,variance")          # asked for by name
 
 
 def test_weighted_mismatch_exit_1():
@@ -497,10 +550,11 @@ def test_an_undefined_function_exits_2_and_says_how_to_define_it():
     (["expand", "1/(q"], 4, "1/(q"),
     (["check", "Sum_{k>=0} q", "q"], 0, "Sum_{k>=0} q"),
     (["product", "q + G(q)"], 4, "q + G(q)"),
-    # undefined rather than malformed: the evaluator's error carries the position too
-    (["expand", "1/0"], 2, None),
-    (["expand", "q + q^(q)"], 7, None),
-    (["expand", "sum_{n>=0} q^n/(1-1)"], 17, None),
+    # undefined rather than malformed: the evaluator's error carries the position too (and
+    # the text it points into)
+    (["expand", "1/0"], 2, "1/0"),
+    (["expand", "q + q^(q)"], 7, "q + q^(q)"),
+    (["expand", "sum_{n>=0} q^n/(1-1)"], 17, "sum_{n>=0} q^n/(1-1)"),
 ])
 def test_with_json_an_error_is_json_with_its_position(args, position, text):
     r = run(*args, "--json")
@@ -511,6 +565,26 @@ def test_with_json_an_error_is_json_with_its_position(args, position, text):
     # the same command without --json: the text form, on standard error
     r = run(*args)
     assert r.exit_code == 2 and r.stdout == "" and "qseries: error:" in r.output
+
+
+@pytest.mark.parametrize(("args", "position", "text"), [
+    # an identity pasted as one argument: the column of an evaluation error counted into the
+    # right side, while the user sees one text ("division by zero at column 12" pointed into
+    # the left side); the side's text now comes with it, as for a parse error
+    (["check", "sum_{n>=0} q^n = 1/(1-q)/(1-1)"], 11, " 1/(1-q)/(1-1)"),
+    (["check", "1/(1-1)", "1"], 4, "1/(1-1)"),
+    (["check", "1", "q + 1/(1-1)"], 8, "q + 1/(1-1)"),
+    (["expand", "q + 1/(q-q)"], 8, "q + 1/(q-q)"),
+])
+def test_an_evaluation_error_comes_with_the_text_it_points_into(args, position, text):
+    r = run(*args, "--json")
+    assert r.exit_code == 2
+    err = json.loads(r.stdout)["error"]
+    assert err["position"] == position and err["text"] == text
+    r = run(*args)
+    lines = r.stderr.splitlines()
+    assert r.exit_code == 2 and lines[1] == "  " + text
+    assert lines[2] == "  " + " " * position + "^"
 
 
 def test_latex_output_of_expand_product_and_check():

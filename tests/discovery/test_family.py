@@ -58,8 +58,10 @@ def test_bad_constraints_are_refused(constraint):
 
 
 def test_a_template_without_parameters_is_refused():
-    with pytest.raises(ArgumentError, match="uses no parameter"):
+    with pytest.raises(ArgumentError, match="uses no parameter") as err:
         Family("sum_{n>=0} q^(n^2)/(q;q)_n", (("b", "0..1"),))
+    # the usual cause: the template in double quotes, where the shell replaced $b by nothing
+    assert "single quotes" in str(err.value)
 
 
 def test_a_range_end_with_an_unknown_name_is_refused():

@@ -107,6 +107,22 @@ def test_division_by_zero(text):
         evaluate(text, 10)
 
 
+@pytest.mark.parametrize("text, column", [
+    # a term of a sum that divides by zero (k = 0 in a Lambert series started at 0) was
+    # "division by zero" with no position at all: the divisor at fault is named, or the sum
+    ("sum_{k>=0} q^k/(1-q^k)", 18),
+    ("1 + sum_{k=0}^{3} q^k/(1-q^k)", 25),
+    ("(q;q)_inf + sum_{n>=0} q^n/(q;q)_(n-1)^(-1)", 13),
+    ("q + 1/(q-q)", 9),              # a divisor that is exactly 0
+])
+def test_a_division_by_zero_names_its_place(text, column):
+    with pytest.raises(DomainError) as err:
+        evaluate(text, 10)
+    assert err.value.position == column - 1 and f"column {column}" in str(err.value)
+    if column == 13:
+        assert "in a term of sum_{n>=0}" in str(err.value)
+
+
 # errors.py: DomainError for what has no meaning, UnableError for what is too large or not
 # supported (an irrational number, a non-integer power of a series)
 @pytest.mark.parametrize("text, error, message", [

@@ -46,3 +46,19 @@ def test_a_product_whose_body_runs_on_says_so():
         evaluate("prod_{n>=1} (1-q^n)^(-1) (q^2,q^3,q^5;q^5)_inf", 10)
     assert evaluate("(prod_{n>=1} (1-q^n)^(-1)) (q^2,q^3,q^5;q^5)_inf", 10) == \
         evaluate("(q^2,q^3,q^5;q^5)_inf/(q;q)_inf", 10)
+
+
+@pytest.mark.parametrize("text, shown, column", [
+    # the valuation was printed as "-1*n" and "-1*(-k)" (k = -1, -2, ...), and the error of
+    # the range was given the words "in a term of" the sum it was about
+    ("sum_{n>=0} q^-n", "the valuation of its n-th term is -n, which does not grow", 1),
+    ("1 + sum_{k=-inf}^{inf} q^k",
+     "the valuation of its k-th term is k, which does not grow as k runs to -inf", 5),
+    ("sum_{k>=0} 1/(q;q)_k", "stays at 0 (it does not grow with k)", 1),
+])
+def test_a_sum_that_does_not_converge_says_so_plainly(text, shown, column):
+    from qseries import evaluate
+    with pytest.raises(DomainError) as err:
+        evaluate(text, 10)
+    assert shown in str(err.value) and "in a term of" not in str(err.value)
+    assert err.value.position == column - 1

@@ -39,6 +39,10 @@ def test_definitions_may_use_each_other_in_any_order():
     (["A(q) = A(q^2)"], "cycle: A -> A"),
     (["A(q) = 1", "A(q) = 2"], "defined twice"),
     (["eta(q) = 1"], "already a name"),
+    # a subscripted head was only told "a definition reads NAME(q) = EXPRESSION"
+    (["theta_3(q) = 1"], "'theta_3' is already a name"),
+    ([r"\theta_3(q) = 1"], "'theta_3' is already a name"),
+    (["G_1(q) = 1"], "write G1(q)"),
     (["A(q, q) = 1"], "appears twice"),
     (["A(qq) = 1"], "parameter"),
     (["A = 1"], "NAME(q) = EXPRESSION"),

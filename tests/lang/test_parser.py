@@ -185,3 +185,115 @@ def test_an_identity_pasted_as_one_text_is_split_at_its_one_equals_sign():
             split_identity(bad)
     with pytest.raises(ParseError, match="two arguments"):
         parse("1 = 1")
+
+
+@pytest.mark.parametrize("text, column, words", [
+    # q^2n and (q;q)_2n read as q^2 * n and (q;q)_2 * n would silently change the identity
+    # typed (papers print q^{2n} and (q;q)_{2n}): refused, with both unambiguous spellings
+    ("sum_{n=0}^{5} q^2n", 17, "q^(2n)"),
+    ("q^-3k", 4, "q^(-3k)"),
+    ("sum_{n>=0} q^(n^2)/(q;q)_2n", 26, "(2n)"),
+    ("sum_{n>=0} q^n/(q^2;q^2)_10n", 26, "(10n)"),
+    (r"\sum_{n\ge0} q^2n", 16, "q^2 n"),
+    ("sum_{k=0}^10q^k", 11, "^(10q)"),        # an upper limit: the caret, not '_'
+])
+def test_a_number_glued_to_a_letter_in_an_exponent_or_subscript_is_refused(text, column, words):
+    with pytest.raises(ParseError) as err:
+        parse(text)
+    assert words in str(err.value)
+    assert f"column {column}" in str(err.value)
+
+
+def test_exponents_and_subscripts_written_unambiguously_still_read():
+    assert parse("q^2 n") == parse("q^2*n")
+    assert parse("q^(2n)") == parse("q^{2n}")
+    assert parse("sum_{n>=0} q^(n^2)/(q;q)_(2n)") == parse("sum_{n>=0} q^(n^2)/(q;q)_{2n}")
+    assert parse("q^n^2") == parse("q^(n^2)")
+    assert parse("2q^3") == parse("2*q^3")
+
+
+@pytest.mark.parametrize("text, column", [
+    # other spellings of infinity: 'oo' was read as the product o*o of an extra variable
+    # ("involves the extra variable o"), 'infinity' named no known name at all
+    ("(q;q)_infinity", 7),
+    ("(q;q)_oo", 7),
+    ("sum_{n=0}^{oo} q^n", 12),
+    ("sum_{n=0}^{infinity} q^n", 12),
+])
+def test_other_spellings_of_infinity_suggest_inf(text, column):
+    with pytest.raises(ParseError) as err:
+        parse(text)
+    assert "did you mean inf?" in str(err.value) and f"column {column}" in str(err.value)
+
+
+def test_a_power_written_before_the_argument_of_a_function():
+    # papers write phi^2(q), f^3(-q), \vartheta_3^4(q), \eta^3(\tau) for phi(q)^2, ...: these
+    # were "expected '(' after phi but found '^'"
+    assert parse("f^3(-q)") == parse("f(-q)^3")
+    assert parse(r"\varphi^2(q)") == parse("phi(q)^2")
+    assert parse("theta_3^4(q)") == parse("theta_3(q)^4")
+    assert parse(r"\vartheta_{3}^{4}(q)") == parse("theta_3(q)^4")
+    assert parse(r"\eta^{3}(\tau)") == parse("eta(q)^3")
+    assert parse("psi^-1(q^2)") == parse("psi(q^2)^(-1)")
+    g = ["G(q) = 1/(1-q)"]
+    assert parse("G^2(q^5)", definitions=g) == parse("G(q^5)^2", definitions=g)
+    # the power applies to the call alone, before a product or a second power
+    assert parse("2 phi^2(q) q") == parse("2 (phi(q)^2) q")
+    with pytest.raises(ParseError, match="expected '\\(' after theta_3"):
+        parse(r"\theta_3^4")
+
+
+def test_a_sum_over_the_integers_as_papers_write_it():
+    # \sum_{n\in\mathbb{Z}} was "unknown LaTeX command \in"
+    bilateral = parse("sum_{n=-inf}^{inf} q^(n^2)")
+    assert parse(r"\sum_{n\in\mathbb{Z}} q^{n^2}") == bilateral
+    assert parse(r"\sum_{n \in \mathbb Z} q^{n^2}") == bilateral
+    assert parse("Σ_{n∈ℤ} q^(n^2)") == bilateral
+    assert parse(r"\sum_{m,n\in\mathbb{Z}} q^{m^2+n^2}") == \
+        parse("sum_{m,n=-inf}^{inf} q^(m^2+n^2)")
+    with pytest.raises(ParseError, match="no upper limit"):
+        parse(r"\sum_{n\in\mathbb{Z}}^{5} q^n")
+    with pytest.raises(ParseError, match=r"\\mathbb\{N\}"):
+        parse(r"\sum_{n\in\mathbb{N}} q^n")
+
+
+def test_a_power_written_before_the_subscript_of_a_q_pochhammer_symbol():
+    # LaTeX prints (q;q)^2_\infty as (q;q)_\infty^2; it was "expected '_' after a
+    # q-Pochhammer symbol but found '^'"
+    assert parse(r"\frac{(q^2;q^2)^2_\infty}{(q;q)_\infty}") == \
+        parse("(q^2;q^2)_inf^2/(q;q)_inf")
+    assert parse(r"(q;q)^{-1}_{\infty}") == parse("(q;q)_inf^(-1)")
+    assert parse("sum_{n>=0} q^n/(q;q)^2_n") == parse("sum_{n>=0} q^n/(q;q)_n^2")
+    assert parse("(q)^3_inf") == parse("(q)_inf^3")
+    assert parse("(1-q)^2") == BinOp("^", parse("1-q"), Num(Fraction(2)))   # no subscript
+
+
+def test_a_gaussian_binomial_as_a_matrix_in_square_brackets():
+    # \left[\begin{matrix} n \\ k \end{matrix}\right]_q, as many papers print the q-binomial
+    # coefficient: it was "a matrix stands for a Gaussian binomial here: write \begin{bmatrix}"
+    expected = parse("gaussian(6, 3)")
+    assert parse(r"\left[\begin{matrix} 6 \\ 3 \end{matrix}\right]_q") == expected
+    assert parse(r"\left[\begin{matrix} 6 \\ 3 \end{matrix}\right]_{q}") == expected
+    assert parse(r"2\left[\begin{matrix} 6 \\ 3 \end{matrix}\right]_q q") == \
+        parse("2 gaussian(6, 3) q")
+    with pytest.raises(ParseError, match="Gaussian binomial"):
+        parse(r"\left[1 + \begin{matrix} 6 \\ 3 \end{matrix}\right]_q")
+
+
+def test_the_notation_lists_the_forms_papers_print():
+    # what `qseries notation` lists reads, including the forms added for papers' LaTeX
+    from qseries.lang.parser import NOTATION_FORMS
+
+    forms = " ".join(f for f, _ in NOTATION_FORMS)
+    for form in (r"\sum_{k\in\mathbb{Z}} T", "phi^2(q)", r"(q;q)^2_\infty"):
+        assert form in forms
+    parse(r"\sum_{k\in\mathbb{Z}} q^(k^2)")
+    parse(r"phi^2(q) (q;q)^2_\infty")
+
+
+def test_an_identity_written_with_a_double_equals_sign():
+    # programmers type ==: "one text with one '=' between them (this one has 2)"
+    from qseries.lang.parser import split_identity
+    assert split_identity("1/(1-q) == sum_{n>=0} q^n") == ("1/(1-q) ", " sum_{n>=0} q^n")
+    with pytest.raises(ParseError, match="has 2"):
+        split_identity("a == b = c")

@@ -63,3 +63,13 @@ def test_trend_csv():
     lines = trend_csv(distributions(DURFEE, "z", [1, 2, 3, 4, 5])).splitlines()
     assert lines[0] == "n,total,mean,variance,mean_decimal,variance_decimal"
     assert lines[4].startswith("4,5,6/5,4/25") and len(lines) == 6
+
+
+def test_a_single_value_has_no_standardised_moments():
+    # every partition of 1 has a Durfee square of side 1: variance 0, so the standardised
+    # moments are undefined; they were printed as "1: nan [0]  2: nan [1] ..."
+    lines = distribution_lines(distributions("sum_{k>=0} z^k q^(k^2)/(q;q)_k^2", "z", [1])[0],
+                               "z", 6)
+    assert not any("nan" in line for line in lines)
+    assert lines[0] == "n = 1: 1 object"
+    assert lines[-1].strip() == "standardised moments: none (the variance is 0)"

@@ -22,3 +22,16 @@ def test_combination_lines():
     none = combination_lines(express("(q;q)_inf", ["1"], 30))
     assert none == ["no combination of the 1 basis series gives the target below q^30 "
                     "(30 coefficients for 2 unknowns)"]
+
+
+def test_one_unknown_is_singular():
+    # "200 coefficients for 1 unknowns" (qseries relations with one series)
+    lines = relation_lines(relations(["theta_3(q)"], 30))
+    assert lines == ["no integer relation below q^30 (30 coefficients for 1 unknown)"]
+
+
+def test_polynomial_relations_are_plural_in_the_right_place():
+    # "9 polynomial relation of degree <= 2s below ..."
+    lines = relation_lines(relations(["theta_3(q)^2", "theta_3(q^2)^2", "theta_2(q^2)^2"], 60,
+                                     degree=2))
+    assert lines[0].split(" (")[0].endswith("polynomial relations of degree <= 2 below q^60")

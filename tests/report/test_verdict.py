@@ -112,3 +112,18 @@ def test_entry_mismatch_text_reads_the_json_shape():
 
 def test_hint_lines_are_the_kind_and_the_message():
     assert hint_line(Hint("polynomial", "x")) == "  hint (polynomial): x"
+
+
+def test_a_recorded_failure_beyond_the_order_is_not_reported_as_seen():
+    # order 10 < fails_at = 20: the sides agree to the order, which is consistent with the
+    # record, but "fails as recorded" claimed a failure that was never computed
+    from qseries.catalogue.files import Entry
+    from qseries.catalogue.verify import verify_entry
+    e = Entry("x", "x", "1/(1-q)", "1/(1-q) + q^20", 10, "invented", "-", 1,
+              expect="fails", fails_at=20)
+    r = verify_entry(e)
+    assert r.ok and r.holds is True
+    text = entry_verdict_text(r, "fails")
+    assert "fails" not in text.replace("failure", "") and "beyond" in text
+    seen = verify_entry(e, order=30)
+    assert entry_verdict_text(seen, "fails") == "fails as recorded"

@@ -125,6 +125,24 @@ def test_rational_offset_and_mismatched_offsets():
     assert s.valuation == Fraction(4, 3)
 
 
+def test_exponents_in_too_fine_a_common_power_are_refused_by_name():
+    # q^(1/3) + q^(1/5) + ... + q^(1/23) known to O(q^10) lives in q^(1/111546435): the
+    # refusal was "a polynomial of length 31311281 exceeds the limit", after building it
+    from qseries.errors import UnableError
+    exact = Series.from_coefficients([1, 0, 1])
+    for p in (3, 5, 7, 11, 13, 17, 19):
+        exact = exact + Series.monomial(Fraction(1, p))
+    with pytest.raises(UnableError) as err:
+        exact + Series.monomial(Fraction(1, 23))
+    assert "common power q^(1/111546435)" in str(err.value)
+    # known to O(q^10), the series spans 10 d terms in q^(1/d): refused from d = 4849845
+    with pytest.raises(UnableError) as err:
+        s = Series.from_coefficients([1, 0, 1], prec=10)
+        for p in (3, 5, 7, 11, 13, 17, 19):
+            s = s + Series.monomial(Fraction(1, p))
+    assert "common power q^(1/4849845)" in str(err.value)
+
+
 def test_inverse_of_polynomial_needs_an_order():
     with pytest.raises(UnableError):
         Series.from_coefficients([1, -1]).inverse()
