@@ -83,11 +83,16 @@ def small_log_derivative(p: Any, n: int) -> list[int] | None:
     >>> small_log_derivative(ZZ.poly([2, 1]), 3) is None      # -q^2/4: not integral
     True
     """
+    _check_arguments(p, n)
+    return _small_log_derivative(p, n)
+
+
+def _check_arguments(p: Any, n: int) -> None:
+    """Refuse what the two ways cannot take: p not over ZZ, n not a length, p(0) = 0."""
     ZZ._poly_argument("p", p)
     integer_argument("n", n, 0)
     if p.length() == 0 or p[0] == 0:
         raise ArgumentError("p must have a nonzero constant term")
-    return _small_log_derivative(p, n)
 
 
 def _small_log_derivative(p: Any, n: int) -> list[int] | None:
@@ -132,10 +137,7 @@ def log_derivative_by_division(p: Any, n: int) -> list[int] | None:
     >>> log_derivative_by_division(ZZ.poly([2, 1]), 3) is None
     True
     """
-    ZZ._poly_argument("p", p)
-    integer_argument("n", n, 0)
-    if p.length() == 0 or p[0] == 0:
-        raise ArgumentError("p must have a nonzero constant term")
+    _check_arguments(p, n)
     return _log_derivative_by_division(p, n)
 
 
