@@ -13,6 +13,7 @@ A polynomial is a tuple of Fractions, lowest degree first, with no trailing zero
 
 from __future__ import annotations
 
+import math
 from fractions import Fraction
 
 F = Fraction
@@ -171,6 +172,18 @@ def eventually_at_least(a: Poly, target: int | Fraction, start: int) -> int:
     if degree(a) < 1 or leading(a) <= 0:
         raise ValueError("polynomial does not tend to +infinity")
     b = psub(a, const(target))
+    if degree(b) <= 2:
+        return _low_degree_at_least(b, start)
+    return _bisect_at_least(b, start)
+
+
+def _bisect_at_least(b: Poly, start: int) -> int:
+    """The least m >= start with b(m') >= 0 for every integer m' >= m, by bisection on Sturm
+    counts (any degree; the reference of ``_low_degree_at_least``).
+
+    >>> _bisect_at_least((F(-10), F(0), F(1)), 0)
+    4
+    """
     chain = sturm_chain(b)
 
     def last_below(lo: int, hi: int) -> int | None:
@@ -187,6 +200,44 @@ def eventually_at_least(a: Poly, target: int | Fraction, start: int) -> int:
     # beyond every real root of b it is positive
     last = last_below(start, max(start, root_bound(b)))
     return start if last is None else last + 1
+
+
+def _low_degree_at_least(b: Poly, start: int) -> int:
+    """``eventually_at_least`` for b = a - target of degree 1 or 2 with a positive leading
+    coefficient, from the largest root r of b: the integers where b < 0 lie in an interval
+    ending at r, so the answer is one more than the largest integer below r where b < 0
+    (found among the integers next to an approximation of r, each tested exactly), or
+    ``start``.  The exponents of most sums (n^2, n(n+1)/2, a n + c) take this path.
+
+    >>> _low_degree_at_least((F(-10), F(0), F(1)), 0)    # m^2 >= 10 from m = 4 on
+    4
+    >>> _low_degree_at_least((F(-7, 2), F(2)), 0)        # 2m >= 7/2 from m = 2 on
+    2
+    >>> _low_degree_at_least((F(1), F(-3), F(1)), 0)     # m^2 - 3m + 1 < 0 at m = 1, 2 only
+    3
+    """
+    if degree(b) == 1:
+        r = -b[0] / b[1]
+        guess = r.numerator // r.denominator
+    else:
+        c0, c1, c2 = b
+        disc = c1 * c1 - 4 * c2 * c0
+        if disc < 0:
+            return start                  # b > 0 everywhere
+        # sqrt(disc) to within 1/den by integer square roots: disc = u/v
+        den = 1 << 8
+        root = Fraction(math.isqrt(disc.numerator * disc.denominator * den * den),
+                        disc.denominator * den)
+        r = (-c1 + root) / (2 * c2)
+        guess = r.numerator // r.denominator
+    # the largest integer below the larger root lies within 2 of the guess (the square root
+    # is low by less than 1/den, and 1/(2 c2) of that is less than 1 unless c2 is tiny:
+    # widen the window by the error bound)
+    spread = 2 if degree(b) == 1 else 2 + int(1 / (2 * abs(b[2]) * 256))
+    below = [m for m in range(guess - spread, guess + spread + 1) if peval(b, m) < 0]
+    if not below:
+        return start
+    return max(start, max(below) + 1)
 
 
 # -- polynomials in several variables ------------------------------------------------------

@@ -2,7 +2,7 @@
 
 from fractions import Fraction
 
-from hypothesis import given
+from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from qseries.engine import symbolic as sym
@@ -59,3 +59,23 @@ def test_integer_values_agree_with_peval():
     xs = list(range(-5, 6))
     assert integer_values(poly, xs) == [peval(poly, x) for x in xs]
     assert integer_values((Fraction(1, 2), Fraction(1)), xs) is None
+
+
+@settings(max_examples=400, deadline=None)
+@given(st.integers(-10**6, 10**6), st.integers(-10**6, 10**6), st.integers(1, 10**4),
+       st.integers(1, 300), st.integers(1, 3), st.integers(-50, 50), st.booleans())
+def test_low_degree_cut_off_equals_the_sturm_bisection(c0, c1, n2, d2, d, start, linear):
+    # exponents of sums (a n^2 + b n + c, rational coefficients, tiny leading ones too):
+    # the closed form from the larger root against bisection on Sturm counts, and both
+    # against the definition on the integers around the answer
+    from fractions import Fraction as F
+
+    from qseries.engine.symbolic import _bisect_at_least, _low_degree_at_least
+    b = (F(c0, d), F(c1, d)) if linear else (F(c0, d), F(c1, d), F(n2, d2))
+    if linear and b[1] <= 0:
+        b = (b[0], F(n2, d2))
+    got = _low_degree_at_least(b, start)
+    assert got == _bisect_at_least(b, start)
+    value = lambda m: sum(c * m**i for i, c in enumerate(b))  # noqa: E731
+    assert got >= start and all(value(m) >= 0 for m in range(got, got + 50))
+    assert got == start or value(got - 1) < 0
