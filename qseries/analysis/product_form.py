@@ -36,8 +36,8 @@ Two ways to the exponents, the same numbers:
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 import math
+from dataclasses import dataclass
 from fractions import Fraction
 
 from ..backend.logderiv import log_derivative_by_division, small_log_derivative
