@@ -293,10 +293,18 @@ class TermBounds:
                 continue
             if not self._symbolic(p, syms) and self._unit_start(p, env, order):
                 continue
+            if not self._symbolic(p, syms) and self._exact_zero(p, env, order):
+                continue        # 2q over GF(2): every factor 1 - 0 q^(tj) is 1
             b = self.lower(p, main, syms, env, order)
             start = self._eventually(b.poly, 1, main, max(start, b.start),
                                      "a q-Pochhammer parameter without positive valuation")
         return start
+
+    def _exact_zero(self, p: Node, env: dict[str, int], order: int) -> bool:
+        v = self.ev._exact_monomial(p, env)
+        if v is None:
+            v = self.ev._as_series(self.ev.value(p, env, order))
+        return bool(v.is_zero() and v.is_exact)
 
     def poch_bound(self, node: Poch, main: str, syms: dict[str, int], env: dict[str, int],
                    order: int) -> Bound:

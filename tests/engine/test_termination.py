@@ -76,3 +76,16 @@ def test_a_substituted_monomial_is_read_exactly():
     from qseries.engine import evaluate
     assert evaluate("q^4 f(-q^6)^2 f(-q^42)^2", 40) == \
         evaluate("q^4 (q^6;q^6)_inf^2 (q^42;q^42)_inf^2", 40)
+
+
+def test_a_parameter_that_is_zero_in_the_ring_makes_a_factor_one():
+    # over GF(2) the parameter 2q (-4q^2) is 0, so every factor 1 - 0 q^j is 1 and the sum
+    # is sum_{i>=0} q^(i^2): 1 at the squares, 0 elsewhere (by the definitions); the
+    # convergence analysis refused it as a factor that "vanishes"
+    import math
+
+    from qseries import GF, evaluate
+    for expr in ("sum_{i>=0} q^(i^2) (2*q;q)_i", "sum_{i>=0} q^(i^2)/(2*q;q)_i",
+                 "sum_{i>=0} q^(i^2)/(-4*q^2;q^3)_i^2"):
+        got = evaluate(expr, 30, GF(2))
+        assert got.coefficient_list(30) == [int(math.isqrt(n) ** 2 == n) for n in range(30)]
