@@ -369,6 +369,9 @@ def product_form(expr: str | Node | Series | tuple[Series, Series | None], order
         if getattr(f.ring, "names", ()):
             raise DomainError("product forms are recovered for series in q alone; this one "
                               f"has coefficients in {', '.join(f.ring.names)}")  # type: ignore[attr-defined]
+        if f.ring not in (ZZ, QQ):
+            raise DomainError(f"product forms are recovered for series over ZZ or QQ; this one "
+                              f"is over {f.ring}")
         f.one_class("a product form prod (1-q^n)^(e_n)")
         v = f.valuation
         if v is None:

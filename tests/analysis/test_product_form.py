@@ -355,3 +355,12 @@ def test_the_order_is_absolute_and_every_known_coefficient_is_used(expr, order, 
         assert check(expr, pf.expression, order=order).holds
     else:     # the last exponent lies in the upper half: no finite product is claimed
         assert "q^-4 - q^2 + O(q^3)" in pf.reason if expr == "q^(-4) (1 - q^6)" else pf.reason
+
+
+def test_a_series_modulo_a_prime_is_refused_with_its_ring_named():
+    # the exponents of a product are integers read from integer coefficients; the residues
+    # of (q;q)_inf modulo 7 (1 + 6q + 6q^2 + ...) are not its coefficients, and the refusal
+    # said "cannot combine series over ZZ and GF(7)", which the caller never asked for
+    from qseries import GF, evaluate
+    with pytest.raises(DomainError, match="over ZZ or QQ; this one is over GF\\(7\\)"):
+        product_form(evaluate("(q;q)_inf", 12, GF(7)), 12)
