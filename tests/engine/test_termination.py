@@ -89,3 +89,21 @@ def test_a_parameter_that_is_zero_in_the_ring_makes_a_factor_one():
                  "sum_{i>=0} q^(i^2)/(-4*q^2;q^3)_i^2"):
         got = evaluate(expr, 30, GF(2))
         assert got.coefficient_list(30) == [int(math.isqrt(n) ** 2 == n) for n in range(30)]
+
+
+def test_an_inner_exponent_k_squared_minus_k_is_least_at_k_zero():
+    # k^2 - k is 0 at k = 0 and k = 1 and positive beyond; its coefficient of k is negative,
+    # so the inner sum over k was refused ("do not grow with k") when the nest was not a
+    # chain (the i*k term joins the outer and the innermost index).  Reference: the
+    # coefficients counted from the definition, term by term
+    from qseries import evaluate
+    expr = "sum_{i>=0} sum_{j>=0} sum_{k>=0} q^(i^2+j^2+k^2-k+i*k)"
+    n = 25
+    want = [0] * n
+    for i in range(6):
+        for j in range(6):
+            for k in range(7):
+                e = i * i + j * j + k * k - k + i * k
+                if e < n:
+                    want[e] += 1
+    assert evaluate(expr, n).coefficient_list(n) == want
