@@ -36,6 +36,7 @@ Two ways to the exponents, the same numbers:
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 from fractions import Fraction
 
@@ -356,7 +357,9 @@ def product_form(expr: str | Node | Series | tuple[Series, Series | None], order
         if v is None:
             raise DomainError("the series vanishes to this order; it has no product form")
         c = num.coefficient(v) * den.coefficient(0)    # den(0) = +-1
-        known: Exponent | None = order - v
+        # both parts are known modulo q^order: the quotient to the absolute order
+        # ``order``, so its coefficients relative to c q^v to q^(order - v)
+        known: Exponent = order
         length = order - v
         ex = exponents_from_parts(num, length, den)
         if ex is None:
@@ -366,13 +369,19 @@ def product_form(expr: str | Node | Series | tuple[Series, Series | None], order
         if getattr(f.ring, "names", ()):
             raise DomainError("product forms are recovered for series in q alone; this one "
                               f"has coefficients in {', '.join(f.ring.names)}")  # type: ignore[attr-defined]
+        if f.ring not in (ZZ, QQ):
+            raise DomainError(f"product forms are recovered for series over ZZ or QQ; this one "
+                              f"is over {f.ring}")
         f.one_class("a product form prod (1-q^n)^(e_n)")
         v = f.valuation
         if v is None:
             raise DomainError("the series vanishes to this order; it has no product form")
         c = f.coefficient(v)
-        known = _normalised(f, v, 1).precision
-        length = int(known) if known is not None else order
+        # the absolute order to which f is known (an exact series: the order asked); the
+        # normalised series is known at the exponents 0 .. ceil(known - v) - 1, so e_n up
+        # to that exponent (``int`` of a fractional relative order dropped the last one)
+        known = f.precision if f.precision is not None else order
+        length = max(math.ceil(known - v), 0)
         ex = exponents_from_parts(f, length) if f.ring == ZZ else None
         if ex is None:
             ex = exponents_of(_normalised(f, v, c), length)
@@ -404,7 +413,7 @@ def product_form(expr: str | Node | Series | tuple[Series, Series | None], order
             # exponents still non-zero in the upper half: neither periodic nor a finite
             # product that the computed terms can show
             big = max(nonzero, key=lambda t: abs(t[1]))
-            at = known if known is not None else order
+            at = known
             brk = periodic_break(ints)
             if brk is None:
                 longest = len(ints) // MIN_REPETITIONS
@@ -420,7 +429,8 @@ def product_form(expr: str | Node | Series | tuple[Series, Series | None], order
             stray_e = Fraction(v) + n
             stray_c = -d * c
             stray = (stray_e.numerator if stray_e.denominator == 1 else stray_e, stray_c)
-            periodic = (prefix + periodic_expression(m, ints[:m])).strip()
+            pbody = periodic_expression(m, ints[:m])
+            periodic = (prefix + pbody).strip() if pbody != "1" or not prefix else prefix.strip()
             return ProductForm(at, c, v, ints, None, 0, None, None,
                                f"the exponents repeat with period {m} up to n = {n - 1} and "
                                f"then break: e_{n} = {short_number_text(ints[n - 1])}, where the "
@@ -433,7 +443,7 @@ def product_form(expr: str | Node | Series | tuple[Series, Series | None], order
     expression = (prefix + body).strip() if body != "1" or not prefix else prefix.strip()
     if expression in ("", "-"):
         expression += "1"
-    return ProductForm(known if known is not None else order, c, v, ints, period, reps,
+    return ProductForm(known, c, v, ints, period, reps,
                        expression, eta_text, factors=short)
 
 

@@ -61,6 +61,32 @@ def _pos(node: Node) -> int:
     return getattr(node, "pos", 0) + 1
 
 
+def _falling_coefficients(by_power: dict[int, sym.MPoly]) -> dict[int, sym.MPoly]:
+    """The coefficients f_k (k >= 1) of sum_d c_d t^d = c_0 + sum_k f_k t(t-1)...(t-k+1):
+    t^d = sum_k S(d, k) t(t-1)...(t-k+1) (Stirling numbers of the second kind).  Every
+    falling factorial is >= 0 at the integers t >= 0, so f_k >= 0 for all k >= 1 shows the
+    polynomial is least at t = 0 there (t^2 - t, 0 at t = 0 and 1, where the powers alone
+    show nothing).
+
+    >>> _falling_coefficients({2: sym.m_const(1), 1: sym.m_const(-1)})   # t^2 - t
+    {1: {}, 2: {(): Fraction(1, 1)}}
+    """
+    top = max(by_power, default=0)
+    stirling = [[Fraction(0)] * (top + 1) for _ in range(top + 1)]
+    stirling[0][0] = Fraction(1)
+    for d in range(1, top + 1):
+        for k in range(1, d + 1):
+            stirling[d][k] = k * stirling[d - 1][k] + stirling[d - 1][k - 1]
+    out: dict[int, sym.MPoly] = {}
+    for k in range(1, top + 1):
+        acc: sym.MPoly = {}
+        for d in range(k, top + 1):
+            if d in by_power and stirling[d][k]:
+                acc = sym.m_add(acc, sym.m_scale(by_power[d], stirling[d][k]))
+        out[k] = acc
+    return out
+
+
 class TermBounds:
     """The valuation analysis, over an evaluator that supplies values of closed subterms."""
 
@@ -218,8 +244,8 @@ class TermBounds:
         shifted_body = hit[1]
         body = self.lower(shifted_body, main, {**syms, j: 1}, env, order)
         by_power = sym.m_coeffs_in(body.poly, j)
-        for d, c in by_power.items():
-            if d >= 1 and not sym.m_nonnegative(c):
+        for c in _falling_coefficients(by_power).values():
+            if not sym.m_nonnegative(c):
                 raise NoBound(f"the terms of the inner sum at column {_pos(node)} do not grow "
                               f"with {j} in a way this analysis can see")
         return Bound(by_power.get(0, {}), False, body.start)
@@ -293,10 +319,18 @@ class TermBounds:
                 continue
             if not self._symbolic(p, syms) and self._unit_start(p, env, order):
                 continue
+            if not self._symbolic(p, syms) and self._exact_zero(p, env, order):
+                continue        # 2q over GF(2): every factor 1 - 0 q^(tj) is 1
             b = self.lower(p, main, syms, env, order)
             start = self._eventually(b.poly, 1, main, max(start, b.start),
                                      "a q-Pochhammer parameter without positive valuation")
         return start
+
+    def _exact_zero(self, p: Node, env: dict[str, int], order: int) -> bool:
+        v = self.ev._exact_monomial(p, env)
+        if v is None:
+            v = self.ev._as_series(self.ev.value(p, env, order))
+        return bool(v.is_zero() and v.is_exact)
 
     def poch_bound(self, node: Poch, main: str, syms: dict[str, int], env: dict[str, int],
                    order: int) -> Bound:

@@ -331,3 +331,36 @@ def test_periodic_break_against_the_definition():
     assert periodic_break(ex) == by_definition(ex) == (5, 2801)
     ex[1500] = 3
     assert periodic_break(ex) == by_definition(ex)
+
+
+@pytest.mark.parametrize("expr, order, exponents", [
+    # by hand from the definitions: q^-4 (1 - q^6) = q^-4 - q^2 exactly, so to O(q^3) the
+    # factor (1 - q^6) is seen (the order is absolute, the exponents relative to q^-4)
+    ("q^(-4) (1 - q^6)", 3, [0, 0, 0, 0, 0, 1]),
+    ("q^(-4)/(1 - q^6)", 3, [0, 0, 0, 0, 0, -1]),
+    ("-3 q^(-2) (q^2;q^2)_inf", 1, [0, 1]),
+    # q^(1/3)/(1 - q^4) = q^(1/3) + q^(13/3) + ..., and q^(13/3) lies below q^5
+    ("q^(1/3)/(1 - q^4)", 5, [0, 0, 0, -1]),
+    ("q^(1/3) (1 - q^7)/(1 - q^9) (-q^2;q^4)_inf", 5, [0, -1, 0, 1]),
+    # q^2 (1 - q^2) to O(q^5): q^2 - q^4, so e_1, e_2 are known and nothing beyond
+    ("q^2 (1 - q^2)", 5, [0, 1]),
+])
+def test_the_order_is_absolute_and_every_known_coefficient_is_used(expr, order, exponents):
+    # f = c q^v prod (1 - q^n)^(e_n) + O(q^order): the product must match f at every
+    # exponent below the order it states (a product cut short claimed too much)
+    pf = product_form(expr, order)
+    assert pf.order == order
+    assert pf.exponents == exponents
+    if pf.expression is not None:
+        assert check(expr, pf.expression, order=order).holds
+    else:     # the last exponent lies in the upper half: no finite product is claimed
+        assert "q^-4 - q^2 + O(q^3)" in pf.reason if expr == "q^(-4) (1 - q^6)" else pf.reason
+
+
+def test_a_series_modulo_a_prime_is_refused_with_its_ring_named():
+    # the exponents of a product are integers read from integer coefficients; the residues
+    # of (q;q)_inf modulo 7 (1 + 6q + 6q^2 + ...) are not its coefficients, and the refusal
+    # said "cannot combine series over ZZ and GF(7)", which the caller never asked for
+    from qseries import GF, evaluate
+    with pytest.raises(DomainError, match="over ZZ or QQ; this one is over GF\\(7\\)"):
+        product_form(evaluate("(q;q)_inf", 12, GF(7)), 12)

@@ -76,3 +76,34 @@ def test_a_substituted_monomial_is_read_exactly():
     from qseries.engine import evaluate
     assert evaluate("q^4 f(-q^6)^2 f(-q^42)^2", 40) == \
         evaluate("q^4 (q^6;q^6)_inf^2 (q^42;q^42)_inf^2", 40)
+
+
+def test_a_parameter_that_is_zero_in_the_ring_makes_a_factor_one():
+    # over GF(2) the parameter 2q (-4q^2) is 0, so every factor 1 - 0 q^j is 1 and the sum
+    # is sum_{i>=0} q^(i^2): 1 at the squares, 0 elsewhere (by the definitions); the
+    # convergence analysis refused it as a factor that "vanishes"
+    import math
+
+    from qseries import GF, evaluate
+    for expr in ("sum_{i>=0} q^(i^2) (2*q;q)_i", "sum_{i>=0} q^(i^2)/(2*q;q)_i",
+                 "sum_{i>=0} q^(i^2)/(-4*q^2;q^3)_i^2"):
+        got = evaluate(expr, 30, GF(2))
+        assert got.coefficient_list(30) == [int(math.isqrt(n) ** 2 == n) for n in range(30)]
+
+
+def test_an_inner_exponent_k_squared_minus_k_is_least_at_k_zero():
+    # k^2 - k is 0 at k = 0 and k = 1 and positive beyond; its coefficient of k is negative,
+    # so the inner sum over k was refused ("do not grow with k") when the nest was not a
+    # chain (the i*k term joins the outer and the innermost index).  Reference: the
+    # coefficients counted from the definition, term by term
+    from qseries import evaluate
+    expr = "sum_{i>=0} sum_{j>=0} sum_{k>=0} q^(i^2+j^2+k^2-k+i*k)"
+    n = 25
+    want = [0] * n
+    for i in range(6):
+        for j in range(6):
+            for k in range(7):
+                e = i * i + j * j + k * k - k + i * k
+                if e < n:
+                    want[e] += 1
+    assert evaluate(expr, n).coefficient_list(n) == want

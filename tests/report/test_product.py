@@ -11,10 +11,15 @@ def test_a_periodic_product():
 
 
 def test_a_fractional_order_and_an_eta_quotient():
-    assert product_lines(product_form("(q;q)_inf^2 q^(1/12)", 60)) == [
+    # the series known to O(q^(719/12)) (its own O-term; the order is absolute): the
+    # normalised series to q^(718/12), so e_1 .. e_59
+    assert product_lines(product_form("(q;q)_inf^2 q^(1/12) + O(q^(719/12))", 60)) == [
         "q^(1/12) (q;q)_inf^2 + O(q^(719/12))",      # q^719/12 would read as q^719 / 12
-        "  the exponents repeat with period 1 (58 full periods below q^(719/12))",
+        "  the exponents repeat with period 1 (59 full periods below q^(719/12))",
         "  as an eta quotient: eta(q)^2"]
+    # evaluated to order 60: known to O(q^60), not to O(q^(60 - 1/12)) as it said
+    assert product_lines(product_form("(q;q)_inf^2 q^(1/12)", 60))[0] == \
+        "q^(1/12) (q;q)_inf^2 + O(q^60)"
 
 
 def test_a_finite_product():
