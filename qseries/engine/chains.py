@@ -80,6 +80,9 @@ def apply_parts(ev: Evaluator, acc: Series, factors: list[tuple[Node, int]], env
     dens: list[Series] = []
     binoms: list[tuple[Fraction | int, int, int]] = []
     factors = product_forms(ev, factors, env)
+    together, factors = pochhammer_quotient(ev, factors, env, order)
+    if together is not None:
+        acc = (acc * together).truncate(order)
     paired, factors = triple_pairs.paired_products(ev, factors, env, order)
     for v, d in paired:
         acc = (acc * v).truncate(order)
@@ -131,6 +134,70 @@ def apply_parts(ev: Evaluator, acc: Series, factors: list[tuple[Node, int]], env
     for d in dens[1:]:
         den = (den * d).truncate(work)
     return acc.truncate(order), den
+
+def pochhammer_quotient(ev: Evaluator, factors: list[tuple[Node, int]], env: dict[str, int],
+                        order: int) -> tuple[Series | None, list[tuple[Node, int]]]:
+    """The infinite q-Pochhammer symbols (c q^e;q^t)_inf^p (one parameter, c = +-1, e >= 1)
+    among ``factors`` multiplied together modulo q^order as the exponential of the sum of
+    their logarithms (``euler_log``, one ``exp_integral``), with the other factors; (None,
+    factors) unless the strategy ``exp-log`` is allowed, the ring is ZZ or QQ, the order is
+    at least ``EXP_QUOTIENT_ORDER`` and they form a quotient (powers of both signs): an eta
+    quotient's coefficients are small where its denominator's inverse, which the factors
+    taken one by one compute, has large ones.
+
+    >>> from qseries.lang import parse
+    >>> from qseries.engine import Evaluator
+    >>> from qseries.engine.terms import factors_of
+    >>> node = parse("(q^2;q^2)_inf^5/((q;q)_inf^2 (q^4;q^4)_inf^2)")      # theta_3(q)
+    >>> got, rest = pochhammer_quotient(Evaluator(), factors_of(node), {}, 3000)
+    >>> rest, got[:10]
+    ([], 1 + 2q + 2q^4 + 2q^9)
+    """
+    from ..products.pochhammer import euler_log
+    from .chooser import EXP_QUOTIENT_ORDER
+
+    if order < EXP_QUOTIENT_ORDER or "exp-log" not in ev.allowed or \
+            ev.ring.modulus is not None or getattr(ev.ring, "names", ()):
+        return None, factors
+    logs: list[tuple[int, int, int, int]] = []          # (c, e, t, p)
+    rest: list[tuple[Node, int]] = []
+    for node, p in factors:
+        got = _pochhammer_atom(ev, node, env, order) if isinstance(node, Poch) and \
+            node.length is None and len(node.params) == 1 else None
+        if got is None:
+            rest.append((node, p))
+        else:
+            logs.append((*got, p))
+    if not (any(p > 0 for *_, p in logs) and any(p < 0 for *_, p in logs)):
+        return None, factors
+    s = [0] * order
+    for c, e, t, p in logs:
+        for k, v in enumerate(euler_log(c, e, t, order)):
+            if v:
+                s[k] += p * v
+    poly = ev.ring._exp_integral(s, order)
+    if poly is None:
+        return None, factors
+    return Series(ev.ring, poly, 0, 0, order), rest
+
+
+def _pochhammer_atom(ev: Evaluator, node: Poch, env: dict[str, int], order: int
+                     ) -> tuple[int, int, int] | None:
+    """(c, e, t) for (c q^e;q^t)_inf with c = +-1, e >= 1 and t >= 1 integers, else None."""
+    from ..errors import QSeriesError
+    from ..products import monomial_parts
+
+    try:
+        t = ev._base_step(node, env, order)
+        a = ev._param(node.params[0], env, order)
+    except QSeriesError:
+        return None
+    mono = monomial_parts(a)
+    if mono is None or mono[0] not in (1, -1) or Fraction(mono[1]).denominator != 1 \
+            or mono[1] < 1:
+        return None
+    return int(mono[0]), int(mono[1]), t
+
 
 def product_forms(ev: Evaluator, factors: list[tuple[Node, int]], env: dict[str, int]
                   ) -> list[tuple[Node, int]]:

@@ -66,6 +66,12 @@ NESTED_CRT_ORDER = 256
 #: an infinite product (c q^a; q^t)_inf with at least this many factors below the order is
 #: computed as the exponential of its logarithm instead of factor by factor
 EXP_FACTORS = 24
+#: from this order on, over ZZ and QQ, the infinite q-Pochhammer powers of a quotient (an
+#: eta quotient with negative exponents) are evaluated together as the exponential of their
+#: summed logarithms (``chains.pochhammer_quotient``): its coefficients are small where the
+#: denominator's inverse has large ones (16 q (q^4;q^4)^8/(q^2;q^2)^4: 0.42 s -> 0.12 s at
+#: order 20 000, 0.042 s -> 0.030 s at 5000; below about 3000 the separate powers are faster)
+EXP_QUOTIENT_ORDER = 3000
 #: ``check(method="auto")`` may go modular from this order on (series in q alone) ...
 AUTO_MODULAR_ORDER = 3000
 #: ... and from this order on when there are extra variables (exact Laurent coefficients
