@@ -15,10 +15,13 @@ from __future__ import annotations
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
-from ..errors import DomainError
+from ..errors import DomainError, QSeriesError
 from ..lang.ast import BigOp, BinOp, Node, Poch, Q
+from ..products import monomial_parts
+from ..products.pochhammer import euler_log
 from ..series import Series
 from . import triple_pairs
+from .chooser import EXP_QUOTIENT_ORDER
 from .terms import Parts, Value, binomial_parts, ceil_int, floor_int, rational_power
 
 if TYPE_CHECKING:
@@ -153,9 +156,6 @@ def pochhammer_quotient(ev: Evaluator, factors: list[tuple[Node, int]], env: dic
     >>> rest, got[:10]
     ([], 1 + 2q + 2q^4 + 2q^9)
     """
-    from ..products.pochhammer import euler_log
-    from .chooser import EXP_QUOTIENT_ORDER
-
     if order < EXP_QUOTIENT_ORDER or "exp-log" not in ev.allowed or \
             ev.ring.modulus is not None or getattr(ev.ring, "names", ()):
         return None, factors
@@ -184,9 +184,6 @@ def pochhammer_quotient(ev: Evaluator, factors: list[tuple[Node, int]], env: dic
 def _pochhammer_atom(ev: Evaluator, node: Poch, env: dict[str, int], order: int
                      ) -> tuple[int, int, int] | None:
     """(c, e, t) for (c q^e;q^t)_inf with c = +-1, e >= 1 and t >= 1 integers, else None."""
-    from ..errors import QSeriesError
-    from ..products import monomial_parts
-
     try:
         t = ev._base_step(node, env, order)
         a = ev._param(node.params[0], env, order)
