@@ -657,8 +657,7 @@ def _shifted_sum(ring: Any, terms: list[tuple[int, Series]], budget: int) -> Ser
     """sum q^(s_i) Y_i modulo q^budget for shifts s_i >= 0 and series Y_i of valuation >= 0
     with integral exponents (None otherwise), added from the largest total shift down: the
     running sum is shifted by the gap to the next term before that is added, so each
-    addition is as long as its term, not the budget (``_add_all`` pads every term to the
-    budget).
+    addition is as long as its term, not the budget.
 
     >>> from qseries.series import ZZ
     >>> y = Series(ZZ, ZZ.poly([1, 1]), 0, 0, 5)              # 1 + q + O(q^5)
@@ -685,21 +684,16 @@ def _shifted_sum(ring: Any, terms: list[tuple[int, Series]], budget: int) -> Ser
 
 
 def _add_all(ring: Any, terms: list[Series], budget: int) -> Series:
-    """The sum of series of valuation >= 0 in q (integral exponents) modulo q^budget, added
-    as the ring's polynomials (one series object at the end, not one per term)."""
-    if any(y.den != 1 or y.offset != 0 or y.start < 0 for y in terms):
-        total = Series.zero(ring, budget)
-        for y in terms:
-            total = total + y
-        return total.truncate(budget)
-    prec = budget
-    acc = ring.zero()
+    """The sum of series of valuation >= 0 in q modulo q^budget: added as the ring's
+    polynomials by ``_shifted_sum`` (one series object at the end, not one per term) when
+    the exponents are integral, else as series."""
+    got = _shifted_sum(ring, [(0, y) for y in terms], budget)
+    if got is not None:
+        return got
+    total = Series.zero(ring, budget)
     for y in terms:
-        if y.prec is not None:
-            prec = min(prec, y.prec)
-        p = ring._truncate(y.poly, budget - y.start)
-        acc = acc + (ring._shift_up(p, y.start) if y.start else p)
-    return Series(ring, ring._truncate(acc, prec), 0, 0, prec)
+        total = total + y
+    return total.truncate(budget)
 
 
 def _table(pp: _Poch, want: dict[int, int], ring: Any) -> dict[int, Series]:
