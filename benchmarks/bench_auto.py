@@ -20,13 +20,12 @@ from __future__ import annotations
 import argparse
 import json
 import os
-import subprocess
 import sys
 import time
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 
-from bench_shapes import SHAPES, run_killing_group, tree_env  # noqa: E402
+from bench_shapes import SHAPES, run_json  # noqa: E402
 
 METHODS = ("auto", "exact", "modular")
 #: auto may be this many times slower than the better method ...
@@ -39,22 +38,12 @@ def run(tree: str, left: str, right: str, order: int, method: str, timeout: floa
         ) -> tuple[float, float, str] | None:
     """(wall seconds, reported seconds, method used) of one check; None past the timeout."""
     right = right.replace("N-3", str(order - 3))
-    cmd = [sys.executable, "-m", "qseries", "check", left, right, "-n", str(order), "--json",
-           "--method", method, "--allow-long"]
-    t0 = time.perf_counter()
-    try:
-        # the whole process group is killed past the timeout (a check killed alone leaves
-        # its modular worker processes running)
-        out = run_killing_group(cmd, timeout=timeout, env=tree_env(tree),
-                                cwd=os.path.abspath(tree))
-    except subprocess.TimeoutExpired:
+    args = ["check", left, right, "-n", str(order), "--json", "--method", method, "--allow-long"]
+    got = run_json(tree, args, timeout, f"{left} = {right} at {order} ({method})")
+    if got is None:
         return None
-    wall = time.perf_counter() - t0
-    if out.returncode not in (0, 1):
-        raise SystemExit(f"{left} = {right} at {order} ({method}) failed: "
-                         f"{out.stderr[-400:] or out.stdout[-400:]}")
-    got = json.loads(out.stdout)
-    return wall, float(got["seconds"]), str(got["method"])
+    wall, data = got
+    return wall, float(data["seconds"]), str(data["method"])
 
 
 def main() -> None:

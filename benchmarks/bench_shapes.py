@@ -300,9 +300,12 @@ def qseries_cmd(shape: Shape, order: int) -> list[str]:
     return ["check", shape.left, right, "-n", str(order), "--json", *shape.extra]
 
 
-def run_qseries(tree: str, shape: Shape, order: int, timeout: float) -> Cell:
-    """(wall seconds, reported seconds or None) of one run, None past the timeout."""
-    args = qseries_cmd(shape, order)
+def run_json(tree: str, args: list[str], timeout: float, what: str
+             ) -> tuple[float, dict] | None:
+    """(wall seconds, the JSON it printed) of ``python -m qseries ARGS`` (or ``python -c``)
+    with the qseries of ``tree``; None past the timeout (the whole process group is killed:
+    a check killed alone leaves its modular worker processes running); an exit code other
+    than 0 or 1 stops the benchmark, naming ``what``."""
     cmd = [sys.executable, *(args if args[0] == "-c" else ["-m", "qseries", *args])]
     t0 = time.perf_counter()
     try:
@@ -314,9 +317,16 @@ def run_qseries(tree: str, shape: Shape, order: int, timeout: float) -> Cell:
         return None
     wall = time.perf_counter() - t0
     if out.returncode not in (0, 1):
-        raise SystemExit(f"{tree}: {shape.name} at {order} failed: "
-                         f"{out.stderr[-400:] or out.stdout[-400:]}")
-    data = json.loads(out.stdout)
+        raise SystemExit(f"{what} failed: {out.stderr[-400:] or out.stdout[-400:]}")
+    return wall, json.loads(out.stdout)
+
+
+def run_qseries(tree: str, shape: Shape, order: int, timeout: float) -> Cell:
+    """(wall seconds, reported seconds or None) of one run, None past the timeout."""
+    got = run_json(tree, qseries_cmd(shape, order), timeout, f"{tree}: {shape.name} at {order}")
+    if got is None:
+        return None
+    wall, data = got
     if shape.kind == "check" and data["holds"] is not shape.holds:
         raise SystemExit(f"{tree}: {shape.name} at {order}: holds = {data['holds']}")
     if shape.kind == "verify":
